@@ -1,0 +1,1 @@
+"""Command line, terminal summary, JSON record and output files."""

@@ -1,0 +1,89 @@
+"""Command line: `stressraiser check PART [--json FILE] [--quiet]`.
+
+Exit codes: 0 done, 2 a part file or option the user must fix, 3 the mesher or solver failed,
+4 an internal error (a bug: please report it).
+"""
+
+from __future__ import annotations
+
+import argparse
+import os
+import sys
+from collections.abc import Sequence
+
+from rich.console import Console
+
+from ..fem.solve import SolverError
+from ..geometry.errors import PartError
+from ..geometry.meshing import MeshError
+
+EXIT_INPUT, EXIT_NUMERICS, EXIT_INTERNAL = 2, 3, 4
+
+
+class _Parser(argparse.ArgumentParser):
+    """argparse that reports usage mistakes as one line and exit code 2."""
+
+    def error(self, message: str) -> None:  # type: ignore[override]
+        raise PartError(f"command line: {message}")
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(prog="stressraiser", description="Peak stress and Kt of flat plates by converged 2-D FE.")
+    commands = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
+    check = commands.add_parser("check", help="check one part file")
+    check.add_argument("part", help="part file (TOML)")
+    check.add_argument("--json", metavar="FILE", help="write the result as a JSON record")
+    check.add_argument("--quiet", action="store_true", help="print only the verdict line")
+    return parser
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    err = Console(stderr=True, highlight=False, soft_wrap=True)
+    try:
+        args = build_parser().parse_args(argv)
+        return _run(args)
+    except PartError as exc:
+        err.print(f"stressraiser: {exc}", markup=False)
+        return EXIT_INPUT
+    except (MeshError, SolverError) as exc:
+        err.print(f"stressraiser: {exc}", markup=False)
+        return EXIT_NUMERICS
+    except KeyboardInterrupt:
+        err.print("stressraiser: interrupted", markup=False)
+        return 130
+    except Exception as exc:  # a bug: one line unless debugging
+        if os.environ.get("STRESSRAISER_DEBUG"):
+            raise
+        err.print(f"stressraiser: internal error ({type(exc).__name__}: {exc}); set STRESSRAISER_DEBUG=1 "
+                  "for the traceback and please report it", markup=False)
+        return EXIT_INTERNAL
+
+
+def _run(args: argparse.Namespace) -> int:
+    if args.command == "check":
+        return _check(args)
+    raise PartError(f"command line: unknown command {args.command!r}")
+
+
+def _check(args: argparse.Namespace) -> int:
+    from ..compare.check import check_part
+    from ..geometry.partfile import load_part
+    from .files import write_json
+    from .record import check_record
+    from .summary import print_summary, verdict
+
+    spec = load_part(args.part)
+    out = Console(highlight=False, soft_wrap=True)
+    result = check_part(spec)
+    if args.json:
+        write_json(args.json, check_record(result))
+    if args.quiet:
+        out.print(verdict(result), markup=False)
+    else:
+        print_summary(result, out)
+    return 0
+
+
+def entry() -> None:
+    """Console-script entry point."""
+    sys.exit(main())

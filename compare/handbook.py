@@ -1,0 +1,166 @@
+"""Published stress-concentration factors and the rules that match a part to them.
+
+Each case carries its formula, source, nominal-stress definition and validity range. A part matches a
+case only when its geometry is that case: the family's recogniser decides, within stated tolerances.
+Values recalled from the handbooks rather than read from a copy are marked "(from memory)".
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..geometry.spec import PartSpec
+
+CENTRED_TOLERANCE = 0.01  # hole centre within 1 % of the width from the centre line
+END_CLEARANCE = 1.0  # hole centre at least one plate width from either end (Saint-Venant; common practice)
+
+
+@dataclass(frozen=True)
+class Case:
+    """One published Kt formula or table.
+
+    nominal: "net" or "gross", the nominal stress the formula's Kt is referred to, described by
+    nominal_text. ranges: validity interval of each parameter.
+    """
+
+    key: str
+    family: str
+    title: str
+    source: str
+    formula: str
+    nominal: str
+    nominal_text: str
+    ranges: dict[str, tuple[float, float]]
+    kt: Callable[[dict[str, float]], float]
+
+    def in_range(self, params: dict[str, float]) -> bool:
+        return all(lo - 1e-12 <= params[k] <= hi + 1e-12 for k, (lo, hi) in self.ranges.items())
+
+
+@dataclass(frozen=True)
+class Recognised:
+    """A part recognised as a handbook family: its parameters and gross/net area ratio (>= 1)."""
+
+    family: str
+    description: str
+    params: dict[str, float]
+    gross_over_net: float
+
+
+@dataclass(frozen=True)
+class Match:
+    """A case applied to a recognised part: Kt on both nominal definitions."""
+
+    case: Case
+    recognised: Recognised
+    kt_net: float
+    kt_gross: float
+    in_range: bool
+
+
+# --- central circular hole in a finite-width plate, axial tension ------------------------------------
+
+def _peterson_central_hole(p: dict[str, float]) -> float:
+    x = p["d/W"]
+    return 2.0 + 0.284 * (1 - x) - 0.600 * (1 - x) ** 2 + 1.32 * (1 - x) ** 3
+
+
+HOWLAND_TABLE = ((0.0, 0.1, 0.2, 0.3, 0.4, 0.5), (3.00, 3.03, 3.14, 3.36, 3.74, 4.32))
+
+
+def quadratic_interpolation(table: tuple[tuple[float, ...], tuple[float, ...]], x: float) -> float:
+    """Quadratic (Lagrange) interpolation through the three table points nearest x; exact at the points."""
+    xs, ys = np.asarray(table[0]), np.asarray(table[1])
+    i = int(np.clip(np.searchsorted(xs, x) - 1, 0, len(xs) - 3))
+    if i + 2 < len(xs) - 1 and abs(x - xs[i]) > abs(xs[i + 3] - x):
+        i += 1
+    x0, x1, x2 = xs[i:i + 3]
+    y0, y1, y2 = ys[i:i + 3]
+    return float(y0 * (x - x1) * (x - x2) / ((x0 - x1) * (x0 - x2))
+                 + y1 * (x - x0) * (x - x2) / ((x1 - x0) * (x1 - x2))
+                 + y2 * (x - x0) * (x - x1) / ((x2 - x0) * (x2 - x1)))
+
+
+def _howland_central_hole(p: dict[str, float]) -> float:
+    return quadratic_interpolation(HOWLAND_TABLE, p["d/W"])
+
+
+CASES: tuple[Case, ...] = (
+    Case(
+        key="central-hole-tension-peterson",
+        family="central-hole-tension",
+        title="Central circular hole in a finite-width plate, axial tension (curve fit)",
+        source="W. D. Pilkey and D. F. Pilkey, Peterson's Stress Concentration Factors, 3rd ed. (2008), "
+               "chart 4.1, curve fit (validity range from memory)",
+        formula="Ktn = 2 + 0.284 (1 - d/W) - 0.600 (1 - d/W)^2 + 1.32 (1 - d/W)^3",
+        nominal="net",
+        nominal_text="P / ((W - d) t)",
+        ranges={"d/W": (0.0, 1.0)},
+        kt=_peterson_central_hole,
+    ),
+    Case(
+        key="central-hole-tension-howland",
+        family="central-hole-tension",
+        title="Central circular hole in a finite-width plate, axial tension (Howland's table)",
+        source="R. C. J. Howland, On the stresses in the neighbourhood of a circular hole in a strip under "
+               "tension, Phil. Trans. R. Soc. A 229 (1930); tabulated d/W = 0 ... 0.5, quadratic "
+               "interpolation between table points",
+        formula="Ktg from Howland's table, quadratic interpolation between points",
+        nominal="gross",
+        nominal_text="P / (W t)",
+        ranges={"d/W": (0.0, 0.5)},
+        kt=_howland_central_hole,
+    ),
+)
+
+
+def recognise_central_hole(spec: PartSpec) -> Recognised | None:
+    """One circular hole on the centre line, far enough from both ends, axial load only."""
+    if len(spec.holes) != 1:
+        return None
+    hole = spec.holes[0]
+    W, L = spec.plate.width, spec.plate.length
+    if abs(hole.center[1]) > CENTRED_TOLERANCE * W:
+        return None
+    if min(hole.center[0] + L / 2, L / 2 - hole.center[0]) < END_CLEARANCE * W:
+        return None
+    x = hole.diameter / W
+    return Recognised("central-hole-tension", "central circular hole in a finite-width plate, axial tension",
+                      {"d/W": x}, 1.0 / (1.0 - x))
+
+
+RECOGNISERS: tuple[Callable[[PartSpec], Recognised | None], ...] = (recognise_central_hole,)
+
+
+def handbook_matches(spec: PartSpec) -> list[Match]:
+    """Every published case that covers this part's geometry, preferred first; empty if none does."""
+    matches = []
+    for recognise in RECOGNISERS:
+        found = recognise(spec)
+        if found is None:
+            continue
+        for case in (c for c in CASES if c.family == found.family):
+            kt = float(case.kt(found.params))
+            kt_net = kt if case.nominal == "net" else kt / found.gross_over_net
+            kt_gross = kt if case.nominal == "gross" else kt * found.gross_over_net
+            matches.append(Match(case, found, kt_net, kt_gross, case.in_range(found.params)))
+    return matches
+
+
+def case_table() -> list[Case]:
+    """All cases, for listing."""
+    return list(CASES)
+
+
+def evaluate(key: str, params: dict[str, float]) -> float:
+    """Kt of the case `key` at `params`, on that case's own nominal definition."""
+    for case in CASES:
+        if case.key == key:
+            return float(case.kt(params))
+    raise KeyError(key)
+
+
+__all__ = ["Case", "Match", "Recognised", "CASES", "handbook_matches", "case_table", "evaluate"]

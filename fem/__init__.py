@@ -1,0 +1,1 @@
+"""Finite elements: constant-strain triangles, assembly, loads, supports, solve, recovery, convergence."""

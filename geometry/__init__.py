@@ -1,0 +1,1 @@
+"""Part specification, validation, units, model building and meshing."""

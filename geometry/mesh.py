@@ -1,0 +1,49 @@
+"""The mesh handed from geometry to fem: plain arrays and named boundary edge sets."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+
+@dataclass(frozen=True)
+class Feature:
+    """A stress raiser the mesh resolves: its name (e.g. "hole 2"), the smallest radius of curvature of
+    its edge (mm) and the mesh size used at that edge (mm)."""
+
+    name: str
+    radius: float
+    edge_size: float
+
+
+@dataclass(frozen=True)
+class Mesh:
+    """Linear triangles.
+
+    nodes: (n, 2) float64 coordinates in mm.
+    triangles: (m, 3) int32 node indices, counter-clockwise.
+    edges: boundary edge sets by name ("held", "loaded", "side", "hole 1", ...), each (k, 2) int32.
+    features: the raisers this mesh was graded for.
+    """
+
+    nodes: np.ndarray
+    triangles: np.ndarray
+    edges: dict[str, np.ndarray]
+    features: tuple[Feature, ...]
+
+    @property
+    def n_nodes(self) -> int:
+        return int(self.nodes.shape[0])
+
+    @property
+    def n_elements(self) -> int:
+        return int(self.triangles.shape[0])
+
+    def edge_nodes(self, name: str) -> np.ndarray:
+        """Sorted unique node indices on the named boundary edge set."""
+        return np.unique(self.edges[name])
+
+    def boundary_nodes(self) -> np.ndarray:
+        """Sorted unique node indices on any boundary edge."""
+        return np.unique(np.concatenate([e.ravel() for e in self.edges.values()]))

@@ -1,0 +1,48 @@
+"""Every bundled example runs through the command line and writes a complete JSON record."""
+
+from __future__ import annotations
+
+import json
+
+import pytest
+
+from stressraiser.cli.main import main
+
+from conftest import EXAMPLES
+
+REQUIRED = [
+    ("peak", "stress"), ("peak", "location"), ("net_section", "area"), ("net_section", "average"),
+    ("net_section", "equilibrium_error"), ("kt", "net"), ("kt", "gross"), ("kt", "error"), ("kt", "converged"),
+    ("mesh", "levels"),
+]
+
+
+@pytest.mark.parametrize("example", sorted(EXAMPLES.glob("*.toml")), ids=lambda p: p.stem)
+def test_example_runs_and_records(example, tmp_path, capsys):
+    out = tmp_path / "result.json"
+    assert main(["check", str(example), "--json", str(out)]) == 0
+    record = json.loads(out.read_text())
+    for table, key in REQUIRED:
+        assert key in record[table]
+    assert "handbook" in record and "cautions" in record and record["cautions"]
+    assert record["kt"]["converged"] is True
+    assert abs(record["net_section"]["equilibrium_error"]) < 0.005
+    assert all({"nodes", "elements", "peak"} <= set(level) for level in record["mesh"]["levels"])
+    printed = capsys.readouterr().out
+    assert "Kt(net)" in printed and "Cautions" in printed
+
+
+def test_quiet_prints_verdict_only(capsys):
+    assert main(["check", str(EXAMPLES / "winch_strap.toml"), "--quiet"]) == 0
+    lines = capsys.readouterr().out.strip().splitlines()
+    assert len(lines) == 1 and lines[0].startswith("Kt(net)")
+
+
+def test_same_part_same_numbers(tmp_path):
+    # Determinism: two runs of the same part file give identical JSON numbers.
+    a, b = tmp_path / "a.json", tmp_path / "b.json"
+    main(["check", str(EXAMPLES / "winch_strap.toml"), "--json", str(a), "--quiet"])
+    main(["check", str(EXAMPLES / "winch_strap.toml"), "--json", str(b), "--quiet"])
+    ra, rb = json.loads(a.read_text()), json.loads(b.read_text())
+    ra.pop("version"), rb.pop("version")
+    assert ra == rb

@@ -1,0 +1,54 @@
+"""Handbook formulas at their published check points, and the rules that match a part to a case."""
+
+from __future__ import annotations
+
+import pytest
+
+from stressraiser.compare.handbook import HOWLAND_TABLE, evaluate, handbook_matches
+
+from conftest import plate_with_hole
+
+
+@pytest.mark.parametrize("x, expected", [(0.2, 2.519), (0.5, 2.157)])
+def test_peterson_central_hole_fit_check_points(x, expected):
+    # Pilkey & Pilkey, Peterson's Stress Concentration Factors, 3rd ed. (2008), chart 4.1 curve fit;
+    # check points transcribed in shared/REFERENCES.md section 2 (from memory).
+    assert evaluate("central-hole-tension-peterson", {"d/W": x}) == pytest.approx(expected, abs=5e-4)
+
+
+@pytest.mark.parametrize("x, ktg", list(zip(*HOWLAND_TABLE)))
+def test_howland_table_reproduced_at_its_points(x, ktg):
+    # Howland, Phil. Trans. R. Soc. A 229 (1930): the interpolation passes through the table.
+    assert evaluate("central-hole-tension-howland", {"d/W": x}) == pytest.approx(ktg, abs=1e-12)
+
+
+def test_fit_and_table_agree_within_one_percent():
+    # The two published sources describe the same geometry: gross Kt from the net fit,
+    # Ktg = Ktn / (1 - d/W), agrees with Howland's table within 1 % (shared/REFERENCES.md section 2).
+    for x, ktg in zip(*HOWLAND_TABLE):
+        assert evaluate("central-hole-tension-peterson", {"d/W": x}) / (1 - x) == pytest.approx(ktg, rel=0.01)
+
+
+def test_central_hole_matches_both_cases():
+    matches = handbook_matches(plate_with_hole(width=80.0, holes=((0.0, 0.0, 22.0),)))
+    assert [m.case.key for m in matches] == ["central-hole-tension-peterson", "central-hole-tension-howland"]
+    m = matches[0]
+    assert m.recognised.params["d/W"] == pytest.approx(22.0 / 80.0)
+    assert m.kt_gross == pytest.approx(m.kt_net / (1 - 22.0 / 80.0), rel=1e-12)
+    assert m.in_range
+
+
+@pytest.mark.parametrize("holes", [
+    ((0.0, 10.0, 20.0),),               # offset hole
+    ((-30.0, 0.0, 16.0), (30.0, 0.0, 16.0)),  # two holes
+    ((120.0, 0.0, 16.0),),              # hole too close to the loaded end for the chart
+])
+def test_no_case_for_other_geometries(holes):
+    assert handbook_matches(plate_with_hole(holes=holes)) == []
+
+
+def test_outside_range_flagged():
+    # Howland's table stops at d/W = 0.5: a d/W = 0.6 hole still matches the fit, not the table range.
+    matches = handbook_matches(plate_with_hole(width=50.0, length=400.0, holes=((0.0, 0.0, 30.0),)))
+    ranges = {m.case.key: m.in_range for m in matches}
+    assert ranges == {"central-hole-tension-peterson": True, "central-hole-tension-howland": False}
