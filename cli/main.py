@@ -1,4 +1,5 @@
-"""Command line: `stressraiser check PART [--json FILE] [--quiet]`.
+"""Command line: `stressraiser COMMAND ...`; each command lives in its own module listed in COMMANDS
+(a module with NAME, add_parser(subparsers) and run(args) -> exit code).
 
 Exit codes: 0 done, 2 a part file or option the user must fix, 3 the mesher or solver failed,
 4 an internal error (a bug: please report it).
@@ -16,6 +17,9 @@ from rich.console import Console
 from ..fem.solve import SolverError
 from ..geometry.errors import PartError
 from ..geometry.meshing import MeshError
+from . import check
+
+COMMANDS = (check,)
 
 EXIT_INPUT, EXIT_NUMERICS, EXIT_INTERNAL = 2, 3, 4
 
@@ -30,10 +34,8 @@ class _Parser(argparse.ArgumentParser):
 def build_parser() -> argparse.ArgumentParser:
     parser = _Parser(prog="stressraiser", description="Peak stress and Kt of flat plates by converged 2-D FE.")
     commands = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
-    check = commands.add_parser("check", help="check one part file")
-    check.add_argument("part", help="part file (TOML)")
-    check.add_argument("--json", metavar="FILE", help="write the result as a JSON record")
-    check.add_argument("--quiet", action="store_true", help="print only the verdict line")
+    for command in COMMANDS:
+        command.add_parser(commands)
     return parser
 
 
@@ -60,28 +62,10 @@ def main(argv: Sequence[str] | None = None) -> int:
 
 
 def _run(args: argparse.Namespace) -> int:
-    if args.command == "check":
-        return _check(args)
+    for command in COMMANDS:
+        if command.NAME == args.command:
+            return command.run(args)
     raise PartError(f"command line: unknown command {args.command!r}")
-
-
-def _check(args: argparse.Namespace) -> int:
-    from ..compare.check import check_part
-    from ..geometry.partfile import load_part
-    from .files import write_json
-    from .record import check_record
-    from .summary import print_summary, verdict
-
-    spec = load_part(args.part)
-    out = Console(highlight=False, soft_wrap=True)
-    result = check_part(spec)
-    if args.json:
-        write_json(args.json, check_record(result))
-    if args.quiet:
-        out.print(verdict(result), markup=False)
-    else:
-        print_summary(result, out)
-    return 0
 
 
 def entry() -> None:

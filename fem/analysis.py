@@ -11,10 +11,10 @@ from ..geometry.mesh import Mesh
 from ..geometry.spec import PartSpec
 from .assembly import element_stresses, stiffness_matrix
 from .elasticity import constitutive_matrix
-from .loads import edge_forces, uniform_end_traction
+from .loads import part_loads
 from .recovery import free_edge_stress, patch_recovery, principal_stresses, von_mises
 from .solve import solve_constrained
-from .supports import held_end_dofs
+from .supports import part_supports
 
 LOADED_EDGES = ("held", "loaded")
 
@@ -50,10 +50,9 @@ def solve_part(spec: PartSpec, mesh: Mesh) -> Solution:
     D = constitutive_matrix(spec.material.E, spec.material.nu, spec.plate.condition)
     t = spec.plate.thickness
     K = stiffness_matrix(mesh.nodes, mesh.triangles, D, t)
-    loaded = mesh.edges["loaded"]
-    f = edge_forces(mesh.nodes, loaded, uniform_end_traction(mesh.nodes, loaded, spec.load.axial, t), t)
+    f = part_loads(spec, mesh)
     seconds["assemble"], clock = time.perf_counter() - clock, time.perf_counter()
-    u = solve_constrained(K, f, held_end_dofs(mesh))
+    u = solve_constrained(K, f, part_supports(spec, mesh))
     seconds["solve"], clock = time.perf_counter() - clock, time.perf_counter()
     sigma_e = element_stresses(mesh.nodes, mesh.triangles, D, u)
     nodal = recover_nodal(mesh, sigma_e, u, edge_modulus(spec))

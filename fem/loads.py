@@ -6,6 +6,9 @@ from collections.abc import Callable
 
 import numpy as np
 
+from ..geometry.mesh import Mesh
+from ..geometry.spec import PartSpec
+
 Traction = Callable[[np.ndarray], np.ndarray]  # (k, 2) points in mm -> (k, 2) traction in MPa
 
 
@@ -35,3 +38,10 @@ def uniform_end_traction(nodes: np.ndarray, edges: np.ndarray, force: float, thi
     """Uniform normal traction (MPa) along x that sums to `force` (N) over the edge set."""
     stress = force / (thickness * edge_lengths(nodes, edges).sum())
     return lambda p: np.column_stack([np.full(len(p), stress), np.zeros(len(p))])
+
+
+def part_loads(spec: PartSpec, mesh: Mesh) -> np.ndarray:
+    """Global force vector (2n,) in N of every load the part file applies."""
+    t = spec.plate.thickness
+    loaded = mesh.edges["loaded"]
+    return edge_forces(mesh.nodes, loaded, uniform_end_traction(mesh.nodes, loaded, spec.load.axial, t), t)

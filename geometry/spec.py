@@ -74,3 +74,4 @@ class PartSpec:
     load: Load
     holes: tuple[Hole, ...] = ()
     mesh: MeshControls = field(default_factory=MeshControls)
+    units: str = "mm-N-MPa"  # the unit system the part file was written in (for reporting only)
