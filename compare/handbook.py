@@ -132,7 +132,22 @@ def recognise_central_hole(spec: PartSpec) -> Recognised | None:
                       {"d/W": x}, 1.0 / (1.0 - x))
 
 
+def build_central_hole(params: dict[str, float], width: float = 100.0) -> dict:
+    """A part-file dictionary of the central-hole case at `params` (for sweeps and regression suites):
+    a plate six widths long in axial tension, mm / N / MPa."""
+    return {
+        "title": f"central hole, d/W = {params['d/W']:g}",
+        "plate": {"length": 6.0 * width, "width": width, "thickness": 10.0},
+        "hole": [{"center": [0.0, 0.0], "diameter": params["d/W"] * width}],
+        "material": {"E": 210000.0, "nu": 0.3},
+        "load": {"axial": 100000.0},
+    }
+
+
 RECOGNISERS: tuple[Callable[[PartSpec], Recognised | None], ...] = (recognise_central_hole,)
+
+# family -> function building a part-file dictionary that the family's recogniser accepts
+BUILDERS: dict[str, Callable[[dict[str, float]], dict]] = {"central-hole-tension": build_central_hole}
 
 
 def handbook_matches(spec: PartSpec) -> list[Match]:

@@ -52,3 +52,15 @@ def test_outside_range_flagged():
     matches = handbook_matches(plate_with_hole(width=50.0, length=400.0, holes=((0.0, 0.0, 30.0),)))
     ranges = {m.case.key: m.in_range for m in matches}
     assert ranges == {"central-hole-tension-peterson": True, "central-hole-tension-howland": False}
+
+
+def test_builders_produce_parts_their_family_recognises():
+    from stressraiser.compare.handbook import BUILDERS, CASES
+    from stressraiser.geometry.partfile import part_from_dict
+
+    for family, build in BUILDERS.items():
+        case = next(c for c in CASES if c.family == family)
+        params = {k: 0.5 * (lo + hi) for k, (lo, hi) in case.ranges.items()}
+        matches = handbook_matches(part_from_dict(build(params)))
+        assert matches and matches[0].case.family == family
+        assert matches[0].recognised.params == pytest.approx(params)
