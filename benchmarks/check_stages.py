@@ -1,36 +1,51 @@
-"""Wall time of the whole `stressraiser check` process on a bundled example, and of each stage.
+"""Wall time of the whole `stressraiser check` process on the bundled examples, and of each stage.
 
-Prints figures only; asserts nothing about time. Usage:
-    python benchmarks/check_stages.py [examples/winch_strap.toml] [--repeat 5]
+For each part: the whole console process (interpreter start, imports, meshing, solving, output), best of
+n, then the per-level stage times measured in-process (mesh, assemble, solve, recover) with the solver
+each level used, and Kt against the preferred handbook case. `--order 2` checks a copy of each part file
+with quadratic triangles. Prints figures only; asserts nothing about time. Usage:
+
+    python benchmarks/check_stages.py [PART ...] [--repeat 3] [--order 1|2]
 """
 
 from __future__ import annotations
 
 import argparse
 import json
-import os
-import platform
-import statistics
+import re
 import subprocess
 import sys
 import tempfile
 import time
 from pathlib import Path
 
+from measure import machine
+
 HERE = Path(__file__).resolve().parent
+EXAMPLES = HERE.parent / "examples"
+
+
+def with_order(text: str, order: int) -> str:
+    """The part-file text with [mesh] order set (the table is added when the file has none)."""
+    if order == 1:
+        return text
+    if re.search(r"^\[mesh\]\s*$", text, flags=re.M):
+        return re.sub(r"^\[mesh\]\s*$", f"[mesh]\norder = {order}", text, count=1, flags=re.M)
+    return text + f"\n[mesh]\norder = {order}\n"
 
 
 def whole_process(part: Path, repeat: int) -> tuple[list[float], dict]:
-    """Time the console command end to end (interpreter start, imports, meshing, solving, output)."""
+    """Time the console command end to end."""
     times, record = [], {}
     with tempfile.TemporaryDirectory() as tmp:
         out = Path(tmp) / "r.json"
         for _ in range(repeat):
             start = time.perf_counter()
             subprocess.run([sys.executable, "-m", "stressraiser", "check", str(part), "--json", str(out), "--quiet"],
-                           check=True, capture_output=True)
+                           check=False, capture_output=True)
             times.append(time.perf_counter() - start)
-        record = json.loads(out.read_text())
+        if out.exists():
+            record = json.loads(out.read_text())
     return times, record
 
 
@@ -40,32 +55,49 @@ def stages(part: Path) -> list[dict]:
     from stressraiser.geometry.partfile import load_part
 
     result = check_part(load_part(part))
-    return [dict(nodes=lv.nodes, elements=lv.elements, dofs=2 * lv.nodes, peak=lv.peak, **lv.seconds)
+    return [dict(nodes=lv.nodes, elements=lv.elements, dofs=2 * lv.nodes, peak=lv.peak, solver=lv.solver, **lv.seconds)
             for lv in result.study.levels]
+
+
+def report(part: Path, repeat: int) -> None:
+    times, record = whole_process(part, repeat)
+    print(f"\npart: {part.name}")
+    if not record:
+        print("  the check failed (no JSON record)")
+        return
+    print(f"whole check process: min {min(times):.2f} s over {len(times)} runs (all: "
+          + ", ".join(f"{t:.2f}" for t in times) + ")")
+    rows = stages(part)
+    print(f"{'level':>5} {'DOFs':>8} {'elements':>9} {'mesh s':>7} {'assemble s':>10} {'solve s':>8} {'recover s':>9} "
+          f"{'solver':>8} {'peak MPa':>9}")
+    for i, r in enumerate(rows, 1):
+        print(f"{i:>5} {r['dofs']:>8} {r['elements']:>9} {r['mesh']:>7.3f} {r['assemble']:>10.3f} {r['solve']:>8.3f} "
+              f"{r['recover']:>9.3f} {r['solver']:>8} {r['peak']:>9.2f}")
+    totals = {k: sum(r.get(k, 0.0) for r in rows) for k in ("mesh", "assemble", "solve", "recover")}
+    print("stage totals: " + ", ".join(f"{k} {v:.3f} s" for k, v in totals.items()))
+    kt = record["kt"]
+    print(f"Kt net {kt['net']:.4f} ± {kt['error']:.2%} (converged: {kt['converged']}), levels {len(rows)}")
+    hb = record.get("handbook")
+    if hb and hb.get("kt_net"):
+        print(f"handbook {hb['case']}: Kt net {hb['kt_net']:.4f}; FE differs by {kt['net'] / hb['kt_net'] - 1:+.3%}")
 
 
 def main() -> None:
     parser = argparse.ArgumentParser()
-    parser.add_argument("part", nargs="?", default=str(HERE.parent / "examples" / "winch_strap.toml"))
-    parser.add_argument("--repeat", type=int, default=5)
+    parser.add_argument("parts", nargs="*", help="part files (default: every bundled example)")
+    parser.add_argument("--repeat", type=int, default=3)
+    parser.add_argument("--order", type=int, choices=(1, 2), default=1)
     args = parser.parse_args()
-    part = Path(args.part)
-    print(f"machine: {platform.machine()} {os.cpu_count()} cores, Python {platform.python_version()}")
-    times, record = whole_process(part, args.repeat)
-    print(f"part: {part.name}")
-    print(f"whole check process: median {statistics.median(times):.2f} s, min {min(times):.2f} s over {len(times)} runs")
-    rows = stages(part)
-    print(f"{'level':>5} {'DOFs':>8} {'elements':>9} {'mesh s':>7} {'assemble s':>10} {'solve s':>8} {'recover s':>9} {'peak MPa':>9}")
-    for i, r in enumerate(rows, 1):
-        print(f"{i:>5} {r['dofs']:>8} {r['elements']:>9} {r['mesh']:>7.3f} {r['assemble']:>10.3f} {r['solve']:>8.3f} "
-              f"{r['recover']:>9.3f} {r['peak']:>9.2f}")
-    totals = {k: sum(r[k] for r in rows) for k in ("mesh", "assemble", "solve", "recover")}
-    print("stage totals: " + ", ".join(f"{k} {v:.3f} s" for k, v in totals.items()))
-    kt = record["kt"]
-    print(f"Kt net {kt['net']:.4f} ± {kt['error']:.2%} (converged: {kt['converged']}), levels {len(rows)}")
-    if record["handbook"]:
-        hb = record["handbook"]
-        print(f"handbook {hb['case']}: Kt net {hb['kt_net']:.4f}; FE differs by {kt['net'] / hb['kt_net'] - 1:+.3%}")
+    parts = [Path(p) for p in args.parts] or sorted(EXAMPLES.glob("*.toml"))
+    print(f"machine: {machine()}")
+    print(f"element order {args.order}")
+    with tempfile.TemporaryDirectory() as tmp:
+        for part in parts:
+            if args.order != 1:
+                copy = Path(tmp) / part.name
+                copy.write_text(with_order(part.read_text(encoding="utf-8"), args.order), encoding="utf-8")
+                part = copy
+            report(part, args.repeat)
 
 
 if __name__ == "__main__":

@@ -1,7 +1,8 @@
 """Command line: `stressraiser COMMAND ...`; each command lives in its own module listed in COMMANDS
 (a module with NAME, add_parser(subparsers) and run(args) -> exit code).
 
-Exit codes: 0 done, 2 a part file or option the user must fix, 3 the mesher or solver failed,
+Exit codes: 0 done, 1 a batch ran but some of its cases failed (sweep, regress), 2 a part file or option
+the user must fix, 3 the mesher or solver failed,
 4 an internal error (a bug: please report it).
 """
 
@@ -15,11 +16,15 @@ from collections.abc import Sequence
 from rich.console import Console
 
 from ..fem.solve import SolverError
-from ..geometry.errors import PartError
+from ..geometry.errors import PartError, one_line
 from ..geometry.meshing import MeshError
-from . import check
+from . import check, regress, sweep
+from . import materials_table
+from . import cases
 
-COMMANDS = (check,)
+COMMANDS = (check, sweep, regress)
+COMMANDS += (materials_table,)
+COMMANDS += (cases,)
 
 EXIT_INPUT, EXIT_NUMERICS, EXIT_INTERNAL = 2, 3, 4
 
@@ -48,7 +53,11 @@ def main(argv: Sequence[str] | None = None) -> int:
         err.print(f"stressraiser: {exc}", markup=False)
         return EXIT_INPUT
     except (MeshError, SolverError) as exc:
-        err.print(f"stressraiser: {exc}", markup=False)
+        err.print(f"stressraiser: {one_line(str(exc))}", markup=False)
+        return EXIT_NUMERICS
+    except MemoryError:
+        err.print("stressraiser: out of memory while meshing or solving; lower mesh.max_elements (or "
+                  "--max-elements) or mesh.tolerance", markup=False)
         return EXIT_NUMERICS
     except KeyboardInterrupt:
         err.print("stressraiser: interrupted", markup=False)
@@ -56,7 +65,7 @@ def main(argv: Sequence[str] | None = None) -> int:
     except Exception as exc:  # a bug: one line unless debugging
         if os.environ.get("STRESSRAISER_DEBUG"):
             raise
-        err.print(f"stressraiser: internal error ({type(exc).__name__}: {exc}); set STRESSRAISER_DEBUG=1 "
+        err.print(f"stressraiser: internal error ({type(exc).__name__}: {one_line(str(exc))}); set STRESSRAISER_DEBUG=1 "
                   "for the traceback and please report it", markup=False)
         return EXIT_INTERNAL
 

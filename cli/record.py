@@ -7,6 +7,9 @@ from typing import Any
 
 from .. import __version__
 from ..compare.check import CheckResult
+from .loads_record import (kt_basis, load_record, net_section_statics, nominal_records, peak_component,
+                           section_record, stresses_record, support_record)
+from .signoff_record import design_record, fatigue_record, material_record
 
 SCHEMA = "stressraiser.check/1"
 
@@ -20,22 +23,26 @@ def check_record(result: CheckResult) -> dict[str, Any]:
         "version": __version__,
         "title": spec.title,
         "units": {"length": "mm", "force": "N", "stress": "MPa"},
+        "display_units": spec.units,  # the part file's system, used by the terminal summary
         "part": {
             "length": spec.plate.length,
             "width": spec.plate.width,
             "thickness": spec.plate.thickness,
             "condition": spec.plate.condition,
             "holes": [{"center": list(h.center), "diameter": h.diameter} for h in spec.holes],
-            "material": {"E": spec.material.E, "nu": spec.material.nu},
-            "load": {"axial": spec.load.axial},
+            **_raisers(spec),
+            "material": material_record(spec.material),
+            "load": load_record(spec),
+            "support": support_record(spec),
         },
         "peak": {
             "stress": result.peak.stress,
             "fe_stress": result.peak.fe_stress,
             "location": list(result.peak.location),
             "feature": result.peak.feature,
-            "component": "maximum principal",
+            "component": peak_component(result),
         },
+        "stresses": stresses_record(result),
         "net_section": {
             "x": ns.x,
             "ligaments": [list(s) for s in ns.ligaments],
@@ -43,8 +50,9 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             "area": ns.area,
             "average": ns.average,
             "fe_force": ns.fe_force,
-            "applied_force": spec.load.axial,
+            "applied_force": ns.result.statics.normal_force if ns.result is not None else spec.load.axial,
             "equilibrium_error": ns.equilibrium_error,
+            **net_section_statics(result),
             "distribution": {
                 "y": ns.cut.positions.tolist(),
                 "normal_stress": ns.cut.normal_stress.tolist(),
@@ -58,22 +66,31 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             "error": _finite(result.kt.error),
             "converged": result.kt.converged,
             "net_band": [result.kt.net * (1 - _finite(result.kt.error, 1.0)), result.kt.net * (1 + _finite(result.kt.error, 1.0))],
+            "basis": kt_basis(result),
         },
+        "nominal_stresses": nominal_records(result),
+        "sections": [section_record(r) for r in result.sections],
         "mesh": {
             "tolerance": spec.mesh.tolerance,
+            "element_order": spec.mesh.order,
+            "solver_setting": spec.mesh.solver,
             "method": study.estimate.method,
             "observed_order": study.estimate.order,
             "stop_reason": study.stop_reason,
             "levels": [
                 {"scale": lv.scale, "nodes": lv.nodes, "elements": lv.elements, "peak": lv.peak,
-                 "location": list(lv.location)}
+                 "location": list(lv.location), "solver": lv.solver,
+                 "raisers": {name: peak for name, (peak, _) in lv.raisers.items()}}
                 for lv in study.levels
             ],
         },
+        "peaks": [_raiser_peak(p) for p in result.peaks],
         "handbook": None if preferred is None else _match(preferred),
         "handbook_alternatives": [_match(m) for m in result.handbook[1:]],
         "handbook_note": None if preferred else "no handbook case covers this geometry",
         "warnings": list(result.warnings),
+        "design": design_record(result.design),
+        "fatigue": fatigue_record(result.fatigue),
         "cautions": list(result.cautions),
     }
 
@@ -88,7 +105,30 @@ def _match(match) -> dict[str, Any]:
         "parameters": dict(match.recognised.params),
         "source": match.case.source,
         "in_range": match.in_range,
+        "raiser": match.recognised.raiser,
     }
+
+
+def _raisers(spec) -> dict[str, Any]:
+    """The raisers other than holes, as given (mm, degrees); only those the part has."""
+    from dataclasses import asdict
+
+    out: dict[str, Any] = {}
+    for key in ("ellipses", "slots", "notches"):
+        if getattr(spec, key):
+            out[key] = [asdict(item) for item in getattr(spec, key)]
+    for key in ("step", "lug"):
+        if getattr(spec, key) is not None:
+            out[key] = asdict(getattr(spec, key))
+    return out
+
+
+def _raiser_peak(p) -> dict[str, Any]:
+    """One competing raiser's own peak (see compare.check.raiser_peaks)."""
+    return {"feature": p.feature, "stress": p.stress, "error": _finite(p.error), "fe_stress": p.fe_stress,
+            "location": list(p.location), "kt_net": p.kt_net,
+            "net_section": {"x": p.section.x, "width": p.section.width, "area": p.section.area,
+                            "average": p.section.average, "equilibrium_error": p.section.equilibrium_error}}
 
 
 def _finite(value: float, fallback: float | None = None) -> float | None:

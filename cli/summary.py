@@ -3,65 +3,154 @@
 from __future__ import annotations
 
 from rich.console import Console
+from rich.markup import escape
 from rich.table import Table
 
 from ..compare.check import CheckResult
+from .citation import short_source
+from .loads_summary import nominal_rows, print_sections, stress_rows
+from .signoff_summary import print_signoff
 
 
 def verdict(result: CheckResult) -> str:
     """One line: Kt with its band and whether the peak converged."""
     kt = result.kt
     state = "converged" if kt.converged else "NOT converged"
-    return (f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f} — peak {result.peak.stress:.1f} MPa "
+    nominal = result.nominal
+    basis = f" on the {nominal.net.label.split(',')[0]} nominal" if nominal and result.spec.load.kind != "axial" else ""
+    return (f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f}{basis} — peak {result.peak.stress:.1f} MPa "
             f"at {result.peak.feature}, {state} in {len(result.study.levels)} mesh levels")
 
 
 def print_summary(result: CheckResult, console: Console) -> None:
-    """Print the full summary."""
-    spec, ns, peak = result.spec, result.net_section, result.peak
-    console.print(f"[bold]{spec.title}[/bold]")
-    console.print(verdict(result))
-    for warning in result.warnings:
-        console.print(f"[bold yellow]warning:[/bold yellow] {warning}")
+    """Print the full summary: the blocks of BLOCKS in order, each a function (result, console)."""
+    for block in BLOCKS:
+        block(result, console)
 
-    table = Table(show_header=False, box=None, pad_edge=False)
-    table.add_column(style="bold")
-    table.add_column(justify="right")
-    table.add_column()
-    table.add_row("Net-section average", f"{ns.average:.1f} MPa",
-                  f"force / net area; section x = {ns.x:g} mm, net width {ns.width:.2f} mm, area {ns.area:.1f} mm²")
-    table.add_row("FE peak stress", f"{peak.stress:.1f} MPa",
-                  f"max principal at ({peak.location[0]:.2f}, {peak.location[1]:.2f}) mm on {peak.feature}; "
-                  f"finest mesh {peak.fe_stress:.1f} MPa")
-    table.add_row("Average understates peak", f"{1 - ns.average / peak.stress:.1%}",
-                  f"the peak is {result.kt.net:.2f} × the net-section average")
-    table.add_row("Kt net / gross", f"{result.kt.net:.3f} / {result.kt.gross:.3f}",
-                  f"band ± {result.kt.error:.2%}; gross nominal {result.gross_average:.1f} MPa")
-    if result.handbook:
-        m = result.handbook[0]
-        diff = result.kt.net / m.kt_net - 1.0
-        rng = "inside" if m.in_range else "OUTSIDE"
-        params = ", ".join(f"{k} = {v:.3g}" for k, v in m.recognised.params.items())
-        table.add_row("Handbook Kt net", f"{m.kt_net:.3f}", f"FE differs by {diff:+.2%}; {params} {rng} the chart range")
-        table.add_row("", "", f"[dim]{m.case.source}[/dim]")
-        for alt in result.handbook[1:]:
-            table.add_row("Also published", f"{alt.kt_net:.3f}",
-                          f"FE differs by {result.kt.net / alt.kt_net - 1.0:+.2%}; [dim]{alt.case.source}[/dim]")
-    else:
-        table.add_row("Handbook Kt", "—", "no handbook case covers this geometry")
-    table.add_row("Equilibrium", f"{ns.equilibrium_error:+.3%}",
-                  f"FE force on the net section {ns.fe_force:.1f} N vs applied {spec.load.axial:.1f} N")
+
+# --- blocks -----------------------------------------------------------------------------------------
+# Each block prints one part of the summary. Rows of the key-numbers table come from the row functions
+# of KEY_ROWS, each returning (label, value, note) triples; keep notes short so a row fits 80 columns.
+
+Row = tuple[str, str, str]
+
+
+def print_heading(result: CheckResult, console: Console) -> None:
+    """Title, the verdict line and any warnings."""
+    console.print(f"[bold]{escape(result.spec.title)}[/bold]")
+    console.print(verdict(result), markup=False, soft_wrap=False)
+    for warning in result.warnings:
+        console.print(f"[bold yellow]warning:[/bold yellow] {escape(warning)}", soft_wrap=False)
+
+
+def peak_rows(result: CheckResult) -> list[Row]:
+    peak = result.peak
+    component = "min principal" if peak.stress < 0.0 else "max principal"
+    return [(f"Peak ({component})", f"{peak.stress:.1f} MPa",
+             f"{peak.feature} at ({peak.location[0]:.2f}, {peak.location[1]:.2f}) mm"),
+            ("  on the finest mesh", f"{peak.fe_stress:.1f} MPa", "before extrapolation")]
+
+
+def net_section_rows(result: CheckResult) -> list[Row]:
+    ns = result.net_section
+    rows = [("Net-section average", f"{ns.average:.1f} MPa", f"N / {ns.area:.1f} mm² at x = {ns.x:g} mm")]
+    if result.spec.load.kind in ("axial", "pin") and ns.average != 0.0:
+        rows.append(("Average understates peak", f"{1 - ns.average / result.peak.stress:.1%}",
+                     f"peak = {abs(result.peak.stress / ns.average):.2f} × average"))
+    return rows
+
+
+def kt_rows(result: CheckResult) -> list[Row]:
+    kt = result.kt
+    return [("Kt net / gross", f"{kt.net:.3f} / {kt.gross:.3f}",
+             f"± {kt.error:.2%}; gross average {result.gross_average:.1f} MPa")]
+
+
+def handbook_rows(result: CheckResult) -> list[Row]:
+    if not result.handbook:
+        return [("Handbook Kt", "—", "no handbook case covers this geometry")]
+    first = result.handbook[0]
+    kt = fe_kt_for(result, first)
+    params = ", ".join(f"{k} = {v:.3g}" for k, v in first.recognised.params.items())
+    rows = [("Handbook Kt net", f"{first.kt_net:.3f}", f"FE {kt / first.kt_net - 1.0:+.2%}; "
+             f"[dim]{escape(short_source(first.case.source))}[/dim]"),
+            ("", "", f"{params}: {'inside' if first.in_range else '[bold]OUTSIDE[/bold]'} its range")]
+    if first.recognised.raiser:
+        rows.append(("", "", f"the case describes {first.recognised.raiser} (FE Kt net {kt:.3f})"))
+    for alt in result.handbook[1:]:
+        alt_kt = fe_kt_for(result, alt)
+        rows.append(("Also published", f"{alt.kt_net:.3f}", f"FE {alt_kt / alt.kt_net - 1.0:+.2%}; "
+                     f"[dim]{escape(short_source(alt.case.source))}[/dim]"))
+    return rows
+
+
+def fe_kt_for(result: CheckResult, match) -> float:
+    """The FE Kt net a handbook match compares with: the part's, or that of the raiser the case describes
+    (e.g. the middle hole of a row)."""
+    if match.recognised.raiser:
+        for p in result.peaks:
+            if p.feature == match.recognised.raiser:
+                return p.kt_net
+    return result.kt.net
+
+
+def competing_rows(result: CheckResult) -> list[Row]:
+    """Each competing raiser's own peak, net section and Kt (when more than one raiser competes)."""
+    if len(result.peaks) < 2:
+        return []
+    rows = []
+    for p in result.peaks:
+        band = f"± {p.error:.1%}" if p.error < 1.0 else "band unknown"
+        rows.append((f"  {p.feature}", f"{p.stress:.1f} MPa",
+                     f"Kt net {p.kt_net:.3f} {band}; average {p.section.average:.1f} MPa at x = {p.section.x:g} mm"))
+    return [("Competing peaks", "", "each raiser's own peak and net section")] + rows
+
+
+def equilibrium_rows(result: CheckResult) -> list[Row]:
+    ns = result.net_section
+    applied = ns.result.statics.normal_force if ns.result is not None else result.spec.load.axial
+    return [("Equilibrium", f"{ns.equilibrium_error:+.3%}", f"FE {ns.fe_force:.1f} N vs statics {applied:.1f} N")]
+
+
+KEY_ROWS = (peak_rows, stress_rows, net_section_rows, kt_rows, nominal_rows, competing_rows, handbook_rows,
+            equilibrium_rows)
+
+
+def print_key_numbers(result: CheckResult, console: Console) -> None:
+    """The aligned table of key numbers: label, value (right-aligned), short note."""
+    table = Table(show_header=False, box=None, pad_edge=False, padding=(0, 1))
+    table.add_column(style="bold", no_wrap=True)
+    table.add_column(justify="right", no_wrap=True)
+    table.add_column(overflow="fold")
+    for rows in KEY_ROWS:
+        for row in rows(result):
+            table.add_row(*row)
     console.print(table)
 
-    levels = Table(title="Mesh levels", title_justify="left", box=None)
+
+def print_levels(result: CheckResult, console: Console) -> None:
+    """The mesh levels of the study and how the estimate was made."""
+    levels = Table(title="Mesh levels", title_justify="left", box=None, pad_edge=False)
     for column in ("level", "nodes", "elements", "peak MPa", "time s"):
         levels.add_column(column, justify="right")
     for i, lv in enumerate(result.study.levels, start=1):
         levels.add_row(str(i), str(lv.nodes), str(lv.elements), f"{lv.peak:.2f}", f"{sum(lv.seconds.values()):.2f}")
-    est = result.study.estimate
     console.print(levels)
+    est = result.study.estimate
     order = f", observed order {est.order:.2f}" if est.order else ""
-    console.print(f"estimate by {est.method}{order}; target error {spec.mesh.tolerance:.2%}")
+    console.print(f"estimate by {est.method}{order}; target error {result.spec.mesh.tolerance:.2%}",
+                  soft_wrap=False)
+
+
+def print_cautions(result: CheckResult, console: Console) -> None:
+    """The cautions, wrapped with a hanging indent."""
     console.print("[bold]Cautions[/bold]")
+    grid = Table.grid(padding=(0, 1))
+    grid.add_column(no_wrap=True)
+    grid.add_column()
     for caution in result.cautions:
-        console.print(f" • {caution}")
+        grid.add_row(" •", escape(caution))
+    console.print(grid)
+
+
+BLOCKS = (print_heading, print_key_numbers, print_sections, print_levels, print_signoff, print_cautions)

@@ -9,18 +9,27 @@ import numpy as np
 
 from ..fem.analysis import Solution
 from ..fem.convergence import Level, Study, converge
-from ..geometry.outline import part_polygon, raiser_sections
-from ..geometry.spec import PartSpec
+from ..fem.convergence import MIN_LEVELS, richardson
+from ..geometry.outline import nearest_raiser, part_polygon, plate_polygon, raiser_sections
+from ..geometry.spec import PartSpec, SectionSpec
+from .guards import result_warnings
 from .handbook import Match, handbook_matches
+from .method_of_sections import SectionResult, section_result, section_results
+from .nominal import NominalSet, critical_cut, nominal_stresses
 from .sections import Cut, cut_resultants, ligaments
+from .stress_peaks import StressPeaks, stress_peaks
+from .signoff import DesignSignOff, FatigueSignOff, with_signoff
 
 EQUILIBRIUM_WARNING = 0.005  # relative mismatch of the section force that earns a warning
+ON_RAISER = 0.01  # a peak within this fraction of the width from a raiser's edge belongs to that raiser
+COMPETING = 0.8  # raisers whose own peak reaches this fraction of the largest are reported as competing
+TOP_PEAKS = 3  # most competing raisers reported
 
 CAUTIONS = (
     "Linear-elastic, small-strain, two-dimensional plane-stress model: no plasticity, buckling, contact, "
     "residual stress, or through-thickness effects.",
-    "Loads and supports are idealised (uniform end traction, end held in the load direction); real "
-    "fasteners, welds and fits load the part differently.",
+    "Loads and supports are idealised (end tractions by beam theory, an end held in x or clamped, pin and "
+    "remote loads as stated); real fasteners, welds and fits load the part differently.",
     "The peak is an elastic stress at a point; whether it matters depends on the material, the loading "
     "(static or cyclic) and the governing design code.",
     "This is an engineering aid, not a substitute for the governing design code or for review and "
@@ -30,8 +39,9 @@ CAUTIONS = (
 
 @dataclass(frozen=True)
 class Peak:
-    """The largest maximum principal stress: converged estimate and finest-mesh value (MPa), where
-    it is (mm) and which raiser it belongs to."""
+    """The governing principal stress: the largest maximum principal stress, or the minimum principal
+    stress (negative) when the compressive peak is larger in magnitude; converged estimate and
+    finest-mesh value (MPa), where it is (mm) and which raiser it belongs to."""
 
     stress: float
     fe_stress: float
@@ -56,6 +66,9 @@ class NetSection:
     fe_force: float
     equilibrium_error: float
     cut: Cut
+    point: tuple[float, float] = (0.0, 0.0)  # the cut's point and unit normal (a pin's cut follows the pin)
+    normal: tuple[float, float] = (1.0, 0.0)
+    result: SectionResult | None = None  # the method-of-sections result of this cut (N, V, M vs statics)
 
 
 @dataclass(frozen=True)
@@ -66,6 +79,21 @@ class KtResult:
     gross: float
     error: float
     converged: bool
+
+
+@dataclass(frozen=True)
+class RaiserPeak:
+    """One raiser's own peak: the largest maximum principal stress on its edge, converged over the mesh
+    levels (MPa) with its relative error band, the finest-mesh value, where it is (mm), the net section
+    through that raiser and Kt on that section's nominal stress."""
+
+    feature: str
+    stress: float
+    error: float
+    fe_stress: float
+    location: tuple[float, float]
+    section: NetSection
+    kt_net: float
 
 
 @dataclass(frozen=True)
@@ -80,6 +108,12 @@ class CheckResult:
     handbook: tuple[Match, ...]
     cautions: tuple[str, ...]
     warnings: tuple[str, ...]
+    design: DesignSignOff | None = None  # when the part file has a [design] table (compare.signoff)
+    fatigue: FatigueSignOff | None = None  # when the part file has a [fatigue] table
+    nominal: NominalSet | None = None  # every nominal stress of the load and which one each Kt uses
+    stresses: StressPeaks | None = None  # peaks of principal, von Mises and Tresca stress (finest mesh)
+    sections: tuple[SectionResult, ...] = ()  # the cuts the part file or command line asked for
+    peaks: tuple[RaiserPeak, ...] = ()  # the competing raisers' peaks, largest first (see raiser_peaks)
 
 
 def check_part(spec: PartSpec, report: Callable[[Level], None] | None = None) -> CheckResult:
@@ -89,29 +123,75 @@ def check_part(spec: PartSpec, report: Callable[[Level], None] | None = None) ->
     node = solution.peak_node()
     location = (float(mesh.nodes[node, 0]), float(mesh.nodes[node, 1]))
     feature, x_section = _owning_raiser(spec, location)
-    peak = Peak(study.estimate.value, float(solution.principal[node, 0]), location, feature)
+    peak = Peak(study.estimate.value, solution.peak_stress(), location, feature)
     section = net_section(spec, solution, x_section)
-    gross = spec.load.axial / (spec.plate.width * spec.plate.thickness)
-    kt = KtResult(peak.stress / section.average, peak.stress / gross, study.estimate.error, study.converged)
-    return CheckResult(spec, study, solution, peak, section, gross, kt, tuple(handbook_matches(spec)),
-                       CAUTIONS, tuple(_warnings(study, section)))
+    nominal = nominal_stresses(spec, peak.stress, section.result, _gross_width(spec, section))
+    gross = nominal.gross.stress
+    kt = KtResult(_kt(peak.stress, nominal.net.stress), _kt(peak.stress, gross), study.estimate.error, study.converged)
+    cuts = section_results(spec, solution)
+    matches = tuple(handbook_matches(spec))
+    return with_signoff(CheckResult(spec, study, solution, peak, section, gross, kt, matches,
+                                    _cautions(spec), tuple(_warnings(study, section) + _section_warnings(cuts)
+                                                           + result_warnings(spec, study, solution, peak, section, kt)),
+                                    nominal=nominal, stresses=stress_peaks(solution), sections=cuts,
+                                    peaks=raiser_peaks(spec, study, solution, matches)))
 
 
 def net_section(spec: PartSpec, solution: Solution, x: float) -> NetSection:
-    """Net section perpendicular to the load at x: exact ligaments, average stress, FE equilibrium."""
-    spans = tuple(ligaments(part_polygon(spec), (x, 0.0), (1.0, 0.0)))
-    width = sum(b - a for a, b in spans)
-    area = width * spec.plate.thickness
-    mesh = solution.mesh
-    cut = cut_resultants(mesh.nodes, mesh.triangles, solution.nodal_stress,
-                         spec.plate.thickness, (x, 0.0), (1.0, 0.0))
-    force = spec.load.axial
-    return NetSection(x, spans, width, area, force / area, cut.normal_force, (cut.normal_force - force) / force, cut)
+    """The critical net section (across the part at x, or through a pin's hole across the pin's line):
+    exact ligaments, the average normal stress statics requires (N / A), and the FE equilibrium error
+    (compare.method_of_sections: relative to the section's largest force scale)."""
+    point, normal = critical_cut(spec, x)
+    result = section_result(spec, solution, SectionSpec(point, normal, "critical net section"))
+    width = sum(b - a for a, b in result.ligaments)
+    error = result.normal_error if result.normal_error is not None else 0.0
+    average = result.statics.normal_force / result.area if result.area else 0.0
+    return NetSection(point[0], result.ligaments, width, result.area, average, result.fe_normal_force,
+                      error, result.cut, point, normal, result)
+
+
+def _gross_width(spec: PartSpec, section: NetSection) -> float:
+    """The plate's width along the critical cut (mm): the gross section."""
+    spans = ligaments(plate_polygon(spec), section.point, section.normal)
+    return sum(b - a for a, b in spans)
+
+
+def _kt(peak: float, nominal: float) -> float:
+    """|peak| / |nominal|; infinite when the nominal stress vanishes on the section."""
+    return abs(peak / nominal) if nominal != 0.0 else float("inf")
+
+
+def _cautions(spec: PartSpec) -> tuple[str, ...]:
+    extra = []
+    if spec.load.pin is not None:
+        extra.append("The pin is idealised as rigid and frictionless, bearing on half the hole with a cosine "
+                     "pressure (common practice); clearance, friction and pin bending change the real contact "
+                     "and the peak.")
+    if spec.support.held == "clamped":
+        extra.append("A clamped end is an idealised support: where it meets a free edge the elastic stress is "
+                     "singular, so the peak search leaves out a zone of 10 % of the end's width around those "
+                     "corners; the real stress there depends on how the part is actually held.")
+    if spec.support.symmetry:
+        extra.append("A symmetric model assumes the real part, its loads and its supports are symmetric "
+                     "about the declared planes; results are reported for the full part.")
+    return CAUTIONS + tuple(extra)
+
+
+def _section_warnings(cuts: tuple[SectionResult, ...]) -> list[str]:
+    return [f"section {c.label}: the FE resultants differ from statics by up to {c.worst_error:.2%}; "
+            "the mesh may be too coarse there" for c in cuts
+            if c.worst_error is not None and c.worst_error > EQUILIBRIUM_WARNING]
 
 
 def _owning_raiser(spec: PartSpec, location: tuple[float, float]) -> tuple[str, float]:
-    """The raiser whose section zone holds the peak (nearest section first), else the peak's own x."""
+    """The raiser whose edge the peak lies on (the nearest edge within ON_RAISER of the width), else the
+    raiser whose section zone holds the peak (nearest section first), else the peak's own x. Returns the
+    raiser's name and the x of its net section."""
     x, y = location
+    sections = {name: x_section for name, x_section, _ in raiser_sections(spec)}
+    near = nearest_raiser(spec, location, ON_RAISER * spec.plate.width)
+    if near is not None:
+        return near, sections[near]
     best = ("plate", x, np.inf)
     for name, x_section, reach in raiser_sections(spec):
         gap = abs(x - x_section)
@@ -120,12 +200,40 @@ def _owning_raiser(spec: PartSpec, location: tuple[float, float]) -> tuple[str, 
     return best[0], best[1]
 
 
+def raiser_peaks(spec: PartSpec, study: Study, solution: Solution,
+                 matches: tuple[Match, ...] = ()) -> tuple[RaiserPeak, ...]:
+    """The raisers whose own peaks compete: every raiser whose converged edge peak is at least
+    COMPETING of the largest, at most TOP_PEAKS of them, largest first, and any raiser a handbook match
+    describes (the middle hole of a row); each with the net section through it, its average and Kt. A
+    raiser's peak is extrapolated over the levels like the overall peak."""
+    finest = study.levels[-1].raisers
+    if not finest:
+        return ()
+    estimates = {}
+    for name in finest:
+        series = [lv.raisers[name][0] for lv in study.levels if name in lv.raisers]
+        estimates[name] = richardson(series) if len(series) >= MIN_LEVELS else None
+    value = {n: (e.value if e is not None else finest[n][0]) for n, e in estimates.items()}
+    top = max(value.values())
+    chosen = sorted((n for n in value if value[n] >= COMPETING * top), key=lambda n: -value[n])[:TOP_PEAKS]
+    chosen += [m.recognised.raiser for m in matches if m.recognised.raiser in value and m.recognised.raiser not in chosen]
+    sections = {name: x for name, x, _ in raiser_sections(spec)}
+    out = []
+    for name in chosen:
+        section = net_section(spec, solution, sections.get(name, finest[name][1][0]))
+        net = nominal_stresses(spec, value[name], section.result, _gross_width(spec, section)).net.stress
+        error = estimates[name].error if estimates[name] is not None else float("inf")
+        out.append(RaiserPeak(name, value[name], error, finest[name][0], finest[name][1], section,
+                              _kt(value[name], net)))
+    return tuple(out)
+
+
 def _warnings(study: Study, section: NetSection) -> list[str]:
     out = []
     if not study.converged:
         out.append(f"the peak did not converge to the requested tolerance ({study.stop_reason}); "
                    f"estimated error {study.estimate.error:.2%}")
     if abs(section.equilibrium_error) > EQUILIBRIUM_WARNING:
-        out.append(f"the FE force on the net section differs from the applied force by "
+        out.append(f"the FE normal force on the net section differs from statics by "
                    f"{section.equilibrium_error:+.2%}; the mesh may be too coarse")
     return out

@@ -19,6 +19,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, replace
 
+from ..geometry.units import DEFAULT_SYSTEM, format_quantity
+
 
 def _positive(name: str, value: float) -> None:
     if not (math.isfinite(value) and value > 0.0):
@@ -173,19 +175,30 @@ def _verdict(passes: bool) -> str:
     return "passes" if passes else "FAILS"
 
 
-def _statements(c: DesignCheck) -> tuple[str, ...]:
-    """Plain-language reading of a DesignCheck, governing check first."""
+def design_statements(c: DesignCheck, system: str = DEFAULT_SYSTEM) -> tuple[str, ...]:
+    """Plain-language reading of a DesignCheck, governing check first, its stresses, areas and
+    lengths shown in `system` (a geometry.units system name; the default gives mm, mm² and MPa)."""
+
+    def stress(value: float) -> str:
+        return format_quantity(value, "stress", system)
+
+    def area(value: float) -> str:
+        return format_quantity(value, "area", system)
+
+    def length(value: float) -> str:
+        return format_quantity(value, "length", system)
+
     criterion = (
-        f"yield {c.yield_mpa:.4g} MPa / {c.fos_yield:.4g}"
+        f"yield {stress(c.yield_mpa)} / {c.fos_yield:.4g}"
         if c.governing_criterion == "yield"
-        else f"ultimate {c.ultimate_mpa:.4g} MPa / {c.fos_ultimate:.4g}"
+        else f"ultimate {stress(c.ultimate_mpa)} / {c.fos_ultimate:.4g}"
     )
     net = (
-        f"Net-section average {c.net_average_mpa:.4g} MPa vs allowable {c.allowable_mpa:.4g} MPa "
+        f"Net-section average {stress(c.net_average_mpa)} vs allowable {stress(c.allowable_mpa)} "
         f"({criterion}): margin {c.net_margin:+.3f}, {_verdict(c.net_passes)}."
     )
     peak = (
-        f"Peak {c.peak_mpa:.4g} MPa (Kt_net {c.kt_net:.3g}) vs allowable {c.allowable_mpa:.4g} MPa: "
+        f"Peak {stress(c.peak_mpa)} (Kt_net {c.kt_net:.3g}) vs allowable {stress(c.allowable_mpa)}: "
         f"margin {c.peak_margin:+.3f}, {_verdict(c.peak_passes)}."
     )
     out: list[str] = []
@@ -204,14 +217,14 @@ def _statements(c: DesignCheck) -> tuple[str, ...]:
         ]
     if c.peak_mpa > c.yield_mpa:
         out.append(
-            f"The linear-elastic peak exceeds the yield strength {c.yield_mpa:.4g} MPa: the material "
+            f"The linear-elastic peak exceeds the yield strength {stress(c.yield_mpa)}: the material "
             "yields locally and the true peak stress is lower than the elastic figure."
         )
     out.append(
-        f"Required net area {c.required_net_area_mm2:.4g} mm² without concentration, "
-        f"{c.required_net_area_kt_mm2:.4g} mm² with Kt_net; at the net width {c.net_width_mm:.4g} mm that "
-        f"is a thickness of {c.required_thickness_mm:.4g} mm or {c.required_thickness_kt_mm:.4g} mm "
-        f"(actual {c.thickness_mm:.4g} mm)."
+        f"Required net area {area(c.required_net_area_mm2)} without concentration, "
+        f"{area(c.required_net_area_kt_mm2)} with Kt_net; at the net width {length(c.net_width_mm)} that "
+        f"is a thickness of {length(c.required_thickness_mm)} or {length(c.required_thickness_kt_mm)} "
+        f"(actual {length(c.thickness_mm)})."
     )
     out.append(f"Overall ({c.governing_check} check governs): {_verdict(c.passes)}.")
     return tuple(out)
@@ -289,4 +302,4 @@ def design_check(
         passes=net.passes if ductile else peak.passes,
         statements=(),
     )
-    return replace(check, statements=_statements(check))
+    return replace(check, statements=design_statements(check))

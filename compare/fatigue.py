@@ -19,14 +19,14 @@ Conventions:
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from ..geometry.errors import PartError
-from .materials import FAMILIES
+from ..geometry.materials import FAMILIES, STEEL_FAMILIES
+from ..geometry.spec import NEUBER_STEEL_RANGE_MPA, Q_METHODS
+from ..geometry.units import DEFAULT_SYSTEM, format_quantity
 
-STEEL_FAMILIES = ("steel", "stainless")
-NEUBER_STEEL_RANGE_MPA = (340.0, 1700.0)
-Q_METHODS = ("peterson", "neuber")
+STEEL_KNEE_MPA = 1400.0  # above this Su the steel endurance estimate stops rising (common practice)
 SCREEN_NOT_PREDICTION = (
     "This is a screen, not a life prediction: a pass means the notched stresses lie inside a "
     "modified Goodman line built from a specimen fatigue strength, not that a life is guaranteed."
@@ -104,7 +104,7 @@ def endurance_limit_steel(ultimate_mpa: float) -> float:
     factors are NOT applied; they usually lower the value.
     """
     _positive("ultimate_mpa", ultimate_mpa)
-    return 0.5 * ultimate_mpa if ultimate_mpa <= 1400.0 else 700.0
+    return 0.5 * ultimate_mpa if ultimate_mpa <= STEEL_KNEE_MPA else 0.5 * STEEL_KNEE_MPA
 
 
 @dataclass(frozen=True)
@@ -154,6 +154,7 @@ class FatigueScreen:
 
     q, method:        notch sensitivity and how it was obtained ("peterson", "neuber", "given",
                       or "unity" when no fit exists for the family and q = 1 is assumed).
+    family:           the material family screened (one of FAMILIES).
     kf:               fatigue notch factor 1 + q (Kt - 1).
     se_mpa:           fatigue strength used in the Goodman line.
     se_basis:         where se_mpa came from.
@@ -166,9 +167,10 @@ class FatigueScreen:
 
     q: float
     method: str
+    family: str
     kt_net: float
     kf: float
-    root_radius_mm: float
+    root_radius_mm: float | None
     ultimate_mpa: float
     se_mpa: float
     se_basis: str
@@ -184,30 +186,22 @@ class FatigueScreen:
 
 
 def _notch_sensitivity(
-    family: str, root_radius_mm: float, ultimate_mpa: float, method: str, q: float | None
-) -> tuple[float, str, str]:
-    """(q, method label, statement) for the family, method and optional given q."""
+    family: str, root_radius_mm: float | None, ultimate_mpa: float, method: str, q: float | None
+) -> tuple[float, str]:
+    """(q, method label) for the family, method and optional given q."""
     if q is not None:
         if not (math.isfinite(q) and 0.0 <= q <= 1.0):
             raise PartError(f"notch sensitivity q must be between 0 and 1; got {q!r}")
-        return q, "given", f"Notch sensitivity q = {q:.3f} as given."
-    if family in STEEL_FAMILIES:
-        value = steel_notch_sensitivity(root_radius_mm, ultimate_mpa, method)
-        name = "Peterson" if method == "peterson" else "Neuber"
-        return value, method, (
-            f"Notch sensitivity q = {value:.3f} by {name} (steel fit, root radius {root_radius_mm:.4g} mm, "
-            f"Su {ultimate_mpa:.4g} MPa)."
-        )
-    return 1.0, "unity", (
-        f"No notch-sensitivity fit is built in for {family}; q = 1 is assumed, so Kf = Kt "
-        "(conservative, common practice)."
-    )
+        return q, "given"
+    if family in STEEL_FAMILIES and root_radius_mm is not None:
+        return steel_notch_sensitivity(root_radius_mm, ultimate_mpa, method), method
+    return 1.0, "unity"
 
 
 def _fatigue_strength(
     family: str, ultimate_mpa: float, strength_mpa: float | None, life_cycles: float | None
-) -> tuple[float, str, float | None, str]:
-    """(Se in MPa, basis, life in cycles or None, statement) for the family and optional data."""
+) -> tuple[float, str, float | None]:
+    """(Se in MPa, basis "given" or "estimate", life in cycles or None) for the family and data."""
     if life_cycles is not None and not (math.isfinite(life_cycles) and life_cycles > 0.0):
         raise PartError(f"fatigue life must be a positive number of cycles; got {life_cycles!r}")
     if strength_mpa is not None:
@@ -221,21 +215,9 @@ def _fatigue_strength(
                 f"{family} has no endurance limit: give the life in cycles that the fatigue strength "
                 f"{strength_mpa:.4g} MPa applies to"
             )
-        if life_cycles is None:
-            reach = "used as an endurance limit (infinite life)"
-        else:
-            life = f"{life_cycles:.3g} cycles"
-            reach = f"at {life}; the screen covers lives up to {life} only"
-        return strength_mpa, "given", life_cycles, (
-            f"Fatigue strength {strength_mpa:.4g} MPa as given, {reach}. " + UNMODIFIED_CAVEAT
-        )
+        return strength_mpa, "given", life_cycles
     if family in STEEL_FAMILIES:
-        se = endurance_limit_steel(ultimate_mpa)
-        rule = "0.5 Su" if ultimate_mpa <= 1400.0 else "700 MPa (Su above 1400 MPa)"
-        return se, "estimate", None, (
-            f"Endurance limit estimated as Se' = {rule} = {se:.4g} MPa (common practice for steels). "
-            + UNMODIFIED_CAVEAT
-        )
+        return endurance_limit_steel(ultimate_mpa), "estimate", None
     raise PartError(
         f"{family} has no endurance limit: a fatigue strength and the life in cycles it applies to are "
         "needed for the fatigue screen"
@@ -246,7 +228,7 @@ def fatigue_screen(
     cycle_n: LoadCycle,
     net_area_mm2: float,
     kt_net: float,
-    root_radius_mm: float,
+    root_radius_mm: float | None,
     ultimate_mpa: float,
     family: str,
     required_factor: float,
@@ -260,7 +242,8 @@ def fatigue_screen(
     cycle_n:         alternating and mean axial force in N.
     net_area_mm2:    net-section area in mm² (nominal stress = force / net area).
     kt_net:          Kt on the net-section nominal stress (>= 1).
-    root_radius_mm:  notch root radius in mm (hole radius for a hole).
+    root_radius_mm:  notch root radius in mm (hole radius for a hole), or None when the peak is at no
+                     curved raiser: then q = 1 is assumed (Kf = Kt, conservative).
     ultimate_mpa:    ultimate tensile strength Su in MPa.
     family:          "steel", "stainless", "aluminium" or "titanium".
     required_factor: the Goodman factor n_f must reach (>= 1).
@@ -275,39 +258,20 @@ def fatigue_screen(
         raise PartError(f"required fatigue factor must be >= 1; got {required_factor!r}")
     _check_method(method)
     _positive("net_area_mm2", net_area_mm2)
-    _positive("root_radius_mm", root_radius_mm)
+    if root_radius_mm is not None:
+        _positive("root_radius_mm", root_radius_mm)
     _positive("ultimate_mpa", ultimate_mpa)
-    q_value, q_method, q_text = _notch_sensitivity(family, root_radius_mm, ultimate_mpa, method, q)
+    q_value, q_method = _notch_sensitivity(family, root_radius_mm, ultimate_mpa, method, q)
     kf = fatigue_notch_factor(kt_net, q_value)
-    se, se_basis, life, se_text = _fatigue_strength(
-        family, ultimate_mpa, fatigue_strength_mpa, fatigue_life_cycles
-    )
+    se, se_basis, life = _fatigue_strength(family, ultimate_mpa, fatigue_strength_mpa, fatigue_life_cycles)
     sa_nom = cycle_n.alternating / net_area_mm2
     sm_nom = cycle_n.mean / net_area_mm2
     sa, sm = kf * sa_nom, kf * sm_nom
     n_f = goodman_factor(sa, sm, se, ultimate_mpa)
-    passes = n_f >= required_factor
-    statements = [
-        SCREEN_NOT_PREDICTION,
-        q_text,
-        f"Kf = 1 + q (Kt - 1) = 1 + {q_value:.3f} x ({kt_net:.3f} - 1) = {kf:.3f}.",
-        se_text,
-        (
-            f"Modified Goodman with Kf applied to both alternating and mean stress: sa = {sa:.4g} MPa, "
-            f"sm = {sm:.4g} MPa, n_f = {n_f:.3g} against {required_factor:.3g} required: "
-            f"{'passes' if passes else 'FAILS'}."
-        ),
-    ]
-    if sm < 0.0:
-        statements.append("The mean stress is compressive and is not credited: n_f = Se / sa.")
-    if family == "stainless" and (q is None or fatigue_strength_mpa is None):
-        statements.append(
-            "The steel fits were developed for carbon and alloy steels; they are applied to stainless "
-            "steel here as common practice. Confirm with data for the grade."
-        )
-    return FatigueScreen(
+    screen = FatigueScreen(
         q=q_value,
         method=q_method,
+        family=family,
         kt_net=kt_net,
         kf=kf,
         root_radius_mm=root_radius_mm,
@@ -321,6 +285,58 @@ def fatigue_screen(
         sm_mpa=sm,
         n_f=n_f,
         required_factor=required_factor,
-        passes=passes,
-        statements=tuple(statements),
+        passes=n_f >= required_factor,
+        statements=(),
     )
+    return replace(screen, statements=screen_statements(screen))
+
+
+def screen_statements(s: FatigueScreen, system: str = DEFAULT_SYSTEM) -> tuple[str, ...]:
+    """Plain-language reading of a FatigueScreen, its stresses and lengths shown in `system`
+    (a geometry.units system name; the default gives mm and MPa)."""
+
+    def stress(value: float) -> str:
+        return format_quantity(value, "stress", system)
+
+    if s.method == "given":
+        q_text = f"Notch sensitivity q = {s.q:.3f} as given."
+    elif s.method == "unity" and s.root_radius_mm is None:
+        q_text = ("The peak is at no curved raiser, so there is no root radius for a notch-sensitivity fit; "
+                  "q = 1 is assumed, so Kf = Kt (conservative, common practice).")
+    elif s.method == "unity":
+        q_text = (f"No notch-sensitivity fit is built in for {s.family}; q = 1 is assumed, so Kf = Kt "
+                  "(conservative, common practice).")
+    else:
+        q_text = (f"Notch sensitivity q = {s.q:.3f} by {'Peterson' if s.method == 'peterson' else 'Neuber'} "
+                  f"(steel fit, root radius {format_quantity(s.root_radius_mm, 'length', system)}, "
+                  f"Su {stress(s.ultimate_mpa)}).")
+    if s.se_basis == "estimate":
+        rule = ("0.5 Su" if s.ultimate_mpa <= STEEL_KNEE_MPA
+                else f"{stress(0.5 * STEEL_KNEE_MPA)} (Su above {stress(STEEL_KNEE_MPA)})")
+        se_text = f"Endurance limit estimated as Se' = {rule} = {stress(s.se_mpa)} (common practice for steels). "
+    elif s.life_cycles is None:
+        se_text = (f"Fatigue strength {stress(s.se_mpa)} from the material data, used as an endurance limit "
+                   "(infinite life). ")
+    else:
+        life = f"{s.life_cycles:.3g} cycles"
+        se_text = (f"Fatigue strength {stress(s.se_mpa)} from the material data, at {life}; the screen covers lives "
+                   f"up to {life} only. ")
+    out = [
+        SCREEN_NOT_PREDICTION,
+        q_text,
+        f"Kf = 1 + q (Kt - 1) = 1 + {s.q:.3f} x ({s.kt_net:.3f} - 1) = {s.kf:.3f}.",
+        se_text + UNMODIFIED_CAVEAT,
+        (
+            f"Modified Goodman with Kf applied to both alternating and mean stress: sa = {stress(s.sa_mpa)}, "
+            f"sm = {stress(s.sm_mpa)}, n_f = {s.n_f:.3g} against {s.required_factor:.3g} required: "
+            f"{'passes' if s.passes else 'FAILS'}."
+        ),
+    ]
+    if s.sm_mpa < 0.0:
+        out.append("The mean stress is compressive and is not credited: n_f = Se / sa.")
+    if s.family == "stainless" and (s.method != "given" or s.se_basis != "given"):
+        out.append(
+            "The steel fits were developed for carbon and alloy steels; they are applied to stainless "
+            "steel here as common practice. Confirm with data for the grade."
+        )
+    return tuple(out)

@@ -8,57 +8,14 @@ Values recalled from the handbooks rather than read from a copy are marked "(fro
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass
 
 import numpy as np
 
 from ..geometry.spec import PartSpec
+from .case_types import Case, Match, Recognised  # the library's data (re-exported here)
 
 CENTRED_TOLERANCE = 0.01  # hole centre within 1 % of the width from the centre line
 END_CLEARANCE = 1.0  # hole centre at least one plate width from either end (Saint-Venant; common practice)
-
-
-@dataclass(frozen=True)
-class Case:
-    """One published Kt formula or table.
-
-    nominal: "net" or "gross", the nominal stress the formula's Kt is referred to, described by
-    nominal_text. ranges: validity interval of each parameter.
-    """
-
-    key: str
-    family: str
-    title: str
-    source: str
-    formula: str
-    nominal: str
-    nominal_text: str
-    ranges: dict[str, tuple[float, float]]
-    kt: Callable[[dict[str, float]], float]
-
-    def in_range(self, params: dict[str, float]) -> bool:
-        return all(lo - 1e-12 <= params[k] <= hi + 1e-12 for k, (lo, hi) in self.ranges.items())
-
-
-@dataclass(frozen=True)
-class Recognised:
-    """A part recognised as a handbook family: its parameters and gross/net area ratio (>= 1)."""
-
-    family: str
-    description: str
-    params: dict[str, float]
-    gross_over_net: float
-
-
-@dataclass(frozen=True)
-class Match:
-    """A case applied to a recognised part: Kt on both nominal definitions."""
-
-    case: Case
-    recognised: Recognised
-    kt_net: float
-    kt_gross: float
-    in_range: bool
 
 
 # --- central circular hole in a finite-width plate, axial tension ------------------------------------
@@ -119,7 +76,7 @@ CASES: tuple[Case, ...] = (
 
 def recognise_central_hole(spec: PartSpec) -> Recognised | None:
     """One circular hole on the centre line, far enough from both ends, axial load only."""
-    if len(spec.holes) != 1:
+    if not only(spec, holes=1):
         return None
     hole = spec.holes[0]
     W, L = spec.plate.width, spec.plate.length
@@ -144,10 +101,22 @@ def build_central_hole(params: dict[str, float], width: float = 100.0) -> dict:
     }
 
 
-RECOGNISERS: tuple[Callable[[PartSpec], Recognised | None], ...] = (recognise_central_hole,)
+# the cases of the other raisers (ellipses, notches, steps, rows of holes) live in compare/raiser_cases.py
+from .raiser_cases import RAISER_BUILDERS, RAISER_CASES, RAISER_RECOGNISERS, only  # noqa: E402
+
+CASES = CASES + RAISER_CASES
+
+# in-plane bending cases (opposite notches, shoulder fillets) live in compare/bending_cases.py
+from .bending_cases import BENDING_BUILDERS, BENDING_CASES, BENDING_RECOGNISERS  # noqa: E402
+
+CASES = CASES + BENDING_CASES
+
+RECOGNISERS: tuple[Callable[[PartSpec], Recognised | None], ...] = ((recognise_central_hole,) + RAISER_RECOGNISERS
+                                                                   + BENDING_RECOGNISERS)
 
 # family -> function building a part-file dictionary that the family's recogniser accepts
-BUILDERS: dict[str, Callable[[dict[str, float]], dict]] = {"central-hole-tension": build_central_hole}
+BUILDERS: dict[str, Callable[[dict[str, float]], dict]] = {"central-hole-tension": build_central_hole,
+                                                           **RAISER_BUILDERS, **BENDING_BUILDERS}
 
 
 def handbook_matches(spec: PartSpec) -> list[Match]:

@@ -13,13 +13,16 @@ from __future__ import annotations
 import math
 import time
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 import numpy as np
 
 from ..geometry.meshing import mesh_part
 from ..geometry.spec import PartSpec
 from .analysis import Solution, solve_part
+from .budget import BudgetError, check_first_level, level_over_budget
+from .guards import check_fields
+from .raiser_peaks import raiser_peaks
 
 LEVEL_RATIO = math.sqrt(2.0)  # element size ratio between successive levels
 FIRST_SCALE = 1.0  # element-size scale of the coarsest level
@@ -39,6 +42,8 @@ class Level:
     peak: float
     location: tuple[float, float]
     seconds: dict[str, float]
+    raisers: dict[str, tuple[float, tuple[float, float]]] = field(default_factory=dict)  # fem.raiser_peaks
+    solver: str = ""  # the method that solved this level's system: "cholmod", "superlu" or "amg-cg" (fem.solve)
 
 
 @dataclass(frozen=True)
@@ -92,19 +97,33 @@ def converge(spec: PartSpec, report: Callable[[Level], None] | None = None) -> t
     solution: Solution | None = None
     scale = FIRST_SCALE
     stop = ""
+    check_first_level(spec, scale)  # refuse a hopeless coarsest mesh before gmsh spends minutes on it
     while True:
         clock = time.perf_counter()
         mesh = mesh_part(spec, scale)
         meshed = time.perf_counter() - clock
-        solution = solve_part(spec, mesh)
+        stop = level_over_budget(spec, mesh.n_elements, first=not levels)
+        if stop:
+            break
+        try:
+            level_solution = solve_part(spec, mesh)
+        except BudgetError as exc:  # memory: keep the levels solved so far, unless there are none
+            if not levels:
+                raise
+            stop = str(exc)
+            break
+        check_fields(level_solution.displacement, level_solution.nodal_stress)
+        solution = level_solution
         node = solution.peak_node()
         level = Level(
             scale=scale,
             nodes=mesh.n_nodes,
             elements=mesh.n_elements,
-            peak=float(solution.principal[node, 0]),
-            location=(float(mesh.nodes[node, 0]), float(mesh.nodes[node, 1])),
+            peak=solution.peak_stress(),
+            location=(float(solution.mesh.nodes[node, 0]), float(solution.mesh.nodes[node, 1])),  # full part
             seconds={"mesh": meshed, **solution.seconds},
+            raisers=raiser_peaks(solution),
+            solver=solution.solver.method if solution.solver is not None else "",
         )
         levels.append(level)
         if report is not None:

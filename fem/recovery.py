@@ -154,7 +154,8 @@ def _area_average(out, tris, stress, area, mask) -> None:
 
 
 def free_edge_stress(nodes: np.ndarray, stress: np.ndarray, displacement: np.ndarray, free_edges: np.ndarray,
-                     other_nodes: np.ndarray, modulus: float) -> np.ndarray:
+                     other_nodes: np.ndarray, modulus: float, pressure: np.ndarray | None = None,
+                     coupling: float = 0.0) -> np.ndarray:
     """Replace the stress at nodes of traction-free edges by the exact edge state s = s_tt t t.
 
     On a traction-free edge the normal and shear tractions vanish, so the only in-plane stress is the
@@ -163,6 +164,10 @@ def free_edge_stress(nodes: np.ndarray, stress: np.ndarray, displacement: np.nda
     (mm/mm, a strain gauge laid along the edge), accurate to second order at the edge's midpoint; a node
     takes the mean of its two edges. Nodes in `other_nodes` (corners shared with loaded or held edges)
     keep their recovered stress. `displacement` is (2n,) in mm, `modulus` E' in MPa.
+
+    Where a frictionless contact presses on the edge (`pressure`, (n,) MPa >= 0, e.g. a pin), the normal
+    stress is -p and the edge state is s_tt t t - p n n with s_tt = E' e_tt - coupling p (coupling = nu in
+    plane stress, nu / (1 - nu) in plane strain).
     """
     out = stress.copy()
     if free_edges.size == 0:
@@ -185,6 +190,11 @@ def free_edge_stress(nodes: np.ndarray, stress: np.ndarray, displacement: np.nda
     t = np.column_stack([np.cos(angle), np.sin(angle)])
     s = stt[on] / hits[on]
     out[on] = np.column_stack([s * t[:, 0] ** 2, s * t[:, 1] ** 2, s * t[:, 0] * t[:, 1]])
+    if pressure is not None and np.any(pressure[on] != 0.0):
+        p = pressure[on]
+        # normal n = (-t_y, t_x): add -p n n and the Poisson share of the pressure to s_tt
+        out[on] -= p[:, None] * np.column_stack([t[:, 1] ** 2, t[:, 0] ** 2, -t[:, 0] * t[:, 1]])
+        out[on] -= (coupling * p)[:, None] * np.column_stack([t[:, 0] ** 2, t[:, 1] ** 2, t[:, 0] * t[:, 1]])
     return out
 
 
@@ -194,6 +204,14 @@ def principal_stresses(stress: np.ndarray) -> np.ndarray:
     centre = 0.5 * (sxx + syy)
     radius = np.hypot(0.5 * (sxx - syy), txy)
     return np.column_stack([centre + radius, centre - radius])
+
+
+def tresca(stress: np.ndarray, szz: np.ndarray | float = 0.0) -> np.ndarray:
+    """Tresca equivalent stress (MPa): the largest difference of the three principal stresses, the two
+    in-plane ones of (k, 3) stresses and szz (0 in plane stress)."""
+    p = principal_stresses(stress)
+    szz = np.broadcast_to(np.asarray(szz, dtype=float), p[:, 0].shape)
+    return np.maximum.reduce([p[:, 0] - p[:, 1], np.abs(p[:, 0] - szz), np.abs(p[:, 1] - szz)])
 
 
 def von_mises(stress: np.ndarray, szz: np.ndarray | float = 0.0) -> np.ndarray:

@@ -1,32 +1,210 @@
-"""Linear solve of K u = f with held DOFs eliminated."""
+"""Linear solve of K u = f with held DOFs at zero, by the strategy that suits the system's size.
+
+Strategies (`solver`):
+- "direct": a sparse Cholesky factorisation by CHOLMOD when the optional `scikit-sparse` package is
+  installed (`pip install "stressraiser[fast]"`, which needs the SuiteSparse headers to build), else
+  SuperLU in symmetric mode with a minimum-degree ordering on A^T + A, which suits the symmetric
+  positive-definite stiffness of a 2-D mesh far better than scipy's default column ordering.
+- "iterative": conjugate gradients preconditioned by smoothed-aggregation algebraic multigrid (pyamg)
+  with the three in-plane rigid-body modes as near-null space and 2 x 2 node blocks, to a relative
+  residual of CG_TOLERANCE; time and memory grow about linearly with the size.
+- "auto" (default): CHOLMOD when installed, else SuperLU below ITERATIVE_FROM free DOFs and the
+  iterative solver from there on.
+
+A system that cannot be solved raises SolverError with a message a user can act on: a part that is not
+held against every rigid-body motion (a mechanism), a piece with no stiffness, or a numerical failure.
+"""
 
 from __future__ import annotations
+
+import time
+from dataclasses import dataclass
 
 import numpy as np
 import scipy.sparse as sp
 import scipy.sparse.linalg as spla
+
+SOLVERS = ("auto", "direct", "iterative")
+ITERATIVE_FROM = 120_000  # free DOFs from which "auto" without CHOLMOD switches SuperLU -> AMG-CG (benchmarks/solve.py)
+CG_TOLERANCE = 1e-10  # relative residual ||f - K u|| / ||f|| at which conjugate gradients stops
+MAX_ITERATIONS = 500
+RESIDUAL_LIMIT = 1e-6  # a direct solve whose relative residual exceeds this has failed
+RIGID_LIMIT = 1e-10  # relative stiffness below which a rigid-body mode counts as unrestrained
 
 
 class SolverError(RuntimeError):
     """The stiffness system cannot be solved (a mechanism, or a numerical failure)."""
 
 
-def solve_constrained(K: sp.csr_matrix, f: np.ndarray, fixed: np.ndarray) -> np.ndarray:
-    """Displacements (2n,) in mm with u = 0 on the `fixed` DOFs.
+@dataclass(frozen=True)
+class SolveReport:
+    """How one system was solved.
 
-    Sparse LU in symmetric mode with a minimum-degree ordering on A^T + A, which suits the symmetric
-    positive-definite stiffness of a 2-D mesh far better than the column ordering used by default.
+    method: "cholmod", "superlu" or "amg-cg"; dofs: free DOFs; iterations: CG iterations (0 for a
+    direct solve); residual: relative residual ||f - K u|| / ||f|| on the free DOFs; seconds: wall time.
     """
-    free = np.ones(K.shape[0], dtype=bool)
-    free[fixed] = False
-    Kff = K[free][:, free].tocsc()
+
+    method: str
+    dofs: int
+    iterations: int
+    residual: float
+    seconds: float
+
+
+def cholmod_available() -> bool:
+    """True when the optional CHOLMOD binding (scikit-sparse) can be imported."""
     try:
-        lu = spla.splu(Kff, permc_spec="MMD_AT_PLUS_A", diag_pivot_thresh=0.0, options={"SymmetricMode": True})
+        from sksparse.cholmod import cholesky  # noqa: F401
+    except ImportError:
+        return False
+    return True
+
+
+def choose_method(solver: str, dofs: int) -> str:
+    """The method `solver` ("auto", "direct", "iterative") uses for a system of `dofs` free DOFs."""
+    if solver not in SOLVERS:
+        raise ValueError(f"unknown solver {solver!r}; use one of {', '.join(SOLVERS)}")
+    if solver == "iterative":
+        return "amg-cg"
+    if cholmod_available():
+        return "cholmod"
+    if solver == "direct" or dofs < ITERATIVE_FROM:
+        return "superlu"
+    return "amg-cg"
+
+
+def solve_system(K: sp.spmatrix, f: np.ndarray, fixed: np.ndarray, solver: str = "auto",
+                 nodes: np.ndarray | None = None) -> tuple[np.ndarray, SolveReport]:
+    """Displacements (2n,) in mm with u = 0 on the `fixed` DOFs, and how they were found.
+
+    K: (2n, 2n) symmetric stiffness (N/mm), DOFs ordered (u1, v1, u2, v2, ...); f: (2n,) forces (N);
+    nodes: (n, 2) coordinates (mm), which give the rigid-body modes for the mechanism check and the
+    multigrid near-null space (without them only translations are used).
+    """
+    clock = time.perf_counter()
+    K = sp.csr_matrix(K)
+    free = np.ones(K.shape[0], dtype=bool)
+    free[np.asarray(fixed, dtype=np.int64)] = False
+    n_free = int(free.sum())
+    if n_free == 0:
+        return np.zeros(K.shape[0]), SolveReport("none", 0, 0, 0.0, 0.0)
+    modes = rigid_modes(K.shape[0] // 2, nodes)
+    _check_supported(K, free, modes)
+    method = choose_method(solver, n_free)
+    from .budget import check_solve  # budget imports SolverError from here
+
+    check_solve(n_free, method)  # refuse, with the figure, a solve that would not fit in memory
+    if method == "amg-cg":
+        u, iterations = _amg_cg(K, f, free, modes)
+    else:
+        Kff = K[free][:, free]
+        uf = _cholmod(Kff, f[free]) if method == "cholmod" else _superlu(Kff, f[free])
+        u = np.zeros(K.shape[0])
+        u[free] = uf
+        iterations = 0
+    if not np.all(np.isfinite(u)):
+        raise SolverError("the solve returned non-finite displacements; the part may be a mechanism")
+    residual = _relative_residual(K, u, f, free)
+    limit = RESIDUAL_LIMIT if method != "amg-cg" else max(RESIDUAL_LIMIT, 10 * CG_TOLERANCE)
+    if not residual <= limit:
+        raise SolverError(f"the {method} solve left a relative residual of {residual:.1e}; the stiffness "
+                          "matrix is singular or nearly so (is the part held against every rigid-body motion?)")
+    return u, SolveReport(method, n_free, iterations, residual, time.perf_counter() - clock)
+
+
+def solve_constrained(K: sp.spmatrix, f: np.ndarray, fixed: np.ndarray, solver: str = "auto",
+                      nodes: np.ndarray | None = None) -> np.ndarray:
+    """Displacements (2n,) in mm with u = 0 on the `fixed` DOFs (see `solve_system`)."""
+    return solve_system(K, f, fixed, solver, nodes)[0]
+
+
+def rigid_modes(n: int, nodes: np.ndarray | None) -> np.ndarray:
+    """(2n, r) in-plane rigid-body modes: x and y translation and, given node coordinates, the rotation
+    about their centroid (scaled to unit size)."""
+    modes = np.zeros((2 * n, 3 if nodes is not None else 2))
+    modes[0::2, 0] = 1.0
+    modes[1::2, 1] = 1.0
+    if nodes is not None:
+        d = nodes - nodes.mean(axis=0)
+        size = max(float(np.abs(d).max()), 1e-300)
+        modes[0::2, 2] = -d[:, 1] / size
+        modes[1::2, 2] = d[:, 0] / size
+    return modes
+
+
+def _check_supported(K: sp.csr_matrix, free: np.ndarray, modes: np.ndarray) -> None:
+    """Raise SolverError when a free DOF has no stiffness or a rigid-body motion is not held.
+
+    A rigid-body mode r strains nothing, so K r = 0; held DOFs resist it only if r moves them. The
+    stiffness of the free part of the mode, r_f^T K_ff r_f, is then round-off when nothing holds it.
+    """
+    diag = K.diagonal()
+    if np.any(diag[free] <= 0.0):
+        raise SolverError("a node has no stiffness (it belongs to no element); the mesh is not in one piece")
+    R = modes * free[:, None]
+    G = R.T @ (K @ R)
+    scale = diag.max() * np.einsum("ij,ij->j", R, R)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        norm = np.sqrt(np.outer(scale, scale))
+        Gn = np.where(norm > 0, G / norm, 0.0)
+    present = scale > 0
+    if present.any() and np.linalg.eigvalsh(Gn[np.ix_(present, present)]).min() < RIGID_LIMIT:
+        raise SolverError("the part is a mechanism: the supports do not hold it against every rigid-body "
+                          "motion (translation in x, translation in y and rotation)")
+
+
+def _superlu(Kff: sp.csr_matrix, ff: np.ndarray) -> np.ndarray:
+    try:
+        lu = spla.splu(Kff.tocsc(), permc_spec="MMD_AT_PLUS_A", diag_pivot_thresh=0.0,
+                       options={"SymmetricMode": True})
     except RuntimeError as exc:
         raise SolverError(f"the stiffness matrix is singular ({exc}); is the part supported and in one piece?") from None
-    uf = lu.solve(f[free])
-    if not np.all(np.isfinite(uf)):
-        raise SolverError("the solve returned non-finite displacements; the part may be a mechanism")
-    u = np.zeros(K.shape[0])
-    u[free] = uf
-    return u
+    return lu.solve(ff)
+
+
+def _cholmod(Kff: sp.csr_matrix, ff: np.ndarray) -> np.ndarray:
+    from sksparse.cholmod import CholmodError, cholesky
+
+    try:
+        factor = cholesky(Kff.tocsc(), ordering_method="metis")
+    except CholmodError as exc:
+        raise SolverError(f"the stiffness matrix is not positive definite ({exc}); is the part supported "
+                          "and in one piece?") from None
+    return factor(ff)
+
+
+def _amg_cg(K: sp.csr_matrix, f: np.ndarray, free: np.ndarray, modes: np.ndarray) -> tuple[np.ndarray, int]:
+    """CG preconditioned by smoothed-aggregation AMG on the whole system with the held DOFs decoupled
+    (their rows and columns zeroed, diagonal kept), so the 2 x 2 node blocks survive for aggregation."""
+    import pyamg
+    from threadpoolctl import threadpool_limits
+
+    with threadpool_limits(limits=1, user_api="blas"):  # level-1 and tiny dense BLAS only: threads cost more
+        return _amg_cg_serial(pyamg, K, f, free, modes)
+
+
+def _amg_cg_serial(pyamg, K: sp.csr_matrix, f: np.ndarray, free: np.ndarray, modes: np.ndarray) -> tuple[np.ndarray, int]:
+    A = _decouple(K, free).tobsr(blocksize=(2, 2))
+    B = modes * free[:, None]
+    b = np.where(free, f, 0.0)
+    ml = pyamg.smoothed_aggregation_solver(A, B=B, symmetry="symmetric", max_coarse=1000, coarse_solver="splu")
+    residuals: list[float] = []
+    u = ml.solve(b, tol=CG_TOLERANCE, maxiter=MAX_ITERATIONS, accel="cg", residuals=residuals)
+    if residuals and residuals[-1] > CG_TOLERANCE * 10 * np.linalg.norm(b):
+        raise SolverError(f"conjugate gradients did not converge in {MAX_ITERATIONS} iterations (relative "
+                          f"residual {residuals[-1] / np.linalg.norm(b):.1e}); the part may be a mechanism")
+    u[~free] = 0.0
+    return u, max(len(residuals) - 1, 0)
+
+
+def _decouple(K: sp.csr_matrix, free: np.ndarray) -> sp.csr_matrix:
+    """K with the rows and columns of held DOFs zeroed except their diagonal (same sparsity)."""
+    rows = np.repeat(np.arange(K.shape[0], dtype=K.indices.dtype), np.diff(K.indptr))
+    keep = (free[rows] & free[K.indices]) | (rows == K.indices)
+    return sp.csr_matrix((K.data * keep, K.indices, K.indptr), shape=K.shape)
+
+
+def _relative_residual(K: sp.csr_matrix, u: np.ndarray, f: np.ndarray, free: np.ndarray) -> float:
+    r = (f - K @ u)[free]
+    scale = np.linalg.norm(f[free])
+    return float(np.linalg.norm(r) / scale) if scale > 0 else float(np.linalg.norm(r))

@@ -25,12 +25,25 @@ class Mesh:
     triangles: (m, 3) int32 node indices, counter-clockwise.
     edges: boundary edge sets by name ("held", "loaded", "side", "hole 1", ...), each (k, 2) int32.
     features: the raisers this mesh was graded for.
+    quadratic: for a mesh of quadratic (6-node) triangles, their (m, 6) int32 nodes: corners
+        counter-clockwise, then the mid-side nodes of edges 1-2, 2-3, 3-1 (on the curved boundary where
+        the edge lies on it); `triangles` then holds the four straight sub-triangles of each (corner,
+        corner, corner, centre order: see geometry/quadratic.py) and `edges` the two halves of each
+        boundary edge, so that every consumer of linear triangles works unchanged. None for a linear mesh.
+    quadratic_edges: the 3-node boundary edges by name, each (k, 3) int32 (end, end, middle), or None.
     """
 
     nodes: np.ndarray
     triangles: np.ndarray
     edges: dict[str, np.ndarray]
     features: tuple[Feature, ...]
+    quadratic: np.ndarray | None = None
+    quadratic_edges: dict[str, np.ndarray] | None = None
+
+    @property
+    def order(self) -> int:
+        """1 for linear triangles, 2 for quadratic ones."""
+        return 1 if self.quadratic is None else 2
 
     @property
     def n_nodes(self) -> int:

@@ -19,9 +19,22 @@ from dataclasses import dataclass
 import gmsh
 import numpy as np
 
+from shapely.geometry import Point
+
+from .bands import Piece, add_tools, ellipse_layers, make_transfinite, raiser_pieces
 from .mesh import Feature, Mesh
+from .quadratic import QUADRATIC_SIZE, elevate_and_extract, sub_edges, sub_triangles
+from .mesh_guard import check_finite, check_mesh, checked_expression
+from .outline import feature_edges, plate_polygon
+from .raisers import Raiser, distance_expression, part_raisers
+from .shapes import Line, ellipse_shape, notch_shapes, outline_path, segment_points, slot_shape
 from .spec import PartSpec
-from .validate import hole_gaps, min_ligament
+from .symmetry import modelled_box, on_plane
+from .validate import min_ligament
+
+ON_OUTLINE = 1e-7  # fraction of the width within which a band line lies along the outline
+PIECE_TOLERANCE = 1e-7  # fraction of the part's size within which a point lies on a raiser edge
+FEATURE_TOLERANCE = 1e-4  # fraction of the width within which a curve lies on a raiser's edge
 
 
 @dataclass(frozen=True)
@@ -35,7 +48,13 @@ class Sizing:
     layer_first: thickness of the first structured layer as a fraction of the edge size.
     layer_ratio: thickness ratio of successive layers.
     layers: number of structured layers (fewer where the ligament is thin).
+        Eight layers growing by 1.15 (a band about seven edge sizes deep) keep the Delaunay mesh's noise
+        away from the peak: the differences between successive level peaks then shrink steadily (measured
+        on a hole, a semicircular and a U notch pair and a shoulder fillet, benchmarks/feature_families.py),
+        which Richardson extrapolation needs; four layers growing by 1.2 left them irregular.
     band_share: the layered band takes at most this fraction of the raiser's thinnest ligament.
+    bending_far_fraction: under bending, shear or a pin load, the far-field size at scale 1 as a fraction
+        of the plate width; it follows `scale` (see `far_size`).
     """
 
     edge_fraction: float = 0.12
@@ -43,18 +62,20 @@ class Sizing:
     growth: float = 0.3
     far_fraction: float = 0.15
     layer_first: float = 0.5
-    layer_ratio: float = 1.2
-    layers: int = 4
+    layer_ratio: float = 1.15
+    layers: int = 8
     band_share: float = 0.3
+    bending_far_fraction: float = 0.1
 
 
-class MeshError(RuntimeError):
-    """The mesher failed on a geometry that passed validation."""
+from .errors import MeshError  # noqa: E402  (defined with PartError; kept importable from here)
 
 
 @contextmanager
 def _gmsh_session():
-    gmsh.initialize(readConfigFiles=False)
+    # interruptible=False: gmsh would otherwise install a SIGINT handler, which fails outside the main
+    # thread (a Dask worker runs checks in a thread) and turns Ctrl-C into an abrupt kill.
+    gmsh.initialize(readConfigFiles=False, interruptible=False)
     try:
         gmsh.option.setNumber("General.Terminal", 0)
         gmsh.option.setNumber("General.NumThreads", 1)
@@ -67,174 +88,209 @@ def _gmsh_session():
         gmsh.finalize()
 
 
-def raiser_features(spec: PartSpec, scale: float = 1.0, sizing: Sizing = Sizing()) -> tuple[Feature, ...]:
-    """The raisers to grade the mesh at, with their edge element size (mm) at this scale."""
-    floor = min_ligament(spec) / 4.0
-    features = []
-    for n, hole in enumerate(spec.holes, start=1):
-        ligament = min(hole_gaps(spec, n).values())
-        size = scale * min(sizing.edge_fraction * hole.radius, sizing.ligament_share * ligament)
-        features.append(Feature(name=f"hole {n}", radius=hole.radius, edge_size=max(size, floor)))
-    return tuple(features)
+def raiser_features(spec: PartSpec, scale: float = 1.0, sizing: Sizing = Sizing(),
+                    raisers: list[Raiser] | None = None) -> tuple[Feature, ...]:
+    """The raisers to grade the mesh at, with their edge element size (mm) at this scale: a fraction of
+    each raiser's own smallest radius of curvature, at most a share of its thinnest ligament."""
+    # The floor shrinks with the level like every other size: a fixed floor stalls the refinement of a
+    # small raiser, and the unchanged peak then reads as converged (a 0.5 mm hole in an 80 mm strap
+    # gave Kt 2.71 'converged' instead of about 3).
+    floor = scale * min_ligament(spec) / 4.0
+    raisers = part_raisers(spec) if raisers is None else raisers
+    return tuple(Feature(name=r.name, radius=r.curvature,
+                         edge_size=max(scale * min(sizing.edge_fraction * r.curvature,
+                                                   sizing.ligament_share * r.ligament), floor))
+                 for r in raisers)
 
 
-@dataclass(frozen=True)
-class Band:
-    """Structured layers around a circular raiser edge: centre, inner radius, layer thicknesses (mm)
-    and the number of arc divisions per quarter turn."""
-
-    center: tuple[float, float]
-    radius: float
-    thicknesses: tuple[float, ...]
-    divisions: int
-
-    @property
-    def depth(self) -> float:
-        return float(sum(self.thicknesses))
-
-
-def hole_bands(spec: PartSpec, features: tuple[Feature, ...], sizing: Sizing) -> list[Band | None]:
-    """The layered band of each hole (None where the ligament leaves no room for two layers)."""
-    bands: list[Band | None] = []
-    for n, (hole, feature) in enumerate(zip(spec.holes, features), start=1):
-        room = sizing.band_share * min(hole_gaps(spec, n).values())
+def band_pieces(raisers: list[Raiser], features: tuple[Feature, ...], sizing: Sizing) -> list[Piece]:
+    """The layered band pieces of every raiser (none where the ligament leaves no room for two layers)."""
+    pieces: list[Piece] = []
+    for raiser, feature in zip(raisers, features):
+        room = sizing.band_share * raiser.ligament
         first = sizing.layer_first * feature.edge_size
         thick = [first * sizing.layer_ratio ** k for k in range(sizing.layers)]
         while thick and sum(thick) > room:
             thick.pop()
-        divisions = 2 * max(1, math.ceil(0.25 * math.pi * hole.radius / feature.edge_size))  # even: same pattern at every level
-        bands.append(Band(hole.center, hole.radius, tuple(thick), divisions) if len(thick) >= 2 else None)
-    return bands
+        if raiser.ellipse is not None:
+            thick = ellipse_layers(raiser.ellipse, thick, room)
+        if len(thick) >= 2:
+            pieces += raiser_pieces(raiser, feature.edge_size, tuple(thick))
+    return pieces
 
 
 def mesh_part(spec: PartSpec, scale: float = 1.0, sizing: Sizing = Sizing()) -> Mesh:
-    """Mesh the part; `scale` multiplies every raiser element size (scale 0.5 halves them)."""
-    features = raiser_features(spec, scale, sizing)
-    bands = hole_bands(spec, features, sizing)
+    """Mesh the part; `scale` multiplies every raiser element size (scale 0.5 halves them). Quadratic
+    triangles (spec.mesh.order 2) are QUADRATIC_SIZE times larger than linear ones at the same scale."""
+    check_finite(spec)
+    if spec.mesh.order == 2:
+        scale *= QUADRATIC_SIZE
+    raisers = part_raisers(spec)
+    features = raiser_features(spec, scale, sizing, raisers)
+    pieces = band_pieces(raisers, features, sizing)
     with _gmsh_session():
-        boundary = _build(spec, bands)
-        curves = _name_curves(spec, boundary)
-        _size_field(spec, features, scale, sizing)
         try:
+            boundary = _build(spec, pieces)
+            curves = _name_curves(spec, boundary)
+            _size_field(spec, raisers, features, scale, sizing)
             gmsh.model.mesh.generate(2)
-        except Exception as exc:  # gmsh raises a bare Exception carrying its log line
+            if spec.mesh.order == 2:  # quadratic triangles, curved on the arcs (geometry/quadratic.py)
+                nodes, tri6, edges6 = elevate_and_extract(curves)
+            else:
+                nodes, triangles, edges = _extract(curves)
+        except Exception as exc:
+            if type(exc) is not Exception:  # ours (MeshError) or a bug: not a gmsh failure
+                raise
+            # gmsh raises a bare Exception carrying its last log line, from any call
             raise MeshError(f"gmsh could not mesh the part: {exc}") from None
-        nodes, triangles, edges = _extract(curves)
-    if triangles.shape[0] == 0:
-        raise MeshError("gmsh produced no triangles")
-    return Mesh(nodes=nodes, triangles=triangles, edges=edges, features=features)
+    if spec.mesh.order == 2:
+        mesh = Mesh(nodes=nodes, triangles=sub_triangles(tri6), edges={k: sub_edges(v) for k, v in edges6.items()},
+                    features=features, quadratic=tri6, quadratic_edges=edges6)
+    else:
+        mesh = Mesh(nodes=nodes, triangles=triangles, edges=edges, features=features)
+    check_mesh(spec, mesh)
+    return mesh
 
 
-def _build(spec: PartSpec, bands: list[Band | None]) -> list[int]:
-    """Create the OCC surfaces (the part split by the bands' arcs and radial lines); set the bands
-    transfinite; return the tags of the curves on the part's outer boundary."""
+def _build(spec: PartSpec, pieces: list[Piece]) -> list[int]:
+    """Create the OCC surfaces (the outline less the cut-outs, split by the bands' curves); set the band
+    pieces transfinite; return the tags of the curves on the part's boundary."""
     occ = gmsh.model.occ
-    half_l, half_w = 0.5 * spec.plate.length, 0.5 * spec.plate.width
-    plate = occ.addRectangle(-half_l, -half_w, 0.0, spec.plate.length, spec.plate.width)
-    disks = [(2, occ.addDisk(h.center[0], h.center[1], 0.0, h.radius, h.radius)) for h in spec.holes]
-    part = occ.cut([(2, plate)], disks)[0] if disks else [(2, plate)]
-    tools = []
-    for band in bands:
-        if band is None:
-            continue
-        cx, cy = band.center
-        outer = band.radius + band.depth
-        tools.append((1, occ.addCircle(cx, cy, 0.0, outer)))
-        for k in range(4):
-            c, s = math.cos(0.5 * math.pi * k), math.sin(0.5 * math.pi * k)
-            a = occ.addPoint(cx + band.radius * c, cy + band.radius * s, 0.0)
-            b = occ.addPoint(cx + outer * c, cy + outer * s, 0.0)
-            tools.append((1, occ.addLine(a, b)))
+    plate = _wire_surface([e.segment for e in outline_path(spec)])
+    part = occ.cut([(2, plate)], _cutouts(spec))[0] if _has_cutouts(spec) else [(2, plate)]
+    outline = plate_polygon(spec).boundary
+    on_outline = ON_OUTLINE * spec.plate.width
+
+    def skip(a, b) -> bool:  # a line across a band that lies along the outline is the outline itself
+        return outline.distance(Point(0.5 * (a[0] + b[0]), 0.5 * (a[1] + b[1]))) <= on_outline
+
+    tools = add_tools(pieces, skip)
     if tools:
-        occ.fragment(part, tools)
+        part = [d for d in occ.fragment(part, tools)[0] if d[0] == 2]
+    if spec.support.symmetry:  # keep the positive side of each symmetry plane
+        x0, y0, x1, y1 = modelled_box(spec)
+        occ.intersect(part, [(2, occ.addRectangle(x0, y0, 0.0, x1 - x0, y1 - y0))])
     occ.synchronize()
     surfaces = gmsh.model.getEntities(2)
-    _check_one_piece(surfaces, bands)
-    for band in bands:
-        if band is not None:
-            _make_transfinite(band, surfaces)
+    found = make_transfinite(pieces, surfaces, PIECE_TOLERANCE * max(spec.plate.length, spec.plate.width))
+    if len(surfaces) != 1 + found:
+        raise MeshError(f"the part split into {len(surfaces) - found} pieces; features must leave it in one piece")
     return [abs(t) for _, t in gmsh.model.getBoundary(surfaces, combined=True, oriented=False)]
 
 
-def _check_one_piece(surfaces: list[tuple[int, int]], bands: list[Band | None]) -> None:
-    expected = 1 + 4 * sum(b is not None for b in bands)
-    if len(surfaces) != expected:
-        raise MeshError(f"the part split into {len(surfaces) - 4 * sum(b is not None for b in bands)} pieces; "
-                        "features must leave it in one piece")
+def _has_cutouts(spec: PartSpec) -> bool:
+    return bool(spec.holes or spec.ellipses or spec.slots or spec.notches)
 
 
-def _make_transfinite(band: Band, surfaces: list[tuple[int, int]]) -> None:
-    """Quarter-annulus surfaces of the band: arcs with `divisions` segments, radial lines graded by
-    the band's layer thicknesses (thin at the raiser edge), triangles in alternating diagonals."""
-    cx, cy = band.center
-    ratio = band.thicknesses[1] / band.thicknesses[0] if len(band.thicknesses) > 1 else 1.0
-    reach = (band.radius + band.depth) * (1 + 1e-6)
-    for _, tag in surfaces:
-        x0, y0, _, x1, y1, _ = gmsh.model.getBoundingBox(2, tag)
-        if max(abs(x0 - cx), abs(x1 - cx), abs(y0 - cy), abs(y1 - cy)) > reach:
-            continue
-        for _, curve in gmsh.model.getBoundary([(2, tag)], oriented=False):
-            start, end = (gmsh.model.getValue(0, abs(p[1]), []) for p in gmsh.model.getBoundary([(1, curve)]))
-            r0, r1 = math.hypot(start[0] - cx, start[1] - cy), math.hypot(end[0] - cx, end[1] - cy)
-            if abs(r1 - r0) < 1e-9 * band.radius:  # an arc
-                gmsh.model.mesh.setTransfiniteCurve(abs(curve), band.divisions + 1)
-            else:  # a radial line, graded away from the raiser edge
-                coef = ratio if r1 > r0 else 1.0 / ratio
-                gmsh.model.mesh.setTransfiniteCurve(abs(curve), len(band.thicknesses) + 1, "Progression", coef)
-        gmsh.model.mesh.setTransfiniteSurface(tag, "Alternate")
+def _cutouts(spec: PartSpec) -> list[tuple[int, int]]:
+    """OCC surfaces of every cut-out: holes, ellipses, slots and notches."""
+    occ = gmsh.model.occ
+    out = [(2, occ.addDisk(h.center[0], h.center[1], 0.0, h.radius, h.radius)) for h in spec.holes]
+    for e in spec.ellipses:
+        shape = ellipse_shape(e)
+        disk = occ.addDisk(shape.center[0], shape.center[1], 0.0, shape.major, shape.minor)
+        occ.rotate([(2, disk)], shape.center[0], shape.center[1], 0.0, 0.0, 0.0, 1.0, shape.angle)
+        out.append((2, disk))
+    out += [(2, _wire_surface(slot_shape(s).wire)) for s in spec.slots]
+    out += [(2, _wire_surface(n.wire)) for notch in spec.notches for n in notch_shapes(spec, notch)]
+    return out
+
+
+def _wire_surface(segments) -> int:
+    """A plane OCC surface bounded by a closed chain of lines and arcs (each arc under half a turn)."""
+    occ = gmsh.model.occ
+    points: dict[tuple[float, float], int] = {}
+
+    def point(p) -> int:
+        key = (round(p[0], 9), round(p[1], 9))
+        if key not in points:
+            points[key] = occ.addPoint(p[0], p[1], 0.0)
+        return points[key]
+
+    curves = []
+    for seg in segments:
+        a, b = segment_points(seg)
+        if isinstance(seg, Line):
+            curves.append(occ.addLine(point(a), point(b)))
+        else:
+            centre = occ.addPoint(seg.center[0], seg.center[1], 0.0)
+            curves.append(occ.addCircleArc(point(a), centre, point(b)))
+    return occ.addPlaneSurface([occ.addCurveLoop(curves)])
 
 
 def _name_curves(spec: PartSpec, tags: list[int]) -> dict[str, list[int]]:
-    """Group outer-boundary curves by what they lie on, tested at the curve's parametric midpoint."""
-    half_l, half_w = 0.5 * spec.plate.length, 0.5 * spec.plate.width
-    tol = 1e-6 * max(spec.plate.length, spec.plate.width)
+    """Group boundary curves by what they lie on, tested at the curve's parametric midpoint: the held
+    and loaded ends, sides, a lug's rounded end, a step's shoulder faces and fillets, a symmetry plane,
+    or the raiser whose edge it is ("hole 2", "notch 1", ...). Every name but "held" and "loaded" is a
+    traction-free edge."""
+    size = max(spec.plate.length, spec.plate.width)
+    path = outline_path(spec)
+    features = feature_edges(spec)
     named: dict[str, list[int]] = {}
     for tag in tags:
         lo, hi = gmsh.model.getParametrizationBounds(1, tag)
         x, y, _ = gmsh.model.getValue(1, tag, [0.5 * (lo[0] + hi[0])])
-        if abs(x + half_l) < tol:
-            name = "held"
-        elif abs(x - half_l) < tol:
-            name = "loaded"
-        elif abs(abs(y) - half_w) < tol:
-            name = "side"
-        else:
-            name = _hole_name(spec, x, y)
+        name = on_plane(spec, x, y)
+        if name is None:
+            name = next((e.name for e in path if _segment_distance(e.segment, (x, y)) <= 1e-6 * size), None)
+        if name is None:
+            point = Point(x, y)
+            gaps = {k: g.distance(point) for k, g in features.items()}
+            nearest = min(gaps, key=gaps.get) if gaps else None
+            if nearest is None or gaps[nearest] > FEATURE_TOLERANCE * spec.plate.width:
+                raise MeshError(f"a boundary curve through ({x:g}, {y:g}) matches no feature")
+            name = nearest
         named.setdefault(name, []).append(tag)
     return named
 
 
-def _hole_name(spec: PartSpec, x: float, y: float) -> str:
-    for n, hole in enumerate(spec.holes, start=1):
-        if abs(math.hypot(x - hole.center[0], y - hole.center[1]) - hole.radius) < 1e-6 * hole.radius + 1e-9:
-            return f"hole {n}"
-    raise MeshError(f"a boundary curve through ({x:g}, {y:g}) matches no feature")
+def _segment_distance(seg, p) -> float:
+    """Exact distance (mm) from point p to a line segment or circular arc."""
+    if isinstance(seg, Line):
+        (x0, y0), (x1, y1) = seg.start, seg.end
+        dx, dy = x1 - x0, y1 - y0
+        t = min(1.0, max(0.0, ((p[0] - x0) * dx + (p[1] - y0) * dy) / (dx * dx + dy * dy)))
+        return math.hypot(p[0] - x0 - t * dx, p[1] - y0 - t * dy)
+    lo, hi = seg.ccw
+    a = lo + (math.atan2(p[1] - seg.center[1], p[0] - seg.center[0]) - lo) % (2.0 * math.pi)
+    if a <= hi:
+        return abs(math.dist(p, seg.center) - seg.radius)
+    return min(math.dist(p, seg.first), math.dist(p, seg.last))
 
 
-def _size_field(spec: PartSpec, features: tuple[Feature, ...], scale: float, sizing: Sizing) -> None:
+def _size_field(spec: PartSpec, raisers: list[Raiser], features: tuple[Feature, ...], scale: float,
+                sizing: Sizing) -> None:
     """Element size grows linearly with distance from each raiser edge, capped far away.
 
-    The far-field cap does not follow `scale`: the far field carries a near-uniform stress that linear
-    triangles represent exactly, so refining it costs time and buys nothing.
+    The far-field cap is `far_size`. Distances are exact MathEval expressions (far cheaper to evaluate
+    than a sampled Distance field).
     """
     field = gmsh.model.mesh.field
-    far = sizing.far_fraction * spec.plate.width
+    far = far_size(spec, scale, sizing)
     graded = []
-    for feature, distance in zip(features, _distance_expressions(spec)):
+    for raiser, feature in zip(raisers, features):
         grade = field.add("MathEval")
-        field.setString(grade, "F", f"{feature.edge_size!r} + {scale * sizing.growth!r} * {distance}")
+        field.setString(grade, "F", checked_expression(
+            f"{feature.edge_size!r} + {scale * sizing.growth!r} * {distance_expression(raiser)}"))
         graded.append(grade)
     cap = field.add("MathEval")
-    field.setString(cap, "F", repr(far))
+    field.setString(cap, "F", checked_expression(repr(far)))
     smallest = field.add("Min")
     field.setNumbers(smallest, "FieldsList", graded + [cap])
     field.setAsBackgroundMesh(smallest)
 
 
-def _distance_expressions(spec: PartSpec) -> list[str]:
-    """Exact distance to each raiser edge as a gmsh MathEval expression in x, y (far cheaper to
-    evaluate than a sampled Distance field). Numbers are parenthesised: the parser rejects "x - -1"."""
-    return [f"Fabs(Sqrt((x - ({h.center[0]!r}))^2 + (y - ({h.center[1]!r}))^2) - ({h.radius!r}))" for h in spec.holes]
+def far_size(spec: PartSpec, scale: float, sizing: Sizing = Sizing()) -> float:
+    """Largest element size (mm). Under axial or remote loads the far field carries a near-uniform stress
+    that linear triangles represent exactly, so the cap does not follow `scale`: refining it buys
+    nothing. Under bending or shear (or a pin pulling across the part) the far-field stress varies across
+    the width, which constant-strain triangles only approximate, so the cap is finer and shrinks with
+    `scale`."""
+    pin = spec.load.pin
+    across = pin is not None and abs(math.sin(math.radians(pin.direction))) > 1e-9
+    if spec.load.kind in ("axial", "remote") or (pin is not None and not across):
+        return sizing.far_fraction * spec.plate.width
+    return min(sizing.far_fraction, sizing.bending_far_fraction * scale) * spec.plate.width
 
 
 def _extract(curves: dict[str, list[int]]) -> tuple[np.ndarray, np.ndarray, dict[str, np.ndarray]]:

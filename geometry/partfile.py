@@ -8,24 +8,40 @@ from __future__ import annotations
 import math
 import tomllib
 from pathlib import Path
-from typing import Any
+from dataclasses import replace
+from typing import TYPE_CHECKING, Any
 
 from .errors import PartError
 from .spec import STRESS_STATES, Hole, Load, Material, MeshControls, PartSpec, Plate
+from .spec import DESIGN_BEHAVIOURS, NEUBER_STEEL_RANGE_MPA, Q_METHODS, DesignSpec, FatigueSpec
+from .spec import HELD_MODES, SYMMETRY_PLANES, Pin, Remote, SectionSpec, Support
+from .spec import MESH_SOLVERS
 from .validate import validate_geometry
 
-TOP_KEYS = {"title", "units", "plate", "hole", "material", "load", "mesh"}
+if TYPE_CHECKING:
+    from .materials import MaterialRow
+
+TOP_KEYS = {"title", "units", "plate", "hole", "material", "load", "mesh", "design", "fatigue", "support", "section",
+            "ellipse", "slot", "notch", "step", "lug"}  # the last five: geometry/featurefile.py
 DEFAULT_UNITS = "mm-N-MPa"
+MAX_PART_BYTES = 1_000_000  # longest part file read (a real one is a few kB)
 
 
 def load_part(path: str | Path) -> PartSpec:
     """Read and validate the part file at `path`."""
     path = Path(path)
     try:
-        text = path.read_text(encoding="utf-8")
+        with path.open("rb") as handle:
+            raw = handle.read(MAX_PART_BYTES + 1)  # bounded: a device or a huge file cannot hang the reader
     except FileNotFoundError:
         raise PartError(f"{path}: no such part file") from None
-    except (OSError, UnicodeDecodeError) as exc:
+    except OSError as exc:
+        raise PartError(f"{path}: cannot be read ({exc.__class__.__name__})") from None
+    if len(raw) > MAX_PART_BYTES:
+        raise PartError(f"{path}: longer than {MAX_PART_BYTES} bytes; a part file is a short text description")
+    try:
+        text = raw.decode("utf-8")
+    except UnicodeDecodeError as exc:
         raise PartError(f"{path}: cannot be read as UTF-8 text ({exc.__class__.__name__})") from None
     return parse_part(text)
 
@@ -36,6 +52,8 @@ def parse_part(text: str) -> PartSpec:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise PartError(f"part file is not valid TOML: {exc}") from None
+    except RecursionError:
+        raise PartError("part file: arrays or inline tables are nested too deeply") from None
     return part_from_dict(data)
 
 
@@ -44,7 +62,7 @@ def part_from_dict(data: dict[str, Any]) -> PartSpec:
     _known(data, TOP_KEYS, "")
     title = data.get("title", "untitled part")
     if not isinstance(title, str):
-        raise PartError(f"title: must be a text string; got {title!r}")
+        raise PartError(f"title: must be a text string; got {_shown(title)}")
     units = _units(data.get("units", DEFAULT_UNITS))
     spec = PartSpec(
         title=title,
@@ -54,9 +72,21 @@ def part_from_dict(data: dict[str, Any]) -> PartSpec:
         holes=_holes(data.get("hole", []), units),
         mesh=_mesh(_table(data, "mesh", required=False)),
         units=units,
+        support=_support(_table(data, "support", required=False)),
+        sections=_sections(data.get("section", []), units),
     )
+    from .featurefile import raiser_tables
+
+    spec = replace(spec, **raiser_tables(data, units, spec.plate.width, len(spec.holes)))
+    from .resolution import check_feature_count, check_resolution
+
+    check_feature_count(spec)  # before the pairwise geometric checks, whose cost grows with the square
     validate_geometry(spec)
-    return spec
+    check_resolution(spec)
+    from .loading import validate_loading
+
+    validate_loading(spec)
+    return replace(spec, design=_design(data, spec), fatigue=_fatigue(data, spec))
 
 
 def _units(value: Any) -> str:
@@ -82,36 +112,384 @@ def _plate(t: dict[str, Any], units: str) -> Plate:
     )
 
 
+MATERIAL_KEYS = {"grade", "E", "nu", "yield", "ultimate", "family", "ductile", "fatigue_strength", "fatigue_life"}
+
+
 def _material(t: dict[str, Any], units: str) -> Material:
-    _known(t, {"E", "nu", "yield", "ultimate"}, "material")
-    nu = _number(t, "nu", "material")
+    """[material]: a built-in `grade` whose values any key may override, or every value given here."""
+    _known(t, MATERIAL_KEYS, "material")
+    from .materials import DUCTILE_FAMILIES, FAMILIES, lookup_material
+
+    row = lookup_material(t["grade"], "material.grade") if "grade" in t else None
+    table = row is not None
+    nu = _number(t, "nu", "material", required=not table, default=row.poisson_ratio if table else None)
     if not -1.0 < nu < 0.5:
         raise PartError(f"material.nu: {nu} is outside the allowed range -1 < nu < 0.5")
-    return Material(
-        E=_positive(t, "E", "material", "stress", units),
+    family = t.get("family", row.family if table else None)
+    if family is not None and family not in FAMILIES:
+        raise PartError(f"material.family: {family!r} is not allowed; use one of {', '.join(FAMILIES)}")
+    ductile = t.get("ductile", row.ductile if table else (True if family in DUCTILE_FAMILIES else None))
+    if not isinstance(ductile, bool | None):
+        raise PartError(f"material.ductile: must be true or false; got {ductile!r}")
+    strength, life = _fatigue_strength(t, row, units)
+    material = Material(
+        E=_or(_positive(t, "E", "material", "stress", units, required=not table),
+              row.youngs_modulus_mpa if table else None),
         nu=nu,
-        yield_strength=_positive(t, "yield", "material", "stress", units, required=False),
-        ultimate=_positive(t, "ultimate", "material", "stress", units, required=False),
+        yield_strength=_or(_positive(t, "yield", "material", "stress", units, required=False),
+                           row.yield_mpa if table else None),
+        ultimate=_or(_positive(t, "ultimate", "material", "stress", units, required=False),
+                     row.ultimate_mpa if table else None),
+        grade=row.key if table else None,
+        family=family,
+        ductile=ductile,
+        fatigue_strength=strength,
+        fatigue_life=life,
+        source=_material_source(t, row),
     )
+    _strengths_in_order(material, units)
+    return material
+
+
+def _or(value: float | None, fallback: float | None) -> float | None:
+    return fallback if value is None else value
+
+
+def _fatigue_strength(t: dict[str, Any], row: MaterialRow | None, units: str) -> tuple[float | None, float | None]:
+    """(strength MPa, life cycles): from the file as a pair, else the table row's pair."""
+    if "fatigue_strength" not in t:
+        if "fatigue_life" in t:
+            raise PartError("material.fatigue_life: give material.fatigue_strength with it (they are a pair)")
+        return (row.fatigue_strength_mpa, row.fatigue_life_cycles) if row is not None else (None, None)
+    strength = _positive(t, "fatigue_strength", "material", "stress", units)
+    life = _positive(t, "fatigue_life", "material", required=False)
+    if life is not None and life < 1.0:
+        raise PartError(f"material.fatigue_life: a number of cycles of at least 1 is needed; "
+                        f"got {t['fatigue_life']!r}")
+    return strength, life
+
+
+def _material_source(t: dict[str, Any], row: MaterialRow | None) -> str:
+    if row is None:
+        return "values given in the part file"
+    own = sorted(k for k in t if k != "grade")
+    return row.source + (f"; set in the part file: {', '.join(own)}" if own else "")
+
+
+def _strengths_in_order(m: Material, units: str) -> None:
+    """Yield <= ultimate and a fatigue strength not above the ultimate, when both values are known."""
+    from .units import format_quantity
+
+    if m.yield_strength is not None and m.ultimate is not None and m.ultimate < m.yield_strength:
+        raise PartError(f"material.ultimate: {format_quantity(m.ultimate, 'stress', units)} is below the yield "
+                        f"strength {format_quantity(m.yield_strength, 'stress', units)}")
+    if m.fatigue_strength is not None and m.ultimate is not None and m.fatigue_strength > m.ultimate:
+        raise PartError(f"material.fatigue_strength: {format_quantity(m.fatigue_strength, 'stress', units)} is "
+                        f"above the ultimate strength {format_quantity(m.ultimate, 'stress', units)}")
 
 
 def _load(t: dict[str, Any], units: str) -> Load:
-    _known(t, {"axial"}, "load")
-    axial = _number(t, "axial", "load", "force", units)
-    if axial == 0.0:
-        raise PartError("load.axial: must be non-zero (positive in tension)")
-    return Load(axial=axial)
+    """[load]: end loads (axial, bending, shear, any mix), or a [load.remote] stress state, or a [load.pin]."""
+    _known(t, {"axial", "bending", "shear", "remote", "pin"}, "load")
+    ends = [k for k in ("axial", "bending", "shear") if k in t]
+    load = Load(
+        axial=_number(t, "axial", "load", "force", units, required=False, default=0.0),
+        bending=_number(t, "bending", "load", "moment", units, required=False, default=0.0),
+        shear=_number(t, "shear", "load", "force", units, required=False, default=0.0),
+        remote=_remote(t["remote"], units) if "remote" in t else None,
+        pin=_pin(t["pin"], units) if "pin" in t else None,
+    )
+    if load.remote is not None and (ends or load.pin is not None):
+        other = ends[0] if ends else "pin"
+        raise PartError(f"load.remote: cannot be combined with load.{other}; the remote state loads every outer "
+                        "edge and needs no held end")
+    if load.pin is not None and ends:
+        raise PartError(f"load.pin: cannot be combined with load.{ends[0]}; check the pin load and the end loads "
+                        "as separate parts")
+    if load.remote is None and load.pin is None and not load.has_end_loads:
+        name = f"load.{ends[0]}" if ends else "load"
+        raise PartError(f"{name}: every load is zero; give a non-zero load.axial (N, positive in tension), "
+                        "load.bending (N mm) or load.shear (N), or a [load.remote] or [load.pin] table")
+    return load
+
+
+# --- loads, supports and sections beyond axial tension ------------------------------------------------
+
+
+def _remote(t: Any, units: str) -> Remote:
+    """[load.remote]: the uniform stress state sx, sy, txy (stresses, default 0) on every outer edge."""
+    if not isinstance(t, dict):
+        raise PartError("load.remote: must be a table written [load.remote] with sx, sy and txy (stresses)")
+    _known(t, {"sx", "sy", "txy"}, "load.remote")
+    remote = Remote(*(_number(t, k, "load.remote", "stress", units, required=False, default=0.0)
+                      for k in ("sx", "sy", "txy")))
+    if remote.sx == remote.sy == remote.txy == 0.0:
+        raise PartError("load.remote: sx, sy and txy are all zero; give at least one non-zero stress")
+    return remote
+
+
+def _pin(t: Any, units: str) -> Pin:
+    """[load.pin]: hole (1-based), force (> 0) and direction (degrees from +x, default 0)."""
+    if not isinstance(t, dict):
+        raise PartError("load.pin: must be a table written [load.pin] with hole, force and direction")
+    _known(t, {"hole", "force", "direction"}, "load.pin")
+    hole = t.get("hole")
+    if isinstance(hole, bool) or not isinstance(hole, int) or hole < 1:
+        raise PartError(f"load.pin.hole: must be the number of a [[hole]] entry (1 for the first); got {hole!r}")
+    direction = _number(t, "direction", "load.pin", required=False, default=0.0)
+    if not -360.0 <= direction <= 360.0:
+        raise PartError(f"load.pin.direction: {direction} is outside the allowed range -360 to 360 degrees")
+    return Pin(hole=hole, force=_positive(t, "force", "load.pin", "force", units), direction=direction)
+
+
+def _support(t: dict[str, Any]) -> Support:
+    """[support]: held = "x" | "clamped"; symmetry = a list of mirror planes, "x" and/or "y"."""
+    _known(t, {"held", "symmetry"}, "support")
+    held = t.get("held", Support.held)
+    if held not in HELD_MODES:
+        raise PartError(f"support.held: {held!r} is not allowed; use one of {', '.join(HELD_MODES)}")
+    planes = t.get("symmetry", [])
+    if isinstance(planes, str):
+        planes = [planes]
+    if (not isinstance(planes, list) or any(p not in SYMMETRY_PLANES for p in planes)
+            or len(set(planes)) != len(planes)):
+        raise PartError(f"support.symmetry: must be a list of distinct planes from \"x\" (the plane x = 0) and "
+                        f"\"y\" (the plane y = 0); got {t.get('symmetry')!r}")
+    return Support(held=held, symmetry=tuple(sorted(planes)))
+
+
+def _sections(items: Any, units: str) -> tuple[SectionSpec, ...]:
+    """[[section]] entries: each gives x (a cut across at that x), y (a cut along at that y) or through (two
+    points [[x1, y1], [x2, y2]] on the cut); name is an optional label."""
+    if not isinstance(items, list) or not all(isinstance(i, dict) for i in items):
+        raise PartError("section: must be an array of tables, each written [[section]]")
+    out = []
+    for n, item in enumerate(items, start=1):
+        where = f"section {n}"
+        _known(item, {"x", "y", "through", "name"}, where)
+        given = [k for k in ("x", "y", "through") if k in item]
+        if len(given) != 1:
+            raise PartError(f"{where}: give exactly one of x, y or through; got {', '.join(given) or 'none'}")
+        name = item.get("name")
+        if name is not None and not isinstance(name, str):
+            raise PartError(f"{where}.name: must be a text string; got {name!r}")
+        if given[0] == "through":
+            pair = item["through"]
+            if not isinstance(pair, list) or len(pair) != 2:
+                raise PartError(f"{where}.through: must be two points [[x1, y1], [x2, y2]]; got {pair!r}")
+            a = _point({"a": pair[0]}, "a", f"{where}.through", units)
+            b = _point({"b": pair[1]}, "b", f"{where}.through", units)
+            section = section_through(a, b, where)
+        else:
+            section = section_across(given[0], _number(item, given[0], where, "length", units))
+        out.append(section if name is None else SectionSpec(section.point, section.normal, name))
+    return tuple(out)
+
+
+def section_across(axis: str, value: float) -> SectionSpec:
+    """The cut x = value (normal +x) or y = value (normal +y), in mm."""
+    if axis == "x":
+        return SectionSpec((value, 0.0), (1.0, 0.0), f"x = {value:g}")
+    return SectionSpec((0.0, value), (0.0, 1.0), f"y = {value:g}")
+
+
+def section_through(a: tuple[float, float], b: tuple[float, float], where: str) -> SectionSpec:
+    """The cut along the line from a to b (mm); its normal is the direction a -> b turned 90 degrees
+    clockwise, so a cut from (0, -1) to (0, 1) has normal +x."""
+    dx, dy = b[0] - a[0], b[1] - a[1]
+    length = math.hypot(dx, dy)
+    if length == 0.0:
+        raise PartError(f"{where}: the two points are the same; a cut needs two distinct points")
+    return SectionSpec(a, (dy / length, -dx / length), f"through ({a[0]:g}, {a[1]:g}) and ({b[0]:g}, {b[1]:g})")
+
+
+def parse_section_option(text: str, units: str = DEFAULT_UNITS) -> SectionSpec:
+    """A cut from the command line: "x=40", "y=-5" or "x1,y1:x2,y2" (lengths in the part file's units, or
+    with their own unit, e.g. "x=1.5in")."""
+    where = f"--section {text}"
+    spec = text.replace(" ", "")
+    if "=" in spec:
+        axis, _, value = spec.partition("=")
+        if axis not in ("x", "y") or not value:
+            raise PartError(f"{where}: use x=VALUE, y=VALUE or x1,y1:x2,y2")
+        return section_across(axis, _number({axis: _cli_value(value)}, axis, where, "length", units))
+    ends = spec.split(":")
+    if len(ends) != 2 or any(len(e.split(",")) != 2 for e in ends):
+        raise PartError(f"{where}: use x=VALUE, y=VALUE or x1,y1:x2,y2")
+    a, b = ({"x": _cli_value(e.split(",")[0]), "y": _cli_value(e.split(",")[1])} for e in ends)
+    pa = (_number(a, "x", where, "length", units), _number(a, "y", where, "length", units))
+    pb = (_number(b, "x", where, "length", units), _number(b, "y", where, "length", units))
+    return section_through(pa, pb, where)
+
+
+def _cli_value(text: str) -> float | str:
+    """A bare number as a float, anything else as text for the unit parser."""
+    try:
+        return float(text)
+    except ValueError:
+        return text
+
+
+# --- the sign-off tables: [design] and [fatigue] (both optional; absent means "not requested") ---------
+
+
+
+def _design(data: dict[str, Any], spec: PartSpec) -> DesignSpec | None:
+    """[design]: factors of safety and ductile/brittle behaviour; needs the yield strength."""
+    if "design" not in data:
+        return None
+    t = _table(data, "design")
+    _known(t, {"yield_factor", "ultimate_factor", "behaviour"}, "design")
+    _tension_only(spec, "[design] check")
+    m = spec.material
+    if m.yield_strength is None:
+        raise PartError("material.yield: missing; the [design] check needs the yield strength "
+                        "(or a material.grade from `stressraiser materials`)")
+    yield_factor = _safety_factor(t, "yield_factor", "design", DesignSpec.yield_factor)
+    ultimate_factor = _safety_factor(t, "ultimate_factor", "design", None)
+    if ultimate_factor is not None and m.ultimate is None:
+        raise PartError("material.ultimate: missing; design.ultimate_factor needs the ultimate strength")
+    behaviour, basis = _behaviour(t, m, "ductile" in data.get("material", {}))
+    return DesignSpec(yield_factor=yield_factor, ultimate_factor=ultimate_factor, behaviour=behaviour,
+                      behaviour_basis=basis, defaults=_left_out(t, ("yield_factor", "behaviour")))
+
+
+def _behaviour(t: dict[str, Any], m: Material, ductile_given: bool) -> tuple[str, str]:
+    """("ductile" | "brittle", where that came from)."""
+    if "behaviour" in t:
+        value = t["behaviour"]
+        if value not in DESIGN_BEHAVIOURS:
+            raise PartError(f"design.behaviour: {value!r} is not allowed; use one of {', '.join(DESIGN_BEHAVIOURS)}")
+        return value, "stated in [design]"
+    if m.ductile is None:
+        raise PartError('design.behaviour: missing; the material has no family or ductile flag to decide it, '
+                        'so state "ductile" or "brittle"')
+    behaviour = "ductile" if m.ductile else "brittle"
+    if ductile_given:
+        return behaviour, "from material.ductile"
+    if m.grade is not None:
+        return behaviour, f"from the material grade {m.grade}"
+    return behaviour, f"from the material family {m.family}"
+
+
+def _fatigue(data: dict[str, Any], spec: PartSpec) -> FatigueSpec | None:
+    """[fatigue]: the axial load cycle (min/max or alternating/mean force) and how to screen it."""
+    if "fatigue" not in data:
+        return None
+    t, units = _table(data, "fatigue"), spec.units
+    _known(t, {"min_force", "max_force", "alternating_force", "mean_force", "notch_sensitivity", "q",
+               "required_factor"}, "fatigue")
+    _tension_only(spec, "[fatigue] screen (Kt comes from the [load] case; the cycle itself may reach compression)")
+    alternating, mean = _cycle(t, units)
+    m = spec.material
+    _fatigue_material(m, units)
+    method = t.get("notch_sensitivity", FatigueSpec.notch_sensitivity)
+    if method not in Q_METHODS:
+        raise PartError(f"fatigue.notch_sensitivity: {method!r} is not allowed; use one of {', '.join(Q_METHODS)}")
+    q = _number(t, "q", "fatigue", required=False)
+    if q is not None and not 0.0 <= q <= 1.0:
+        raise PartError(f"fatigue.q: {q} is outside the allowed range 0 to 1")
+    if q is not None and "notch_sensitivity" in t:
+        raise PartError("fatigue.q: give either q or notch_sensitivity, not both")
+    if q is None:
+        _method_fits(t, method, m)
+    return FatigueSpec(
+        alternating_force=alternating, mean_force=mean, notch_sensitivity=method, q=q,
+        required_factor=_safety_factor(t, "required_factor", "fatigue", FatigueSpec.required_factor),
+        defaults=_left_out(t, ("notch_sensitivity", "required_factor") if q is None else ("required_factor",)),
+    )
+
+
+def _cycle(t: dict[str, Any], units: str) -> tuple[float, float]:
+    """(alternating, mean) force in N from min_force/max_force or alternating_force/mean_force."""
+    by_range = {"min_force", "max_force"} & t.keys()
+    by_amplitude = {"alternating_force", "mean_force"} & t.keys()
+    if by_range and by_amplitude:
+        raise PartError(f"fatigue.{sorted(by_amplitude)[0]}: give either min_force and max_force, or "
+                        "alternating_force (and mean_force), not both")
+    if by_range:
+        low = _number(t, "min_force", "fatigue", "force", units)
+        high = _number(t, "max_force", "fatigue", "force", units)
+        if not low < high:
+            raise PartError(f"fatigue.min_force: must be below fatigue.max_force; got {t['min_force']!r} and "
+                            f"{t['max_force']!r}")
+        return 0.5 * (high - low), 0.5 * (high + low)
+    if not by_amplitude:
+        raise PartError("fatigue: give the load cycle as min_force and max_force, or alternating_force "
+                        "(and mean_force, default 0)")
+    alternating = _positive(t, "alternating_force", "fatigue", "force", units)
+    return alternating, _number(t, "mean_force", "fatigue", "force", units, required=False, default=0.0)
+
+
+def _fatigue_material(m: Material, units: str) -> None:
+    """The screen needs Su and the family; aluminium and titanium also a fatigue strength at a life."""
+    if m.ultimate is None:
+        raise PartError("material.ultimate: missing; the [fatigue] screen needs the ultimate strength")
+    if m.family is None:
+        raise PartError("material.family: missing; the [fatigue] screen needs the family "
+                        "(steel, stainless, aluminium or titanium)")
+    from .materials import STEEL_FAMILIES
+
+    if m.family in STEEL_FAMILIES:
+        return
+    if m.fatigue_strength is None:
+        raise PartError(f"material.fatigue_strength: missing; {m.family} has no endurance limit, so the [fatigue] "
+                        "screen needs a fatigue strength and material.fatigue_life, the life in cycles it applies to")
+    if m.fatigue_life is None:
+        raise PartError(f"material.fatigue_life: missing; {m.family} has no endurance limit, so state the life in "
+                        "cycles that material.fatigue_strength applies to")
+
+
+def _method_fits(t: dict[str, Any], method: str, m: Material) -> None:
+    """The Peterson and Neuber fits are for steels, Neuber's only for Su 340-1700 MPa."""
+    from .materials import STEEL_FAMILIES
+
+    if m.family not in STEEL_FAMILIES:
+        if "notch_sensitivity" in t:
+            raise PartError(f"fatigue.notch_sensitivity: the built-in fits are for steels; for {m.family} give "
+                            "fatigue.q, or leave both out to take q = 1 (Kf = Kt, conservative)")
+        return
+    low, high = NEUBER_STEEL_RANGE_MPA
+    if method == "neuber" and not low <= m.ultimate <= high:
+        raise PartError(f"fatigue.notch_sensitivity: Neuber's steel fit needs an ultimate strength of "
+                        f"{low:.0f}-{high:.0f} MPa; material.ultimate is {m.ultimate:.4g} MPa; use \"peterson\" "
+                        "or give fatigue.q")
+
+
+def _tension_only(spec: PartSpec, what: str) -> None:
+    """The sign-off covers an axial tensile end load: the case its net-section definitions are for."""
+    if spec.load.kind != "axial":
+        raise PartError(f"load: the {what} covers an axial end load (load.axial) only; this part's load is "
+                        f"{spec.load.kind}")
+    if spec.load.axial < 0.0:
+        raise PartError(f"load.axial: the {what} needs a tensile load (load.axial > 0); a compressive part "
+                        "also needs a buckling check this tool does not make")
+
+
+def _safety_factor(t: dict[str, Any], key: str, where: str, default: float | None) -> float | None:
+    value = _number(t, key, where, required=False, default=default)
+    if value is not None and not 1.0 <= value <= 100.0:
+        raise PartError(f"{where}.{key}: {value} is outside the allowed range 1 to 100")
+    return value
+
+
+def _left_out(t: dict[str, Any], keys: tuple[str, ...]) -> tuple[str, ...]:
+    return tuple(k for k in keys if k not in t)
 
 
 def _mesh(t: dict[str, Any]) -> MeshControls:
-    _known(t, {"tolerance", "max_levels", "max_elements"}, "mesh")
+    _known(t, {"tolerance", "max_levels", "max_elements", "order", "solver"}, "mesh")
     default = MeshControls()
     tol = _number(t, "tolerance", "mesh", required=False, default=default.tolerance)
     if not 1e-4 <= tol <= 0.2:
         raise PartError(f"mesh.tolerance: {tol} is outside the allowed range 0.0001 to 0.2")
     levels = _integer(t, "max_levels", "mesh", default.max_levels, 3, 12)
     elements = _integer(t, "max_elements", "mesh", default.max_elements, 1_000, 20_000_000)
-    return MeshControls(tolerance=tol, max_levels=levels, max_elements=elements)
+    order = _integer(t, "order", "mesh", default.order, 1, 2)
+    solver = t.get("solver", default.solver)
+    if solver not in MESH_SOLVERS:
+        raise PartError(f"mesh.solver: {solver!r} is not allowed; use one of {', '.join(MESH_SOLVERS)}")
+    return MeshControls(tolerance=tol, max_levels=levels, max_elements=elements, order=order, solver=solver)
 
 
 def _holes(items: Any, units: str) -> tuple[Hole, ...]:
@@ -132,7 +510,8 @@ def _holes(items: Any, units: str) -> tuple[Hole, ...]:
 def _known(t: dict[str, Any], allowed: set[str], where: str) -> None:
     for key in t:
         if key not in allowed:
-            name = f"{where}.{key}" if where else key
+            shown = key if key.replace("_", "").replace("-", "").isalnum() and key.isascii() else _shown(key)
+            name = f"{where}.{shown}" if where else shown
             raise PartError(f"{name}: unknown key; allowed here: {', '.join(sorted(allowed))}")
 
 
@@ -165,18 +544,57 @@ def _number(t: dict[str, Any], key: str, where: str, quantity: str | None = None
 
         value = parse_quantity(value, quantity, name, units)
     if isinstance(value, bool) or not isinstance(value, (int, float)):
-        raise PartError(f"{name}: must be a number; got {value!r}")
-    value = float(value)
-    if not math.isfinite(value) or abs(value) > 1e12:
-        raise PartError(f"{name}: must be a finite number of magnitude below 1e12; got {value!r}")
+        raise PartError(f"{name}: must be a number; got {_shown(value)}")
+    try:
+        value = float(value)
+    except OverflowError:  # an integer beyond the float range
+        value = math.inf
+    if not math.isfinite(value):
+        raise PartError(f"{name}: must be a finite number; got {_shown(t[key])}")
+    _in_range(value, name, quantity)
+    if abs(value) > 1e12:
+        raise PartError(f"{name}: must be a finite number of magnitude below 1e12; got {_shown(value)}")
     return value
+
+
+# Magnitudes the solver handles without overflow, underflow or lost precision, in mm, N, MPa. A zero
+# (where a key allows it) is exact; any other value must lie in this range. Positive dimensions and
+# moduli must reach the low end too (see `_positive`). Wide enough for any real plate.
+MAGNITUDES = {
+    "length": (1e-3, 1e6),     # 1 µm to 1 km
+    "force": (1e-6, 1e12),
+    "stress": (1e-6, 1e7),     # 1 Pa to 10 TPa
+    "moment": (1e-6, 1e15),
+    "area": (1e-6, 1e12),
+}
+UNIT_NAMES = {"length": "mm", "force": "N", "stress": "MPa", "moment": "N*mm", "area": "mm^2"}
+
+
+def _in_range(value: float, name: str, quantity: str | None, positive: bool = False) -> None:
+    """Refuse magnitudes outside MAGNITUDES[quantity]; signed lengths (coordinates) may be small."""
+    if quantity not in MAGNITUDES or value == 0.0:
+        return
+    low, high = MAGNITUDES[quantity]
+    unit = UNIT_NAMES[quantity]
+    if abs(value) > high:
+        raise PartError(f"{name}: {value:.6g} {unit} is beyond the largest magnitude allowed, {high:g} {unit}")
+    if abs(value) < low and (positive or quantity != "length"):
+        raise PartError(f"{name}: {value:.6g} {unit} is below the smallest magnitude allowed, {low:g} {unit}")
+
+
+def _shown(value: Any, limit: int = 60) -> str:
+    """repr of a value cut to one short line for an error message."""
+    text = repr(value)
+    return text if len(text) <= limit else text[:limit] + "..."
 
 
 def _positive(t: dict[str, Any], key: str, where: str, quantity: str | None = None, units: str = DEFAULT_UNITS,
               required: bool = True) -> float:
     value = _number(t, key, where, quantity, units, required)
     if value is not None and value <= 0.0:
-        raise PartError(f"{where}.{key}: must be greater than zero; got {t[key]!r}")
+        raise PartError(f"{where}.{key}: must be greater than zero; got {_shown(t[key])}")
+    if value is not None:
+        _in_range(value, f"{where}.{key}", quantity, positive=True)
     return value
 
 

@@ -23,12 +23,14 @@ import math
 import re
 from dataclasses import dataclass
 from functools import cache
-from typing import TypeVar
+from typing import TYPE_CHECKING, TypeVar
 
 import numpy as np
-import pint
 
 from .errors import PartError
+
+if TYPE_CHECKING:  # pint is imported on first use: it costs about a second at start-up
+    import pint
 
 QUANTITIES = ("length", "force", "stress", "area", "moment")
 
@@ -111,6 +113,8 @@ Number = TypeVar("Number", float, np.ndarray)
 @cache
 def _registry() -> pint.UnitRegistry:
     """The one pint registry, built on first use and only read afterwards."""
+    import pint
+
     return pint.UnitRegistry()
 
 
@@ -130,6 +134,9 @@ def unit_system(name: str, key: str = "units") -> UnitSystem:
 @cache
 def _factor(quantity: str, system: str) -> float:
     """Internal units per one unit of `quantity` in `system` (e.g. 25.4 for length in inches)."""
+    unit_system(system)
+    if system == DEFAULT_SYSTEM:  # the default system is the internal one: no pint needed
+        return 1.0
     ureg = _registry()
     source = unit_system(system).unit(quantity)
     return float(ureg.Quantity(1.0, source).to(INTERNAL_UNITS[quantity]).magnitude)
@@ -150,6 +157,25 @@ def from_internal(value: Number, quantity: str, system: str = DEFAULT_SYSTEM) ->
 def unit_label(quantity: str, system: str = DEFAULT_SYSTEM) -> str:
     """Display label of `quantity` in `system`, e.g. unit_label("stress", "in-kip-ksi") == "ksi"."""
     return unit_system(system).label(quantity)
+
+
+def format_number(value: float, digits: int = 4) -> str:
+    """`value` to `digits` significant figures, trailing zeros dropped; plain decimals from 1e-3 to 1e7
+    (so "30012", not "3.001e+04"), exponent notation outside that range."""
+    if not math.isfinite(value):
+        return str(value)
+    if value == 0.0:
+        return "0"
+    exponent = math.floor(math.log10(abs(value)))
+    if not -3 <= exponent < 7:
+        return f"{value:.{digits - 1}e}"
+    text = f"{value:.{max(0, digits - 1 - exponent)}f}"
+    return text.rstrip("0").rstrip(".") if "." in text else text
+
+
+def format_quantity(value: float, quantity: str, system: str = DEFAULT_SYSTEM, digits: int = 4) -> str:
+    """An internal value (mm, N, MPa, mm², N·mm) shown in `system` with its label, e.g. "30012 psi"."""
+    return f"{format_number(float(from_internal(value, quantity, system)), digits)} {unit_label(quantity, system)}"
 
 
 def _dimension_name(dimensionality: pint.util.UnitsContainer) -> str:
@@ -173,6 +199,8 @@ def _refuse(key: str, value: object, quantity: str, why: str) -> PartError:
 
 def _parse_string(text: str, quantity: str, key: str, system: str) -> float:
     """Parse "number unit" (or a number alone, taken in `system`) to internal units."""
+    import pint
+
     match = _NUMBER_THEN_UNIT.match(text)
     if match is None:
         raise _refuse(key, text, quantity, "does not start with a number")

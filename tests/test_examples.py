@@ -4,9 +4,11 @@ from __future__ import annotations
 
 import json
 
+import jsonschema
 import pytest
 
 from stressraiser.cli.main import main
+from stressraiser.cli.schema import check_schema
 
 from conftest import EXAMPLES
 
@@ -28,6 +30,7 @@ def test_example_runs_and_records(example, tmp_path, capsys):
     assert record["kt"]["converged"] is True
     assert abs(record["net_section"]["equilibrium_error"]) < 0.005
     assert all({"nodes", "elements", "peak"} <= set(level) for level in record["mesh"]["levels"])
+    jsonschema.Draft202012Validator(check_schema()).validate(record)  # the documented schema, cli/check.schema.json
     printed = capsys.readouterr().out
     assert "Kt(net)" in printed and "Cautions" in printed
 

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import pytest
 
-from stressraiser.compare.materials import FAMILIES, MATERIALS, lookup_material, material_keys
+from stressraiser.geometry.materials import FAMILIES, MATERIALS, lookup_material, material_keys
 from stressraiser.geometry.errors import PartError
 
 E_RANGE_MPA = {

@@ -11,9 +11,16 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from ..geometry.errors import PartError
+from .errors import PartError
 
 FAMILIES = ("steel", "stainless", "aluminium", "titanium")
+
+# Wrought metals of these families yield locally before they fracture at room temperature, so a part
+# made of one is taken as ductile unless the part file says otherwise (common practice).
+DUCTILE_FAMILIES = FAMILIES
+
+# Families the steel notch-sensitivity fits and the steel endurance-limit estimate apply to.
+STEEL_FAMILIES = ("steel", "stainless")
 
 
 @dataclass(frozen=True)

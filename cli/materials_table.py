@@ -1,0 +1,52 @@
+"""`stressraiser materials`: list the built-in material table with the source of every row."""
+
+from __future__ import annotations
+
+import argparse
+
+NAME = "materials"
+
+
+def add_parser(commands) -> None:
+    from ..geometry.units import UNIT_SYSTEMS
+
+    parser = commands.add_parser(NAME, help="list the built-in materials and their sources")
+    parser.add_argument("--units", choices=tuple(UNIT_SYSTEMS), default="mm-N-MPa",
+                        help="unit system for the strengths and moduli (default mm-N-MPa)")
+
+
+def run(args: argparse.Namespace) -> int:
+    from rich.console import Console
+    from rich.markup import escape
+    from rich.table import Table
+
+    from ..geometry.materials import MATERIALS
+    from ..geometry.units import format_quantity, unit_label
+
+    out = Console(highlight=False, soft_wrap=True)
+    stress = unit_label("stress", args.units)
+    table = Table(title=f"Built-in materials (stresses in {stress}; name one with material.grade)",
+                  title_justify="left", box=None)
+    for column, justify in (("grade", "left"), ("family", "left"), ("E", "right"), ("nu", "right"),
+                            ("yield", "right"), ("ultimate", "right"), ("fatigue strength", "right"),
+                            ("at cycles", "right")):
+        table.add_column(column, justify=justify)
+
+    def number(value: float) -> str:
+        return format_quantity(value, "stress", args.units).removesuffix(f" {stress}")
+
+    for row in MATERIALS:
+        fatigue = "—" if row.fatigue_strength_mpa is None else number(row.fatigue_strength_mpa)
+        life = "—" if row.fatigue_life_cycles is None else f"{row.fatigue_life_cycles:.0e}"
+        table.add_row(row.key, row.family, number(row.youngs_modulus_mpa), f"{row.poisson_ratio:g}",
+                      number(row.yield_mpa), number(row.ultimate_mpa), fatigue, life)
+    out.print(table)
+    out.print("[bold]Sources[/bold]")
+    for row in MATERIALS:
+        out.print(f" {row.key}: {escape(row.name)}. {escape(row.source)}.")
+    out.print("Strengths are specified minimums recalled from the named standards (from memory); fatigue "
+              "strengths are typical polished-specimen values, not design values. Check every value against "
+              "the governing specification and the mill certificate. Steels without a listed fatigue strength "
+              "get the common estimate Se' = 0.5 Su in the fatigue screen; aluminium and titanium need a "
+              "fatigue strength at a stated life.")
+    return 0

@@ -1,0 +1,761 @@
+"""The figures of a check: pure functions from a CheckResult (or one of its parts) to a matplotlib Figure.
+
+Lengths in mm, stresses in MPa, Kt dimensionless. Figures are built with `matplotlib.figure.Figure`
+directly (no pyplot, no global state) and rendered by the Agg/SVG backends when saved, so nothing here
+needs a display. matplotlib is slow to import: import this module only when figures are wanted.
+
+Colour maps are perceptually uniform (viridis); line colours are this project's own small palette.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Any
+
+import numpy as np
+from matplotlib.figure import Figure
+from matplotlib.lines import Line2D
+from matplotlib.patches import FancyArrowPatch, Polygon as PolygonPatch
+from matplotlib.tri import Triangulation
+
+from ..compare.check import CheckResult
+from ..geometry.outline import part_polygon
+from .citation import short_source
+
+INK = "#222222"
+FE_LINE = "#2a5f8f"  # finite-element values
+AVERAGE_LINE = "#c8641e"  # net-section average (hand calculation)
+GROSS_LINE = "#7a7a7a"
+HANDBOOK_MARK = "#6b3fa0"
+PASS_FILL, FAIL_FILL = "#3f8f5a", "#b8392b"
+MATERIAL_FILL = "#e9edf2"
+STRESS_MAP = "viridis"
+WIDTH_IN = 9.0  # figure width, inches
+
+
+@dataclass(frozen=True)
+class SectionView:
+    """One critical section to draw: a label, the section (NetSection-like), the converged peak (MPa)
+    and where it is (mm), the raiser it belongs to, and Kt on that section."""
+
+    label: str
+    section: Any
+    peak: float
+    location: tuple[float, float]
+    feature: str
+    kt_net: float
+
+    @property
+    def point(self) -> np.ndarray:
+        """A point of the cut (mm); positions along the cut are measured from it."""
+        return np.asarray(getattr(self.section, "point", None) or (self.section.x, 0.0), dtype=float)
+
+    @property
+    def normal(self) -> np.ndarray:
+        """Unit normal of the cut (the load direction for a cut across the load)."""
+        n = np.asarray(getattr(self.section, "normal", None) or (1.0, 0.0), dtype=float)
+        return n / np.hypot(*n)
+
+    @property
+    def direction(self) -> np.ndarray:
+        """Unit vector along the cut, d = (-n_y, n_x): for a cut across x this is +y."""
+        n = self.normal
+        return np.array([-n[1], n[0]])
+
+    @property
+    def across_x(self) -> bool:
+        return bool(np.allclose(self.normal, (1.0, 0.0)))
+
+    @property
+    def where(self) -> str:
+        """Where the cut is, in words: "x = 0 mm" or "through (x, y) mm, normal (nx, ny)"."""
+        if self.across_x:
+            return f"x = {self.point[0]:g} mm"
+        (px, py), (nx, ny) = self.point, self.normal
+        return f"through ({px:.4g}, {py:.4g}) mm, normal ({nx:.3f}, {ny:.3f})"
+
+    def position(self, xy: tuple[float, float]) -> tuple[float, float]:
+        """(position along the cut, distance off the cut) of a point, mm."""
+        r = np.asarray(xy, dtype=float) - self.point
+        return float(r @ self.direction), float(r @ self.normal)
+
+    def ends(self, lo: float, hi: float) -> tuple[np.ndarray, np.ndarray]:
+        """The points of the cut at positions lo and hi along it (mm)."""
+        return self.point + lo * self.direction, self.point + hi * self.direction
+
+
+def critical_sections(result: CheckResult) -> list[SectionView]:
+    """The critical sections of a result, the governing one first.
+
+    A result that lists several raisers (attribute `peaks`, each with `peak` and `net_section` or the
+    same fields flat) gives one view per raiser; otherwise the single governing section."""
+    views = []
+    for n, item in enumerate(getattr(result, "peaks", None) or (), start=1):
+        peak = getattr(item, "peak", item)
+        section = getattr(item, "net_section", None) or getattr(item, "section", None)
+        if section is None or not hasattr(section, "cut"):
+            continue
+        stress = float(getattr(peak, "stress"))
+        kt = getattr(item, "kt_net", None)
+        views.append(SectionView(f"section {n}", section, stress, tuple(getattr(peak, "location")),
+                                 str(getattr(peak, "feature", "")),
+                                 float(kt) if kt is not None else stress / section.average))
+    return views or [governing_view(result)]
+
+
+def governing_view(result: CheckResult) -> SectionView:
+    """The governing critical section: the net section through the raiser with the largest peak."""
+    return SectionView("section 1", result.net_section, result.peak.stress, tuple(result.peak.location),
+                       result.peak.feature, result.kt.net)
+
+
+# --- helpers ----------------------------------------------------------------------------------------
+
+def _figure(height: float, width: float = WIDTH_IN) -> Figure:
+    fig = Figure(figsize=(width, height), layout="constrained")
+    return fig
+
+
+def _outline_patches(result: CheckResult, ax, fill: str = MATERIAL_FILL, edge: str = INK, lw: float = 1.2) -> None:
+    """Draw the part outline (exterior and holes) from the exact shapely polygon."""
+    poly = part_polygon(result.spec)
+    pieces = getattr(poly, "geoms", [poly])
+    for piece in pieces:
+        ax.add_patch(PolygonPatch(np.asarray(piece.exterior.coords), closed=True, facecolor=fill, edgecolor=edge,
+                                  linewidth=lw, zorder=1))
+        for ring in piece.interiors:
+            ax.add_patch(PolygonPatch(np.asarray(ring.coords), closed=True, facecolor="white", edgecolor=edge,
+                                      linewidth=lw, zorder=2))
+
+
+def _bounds(result: CheckResult) -> tuple[float, float, float, float]:
+    return tuple(float(v) for v in part_polygon(result.spec).bounds)  # type: ignore[return-value]
+
+
+def _triangulation(result: CheckResult) -> Triangulation:
+    mesh = result.solution.mesh
+    return Triangulation(mesh.nodes[:, 0], mesh.nodes[:, 1], mesh.triangles)
+
+
+def _peak_radius(result: CheckResult) -> float:
+    """Radius of curvature (mm) of the raiser holding the peak, else a tenth of the plate width."""
+    for feature in result.solution.mesh.features:
+        if feature.name == result.peak.feature:
+            return float(feature.radius)
+    minx, miny, maxx, maxy = _bounds(result)
+    return 0.1 * (maxy - miny)
+
+
+def _raiser_centre(result: CheckResult) -> tuple[float, float]:
+    """Centre of the raiser holding the peak when the part names it (a hole's centre), else the peak."""
+    name = result.peak.feature
+    for n, hole in enumerate(getattr(result.spec, "holes", ()) or (), start=1):
+        if name == f"hole {n}":
+            return (float(hole.center[0]), float(hole.center[1]))
+    return tuple(result.peak.location)  # type: ignore[return-value]
+
+
+def _zoom_window(result: CheckResult, centre: tuple[float, float], half: float
+                 ) -> tuple[tuple[float, float], tuple[float, float]]:
+    """x and y limits of a square window of half-size `half` (mm) around `centre`, kept inside the part."""
+    minx, miny, maxx, maxy = _bounds(result)
+    half = min(half, 0.5 * (maxx - minx), 0.5 * (maxy - miny))
+    cx = min(max(centre[0], minx + half), maxx - half)
+    cy = min(max(centre[1], miny + half), maxy - half)
+    return (cx - half, cx + half), (cy - half, cy + half)
+
+
+def _raiser_window(result: CheckResult):
+    """Window showing the whole raiser that holds the peak: around the bounding box of its boundary edges
+    when the mesh names them (else its centre), at least 2.2 of its smallest radii each way."""
+    mesh = result.solution.mesh
+    edges = mesh.edges.get(result.peak.feature)
+    half = 2.2 * _peak_radius(result)
+    if edges is not None and len(edges):
+        points = mesh.nodes[np.unique(edges)]
+        low, high = points.min(axis=0), points.max(axis=0)
+        centre = tuple(0.5 * (low + high))
+        return _zoom_window(result, centre, max(half, 0.55 * float(np.max(high - low)) * 1.25))
+    return _zoom_window(result, _raiser_centre(result), half)
+
+
+def _peak_window(result: CheckResult):
+    """Close window at the peak itself, a third of the raiser radius each way, shifted away from the
+    raiser's centre so that it shows mostly material."""
+    half = 0.33 * _peak_radius(result)
+    (px, py), (cx, cy) = result.peak.location, _raiser_centre(result)
+    away = np.hypot(px - cx, py - cy)
+    shift = 0.8 * half / away if away > 0 else 0.0
+    return _zoom_window(result, (px + shift * (px - cx), py + shift * (py - cy)), half)
+
+
+def _window_triangulation(result: CheckResult, window) -> Triangulation:
+    """Triangulation of only the triangles with a node inside (or touching) the window: fast close-ups."""
+    mesh = result.solution.mesh
+    (x0, x1), (y0, y1) = window
+    dx, dy = 0.05 * (x1 - x0), 0.05 * (y1 - y0)
+    inside = ((mesh.nodes[:, 0] >= x0 - dx) & (mesh.nodes[:, 0] <= x1 + dx)
+              & (mesh.nodes[:, 1] >= y0 - dy) & (mesh.nodes[:, 1] <= y1 + dy))
+    keep = inside[mesh.triangles].any(axis=1)
+    return Triangulation(mesh.nodes[:, 0], mesh.nodes[:, 1], mesh.triangles[keep])
+
+
+def _box(ax, window, colour: str) -> None:
+    (x0, x1), (y0, y1) = window
+    ax.add_patch(PolygonPatch([(x0, y0), (x1, y0), (x1, y1), (x0, y1)], closed=True, fill=False, edgecolor=colour,
+                              lw=1.2, zorder=5))
+
+
+def _frame(ax, xlim, ylim, xlabel: str = "x (mm)", ylabel: str = "y (mm)") -> None:
+    ax.set_aspect("equal")
+    ax.set_xlim(*xlim)
+    ax.set_ylim(*ylim)
+    ax.set_xlabel(xlabel)
+    ax.set_ylabel(ylabel)
+
+
+def _padded(result: CheckResult, pad: float = 0.04) -> tuple[tuple[float, float], tuple[float, float]]:
+    minx, miny, maxx, maxy = _bounds(result)
+    p = pad * max(maxx - minx, maxy - miny)
+    return (minx - p, maxx + p), (miny - p, maxy + p)
+
+
+def _dimension(ax, a: tuple[float, float], b: tuple[float, float], text: str, offset: tuple[float, float],
+               rotation: float = 0.0) -> None:
+    """A dimension line between points a and b shifted by `offset` (mm), with extension lines and text."""
+    a2 = (a[0] + offset[0], a[1] + offset[1])
+    b2 = (b[0] + offset[0], b[1] + offset[1])
+    for p, q in ((a, a2), (b, b2)):
+        ax.plot([p[0], q[0] + 0.15 * np.sign(offset[0] or 0) * abs(offset[0])],
+                [p[1], q[1] + 0.15 * np.sign(offset[1] or 0) * abs(offset[1])], color=GROSS_LINE, lw=0.6)
+    ax.add_patch(FancyArrowPatch(a2, b2, arrowstyle="<|-|>", mutation_scale=9, color=INK, lw=0.8,
+                                 shrinkA=0, shrinkB=0))
+    mid = (0.5 * (a2[0] + b2[0]), 0.5 * (a2[1] + b2[1]))
+    ax.text(*mid, text, ha="center", va="center", rotation=rotation, fontsize=9, color=INK,
+            bbox=dict(boxstyle="round,pad=0.2", facecolor="white", edgecolor="none"))
+
+
+def _fmt(value: float, unit: str = "") -> str:
+    text = f"{value:.4g}"
+    return f"{text} {unit}".strip()
+
+
+# --- the part ---------------------------------------------------------------------------------------
+
+def outline_figure(result: CheckResult) -> Figure:
+    """Dimensioned outline of the part: overall length and width, each hole numbered (diameters and
+    centres listed below the drawing), the held end, the loads and the critical sections."""
+    spec = result.spec
+    minx, miny, maxx, maxy = _bounds(result)
+    length, width = maxx - minx, maxy - miny
+    step = 0.09 * max(length, width)
+    xlim, ylim = (minx - 1.6 * step, maxx + 1.6 * step), (miny - 2.0 * step, maxy + 1.8 * step)
+    holes = list(getattr(spec, "holes", ()) or ())
+    rows = math.ceil(len(holes) / 3)
+    fig = _figure(height=(WIDTH_IN - 0.8) * (ylim[1] - ylim[0]) / (xlim[1] - xlim[0]) + 0.8 + 0.22 * rows)
+    ax = fig.add_subplot()
+    _outline_patches(result, ax)
+    _dimension(ax, (minx, miny), (maxx, miny), f"{_fmt(length)} mm", (0.0, -1.3 * step))
+    _dimension(ax, (minx, miny), (minx, maxy), f"{_fmt(width)} mm", (-0.9 * step, 0.0), rotation=90)
+    _draw_support(ax, spec, (minx, miny, maxx, maxy), step)
+    _draw_loads(ax, spec, (minx, miny, maxx, maxy), step)
+    handles = []
+    for n, hole in enumerate(holes, start=1):
+        cx, cy = hole.center
+        r = 0.5 * hole.diameter
+        for dx, dy in ((1, 0), (0, 1)):
+            ax.plot([cx - 1.25 * r * dx, cx + 1.25 * r * dx], [cy - 1.25 * r * dy, cy + 1.25 * r * dy],
+                    color=GROSS_LINE, lw=0.6, ls=(0, (6, 2, 1, 2)))
+        ax.annotate(str(n), xy=(cx + 0.71 * r, cy + 0.71 * r), xytext=(4, 4), textcoords="offset points",
+                    fontsize=9, fontweight="bold", color=INK)
+        handles.append(Line2D([], [], ls="none", marker=f"${n}$", color=INK, markersize=7,
+                              label=f"hole {n}: Ø{_fmt(hole.diameter)} mm, centre ({_fmt(cx)}, {_fmt(cy)}) mm"))
+    if handles:
+        fig.legend(handles=handles, loc="outside lower center", ncols=min(3, len(handles)), fontsize=9,
+                   frameon=False, handletextpad=0.3, columnspacing=1.5)
+    # critical sections; sections on the same cut share one line and one label
+    cuts: dict[tuple, list[SectionView]] = {}
+    for view in critical_sections(result):
+        key = tuple(np.round(np.concatenate([view.point, view.normal]), 6))
+        cuts.setdefault(key, []).append(view)
+    for views in cuts.values():
+        view = views[0]
+        lo = min(a for v in views for a, _ in v.section.ligaments) - 0.25 * step
+        hi = max(b for v in views for _, b in v.section.ligaments) + 0.25 * step
+        a, b = view.ends(lo, hi)
+        ax.plot([a[0], b[0]], [a[1], b[1]], color=FE_LINE, lw=1.0, ls="--")
+        low = a if a[1] <= b[1] else b
+        names = ", ".join(v.label.removeprefix("section ") for v in views)
+        label = ("sections " if len(views) > 1 else "section ") + names
+        ax.text(low[0], low[1] - 0.1 * step, label + (f"\n{view.where}" if view.across_x else ""),
+                ha="center", va="top", fontsize=8, color=FE_LINE)
+    ax.text(0.99, 0.01, f"thickness {_fmt(spec.plate.thickness)} mm · origin at the plate centre",
+            transform=ax.transAxes, ha="right", va="bottom", fontsize=8, color=GROSS_LINE)
+    _frame(ax, xlim, ylim)
+    for side in ("top", "right"):
+        ax.spines[side].set_visible(False)
+    return fig
+
+
+def _draw_support(ax, spec, bounds, step: float) -> None:
+    """Hatching at the held end (left), with how it is held; none under a remote (self-equilibrated) load."""
+    minx, miny, maxx, maxy = bounds
+    if getattr(spec.load, "remote", None) is not None:
+        return
+    for y in np.linspace(miny, maxy, 9):
+        ax.plot([minx, minx - 0.12 * step], [y, y - 0.12 * step], color=INK, lw=0.8)
+    held = getattr(getattr(spec, "support", None), "held", "x")
+    text = "held end\n(clamped)" if held == "clamped" else "held end\n(x fixed)"
+    ax.text(minx, maxy + 0.3 * step, text, ha="center", va="bottom", fontsize=9, color=INK)
+
+
+def _arrow(ax, tail, head, colour: str = AVERAGE_LINE) -> None:
+    ax.add_patch(FancyArrowPatch(tuple(tail), tuple(head), arrowstyle="-|>", mutation_scale=12, color=colour,
+                                 lw=1.4, zorder=6))
+
+
+def _draw_loads(ax, spec, bounds, step: float) -> None:
+    """Arrows and labels for the loads the part file gives: end force, moment and shear, a pin through a
+    hole, or a remote stress state. Forces in kN, moments in N·m on the drawing."""
+    minx, miny, maxx, maxy = bounds
+    load = spec.load
+    width = maxy - miny
+    notes = []
+    axial = float(getattr(load, "axial", 0.0) or 0.0)
+    if axial:
+        tail, head = (maxx + 0.2 * step, maxx + 1.3 * step) if axial > 0 else (maxx + 1.3 * step, maxx + 0.2 * step)
+        for y in np.linspace(miny + 0.2 * width, maxy - 0.2 * width, 3):
+            _arrow(ax, (tail, y), (head, y))
+        notes.append(f"P = {_fmt(abs(axial) / 1000.0)} kN " + ("tension" if axial > 0 else "compression"))
+    shear = float(getattr(load, "shear", 0.0) or 0.0)
+    if shear:
+        x = maxx + 1.45 * step
+        y0, y1 = (miny + 0.1 * width, maxy - 0.1 * width) if shear > 0 else (maxy - 0.1 * width, miny + 0.1 * width)
+        _arrow(ax, (x, y0), (x, y1), FE_LINE)
+        notes.append(f"V = {_fmt(shear / 1000.0)} kN along y")
+    bending = float(getattr(load, "bending", 0.0) or 0.0)
+    if bending:
+        centre = (maxx + 0.75 * step, 0.5 * (miny + maxy))
+        ax.add_patch(FancyArrowPatch((centre[0], centre[1] - 0.35 * width), (centre[0], centre[1] + 0.35 * width),
+                                     connectionstyle=f"arc3,rad={0.6 if bending > 0 else -0.6}", arrowstyle="-|>",
+                                     mutation_scale=12, color=HANDBOOK_MARK, lw=1.4))
+        notes.append(f"M = {_fmt(bending / 1000.0)} N·m")
+    pin = getattr(load, "pin", None)
+    holes = list(getattr(spec, "holes", ()) or ())
+    if pin is not None and 1 <= getattr(pin, "hole", 0) <= len(holes):
+        hole = holes[pin.hole - 1]
+        angle = math.radians(getattr(pin, "direction", 0.0))
+        u = np.array([math.cos(angle), math.sin(angle)])
+        start = np.asarray(hole.center, dtype=float)
+        _arrow(ax, start, start + (0.5 * hole.diameter + 1.2 * step) * u)
+        notes.append(f"pin in hole {pin.hole}: F = {_fmt(pin.force / 1000.0)} kN at {_fmt(math.degrees(angle))}°")
+    remote = getattr(load, "remote", None)
+    if remote is not None:
+        sx, sy = float(getattr(remote, "sx", 0.0)), float(getattr(remote, "sy", 0.0))
+        for sign, x in ((-1, minx), (1, maxx)):
+            if sx:
+                d = 0.9 * step * np.sign(sx) * sign
+                _arrow(ax, (x + (0.15 * step * sign if sx > 0 else d + 0.15 * step * sign), 0.5 * (miny + maxy)),
+                       (x + (d if sx > 0 else 0.15 * step * sign), 0.5 * (miny + maxy)))
+        for sign, y in ((-1, miny), (1, maxy)):
+            if sy:
+                d = 0.9 * step * np.sign(sy) * sign
+                cx = 0.5 * (minx + maxx)
+                _arrow(ax, (cx, y + (0.15 * step * sign if sy > 0 else d + 0.15 * step * sign)),
+                       (cx, y + (d if sy > 0 else 0.15 * step * sign)))
+        notes.append(f"remote stress σx {_fmt(sx)}, σy {_fmt(sy)}, τxy {_fmt(float(getattr(remote, 'txy', 0.0)))} MPa")
+    if notes:
+        ax.text(maxx, maxy + 0.3 * step, "\n".join(notes), ha="right", va="bottom", fontsize=9, color=AVERAGE_LINE)
+
+
+# --- the mesh ---------------------------------------------------------------------------------------
+
+def _map_layout(result: CheckResult, bottom_height: float = 3.6):
+    """A figure with the whole part on top (full width) and two square close-ups below."""
+    (x0, x1), (y0, y1) = _padded(result, 0.01)
+    top_height = (WIDTH_IN - 1.2) * (y1 - y0) / (x1 - x0) + 0.7
+    fig = _figure(height=top_height + bottom_height + 0.2)
+    grid = fig.add_gridspec(2, 2, height_ratios=[top_height, bottom_height])
+    return fig, fig.add_subplot(grid[0, :]), fig.add_subplot(grid[1, 0]), fig.add_subplot(grid[1, 1]), ((x0, x1), (y0, y1))
+
+
+def mesh_figure(result: CheckResult) -> Figure:
+    """The finest mesh: the whole part above; below, the raiser that holds the peak and a closer view
+    of the peak itself, where the layered elements along the edge are visible."""
+    mesh = result.solution.mesh
+    fig, ax, near, closest, limits = _map_layout(result)
+    raiser, peak = _raiser_window(result), _peak_window(result)
+    ax.triplot(_triangulation(result), color=INK, lw=0.15, rasterized=True)
+    _box(ax, raiser, AVERAGE_LINE)
+    ax.set_title(f"finest level: {mesh.n_nodes:,} nodes, {mesh.n_elements:,} triangles", fontsize=10, loc="left")
+    _frame(ax, *limits)
+    near.triplot(_window_triangulation(result, raiser), color=INK, lw=0.3, rasterized=True)
+    _box(near, peak, FE_LINE)
+    near.set_title(f"around {result.peak.feature} (orange box above)", fontsize=10, loc="left")
+    _frame(near, *raiser)
+    closest.triplot(_window_triangulation(result, peak), color=INK, lw=0.5, rasterized=True)
+    closest.plot(*result.peak.location, "o", ms=9, mfc="none", mec=AVERAGE_LINE, mew=1.8)
+    size = next((f.edge_size for f in mesh.features if f.name == result.peak.feature), None)
+    closest.set_title("at the peak (blue box)" + (f": edge elements {size:.3g} mm" if size else ""), fontsize=10,
+                      loc="left")
+    _frame(closest, *peak)
+    for axis, colour in ((near, AVERAGE_LINE), (closest, FE_LINE)):
+        for spine in axis.spines.values():
+            spine.set_edgecolor(colour)
+            spine.set_linewidth(1.2)
+    return fig
+
+
+# --- the stress map ---------------------------------------------------------------------------------
+
+def stress_map_figure(result: CheckResult) -> Figure:
+    """Maximum principal stress on the finest mesh (viridis): the whole part, a close-up of the raiser
+    with the peak marked and labelled, and von Mises stress over the same close-up."""
+    s1 = result.solution.principal[:, 0]
+    vm = result.solution.von_mises
+    limits = (float(np.min(s1)), float(np.max(s1)))
+    fig, ax, near, other, whole = _map_layout(result)
+    image = ax.tripcolor(_triangulation(result), s1, shading="gouraud", cmap=STRESS_MAP, vmin=limits[0],
+                         vmax=limits[1], rasterized=True)
+    px, py = result.peak.location
+    for view in critical_sections(result):
+        a, b = view.ends(min(lo for lo, _ in view.section.ligaments), max(hi for _, hi in view.section.ligaments))
+        ax.plot([a[0], b[0]], [a[1], b[1]], color="white", lw=0.8, ls="--")
+    ax.plot(px, py, marker="o", ms=8, mfc="none", mec="white", mew=1.6)
+    window = _raiser_window(result)
+    _box(ax, window, AVERAGE_LINE)
+    ax.set_title(f"max principal stress; peak {result.peak.stress:.1f} MPa at ({px:.2f}, {py:.2f}) mm "
+                 f"({result.peak.feature}); dashed: critical section", fontsize=10, loc="left")
+    _frame(ax, *whole)
+    fig.colorbar(image, ax=ax, shrink=0.95, pad=0.01, aspect=12).set_label("max principal (MPa)")
+    close = _window_triangulation(result, window)
+    image = near.tripcolor(close, s1, shading="gouraud", cmap=STRESS_MAP, vmin=limits[0], vmax=limits[1],
+                           rasterized=True)
+    _outline_patches(result, near, fill="none", edge=INK, lw=0.8)
+    near.plot(px, py, marker="o", ms=9, mfc="none", mec="white", mew=2.0)
+    cx, cy = 0.5 * sum(window[0]), 0.5 * sum(window[1])
+    near.annotate(f"peak {result.peak.stress:.1f} MPa\n(finest mesh {result.peak.fe_stress:.1f})", xy=(px, py),
+                  xytext=(cx, cy), fontsize=9, color="white", ha="center", va="center",
+                  arrowprops=dict(arrowstyle="-|>", color=INK, lw=0.9, shrinkA=4, shrinkB=6),
+                  bbox=dict(boxstyle="round,pad=0.3", facecolor=INK, edgecolor="none", alpha=0.85))
+    near.set_title(f"max principal around {result.peak.feature}", fontsize=10, loc="left")
+    _frame(near, *window)
+    fig.colorbar(image, ax=near, shrink=0.9, pad=0.02).set_label("max principal (MPa)")
+    image = other.tripcolor(close, vm, shading="gouraud", cmap=STRESS_MAP, rasterized=True,
+                            vmin=0.0, vmax=float(np.max(vm[np.unique(close.triangles)])))
+    _outline_patches(result, other, fill="none", edge=INK, lw=0.8)
+    other.set_title("von Mises, same close-up", fontsize=10, loc="left")
+    _frame(other, *window)
+    fig.colorbar(image, ax=other, shrink=0.9, pad=0.02).set_label("von Mises (MPa)")
+    return fig
+
+
+# --- the signature picture: stress across a critical section -----------------------------------------
+
+def section_figure(result: CheckResult, view: SectionView) -> Figure:
+    """Normal stress across one critical section from the FE solution, the net-section average drawn
+    flat over each ligament, the gross average for reference, and the converged peak annotated."""
+    ns = view.section
+    cut = ns.cut
+    fig = _figure(height=4.6)
+    ax = fig.add_subplot()
+    lo = min(a for a, _ in ns.ligaments)
+    hi = max(b for _, b in ns.ligaments)
+    # gaps between ligaments carry no material
+    for (a0, b0), (a1, _) in zip(ns.ligaments[:-1], ns.ligaments[1:]):
+        ax.axvspan(b0, a1, color="#dddddd", zorder=0)
+        ax.text(0.5 * (b0 + a1), 0.03, "no material", transform=ax.get_xaxis_transform(), ha="center",
+                va="bottom", fontsize=8, color=GROSS_LINE)
+    y, s = np.asarray(cut.positions), np.asarray(cut.normal_stress)
+    for k, (a, b) in enumerate(ns.ligaments):
+        inside = (y >= a - 1e-9) & (y <= b + 1e-9)
+        ax.fill_between(y[inside], ns.average, s[inside], color=FE_LINE, alpha=0.12, lw=0, zorder=1)
+        ax.plot(y[inside], s[inside], color=FE_LINE, lw=2.0, zorder=3,
+                label="FE normal stress on the section (finest mesh)" if k == 0 else None)
+        ax.plot([a, b], [ns.average, ns.average], color=AVERAGE_LINE, lw=2.0, zorder=4,
+                label=f"net-section average, force / net area: {ns.average:.1f} MPa" if k == 0 else None)
+    gross = result.gross_average
+    ax.axhline(gross, color=GROSS_LINE, lw=1.0, ls=":", zorder=2, label=f"gross-section average {gross:.1f} MPa")
+    # Kt may refer to another nominal than force / net area (bending, combined loads): draw it too
+    nominal = view.peak / view.kt_net if view.kt_net else ns.average
+    own_nominal = abs(nominal - ns.average) > 0.01 * max(abs(ns.average), 1e-9 * abs(view.peak), 1e-12)
+    if own_nominal:
+        name = nominal_label(result, view)
+        ax.axhline(nominal, color=HANDBOOK_MARK, lw=1.2, ls="--", zorder=2,
+                   label=f"nominal stress of Kt ({name}) {nominal:.1f} MPa")
+    # the converged peak: at its own position when it lies on this cut, else at the cut's maximum
+    along, off = view.position(view.location)
+    on_cut = abs(off) <= 1e-6 * max(1.0, abs(hi - lo))
+    yp = along if on_cut else float(y[int(np.argmax(s))])
+    ax.plot(yp, view.peak, marker="o", ms=7, color=INK, zorder=5)
+    ax.vlines(yp, ns.average, view.peak, colors=INK, lw=0.8, ls="--", zorder=5)
+    # the label sits in a band above all the curves, pointing down at the peak; it never covers data
+    top = max(view.peak, float(np.max(s)))
+    bottom = min(0.0, float(np.min(s)))
+    span = max(top - bottom, 1e-9)
+    left, right = lo - 0.02 * (hi - lo), hi + 0.02 * (hi - lo)
+    where = (yp - left) / (right - left)
+    ha = "left" if where < 0.3 else "right" if where > 0.7 else "center"
+    offside = "" if on_cut else (f"\nthe peak lies {abs(off):.2f} mm off this cut, at ({view.location[0]:.2f}, "
+                                 f"{view.location[1]:.2f}) mm; marked at the cut's highest point")
+    basis = "the nominal stress of Kt" if own_nominal else "net-section average"
+    ax.annotate(f"peak {view.peak:.1f} MPa ({view.feature}, converged) = {view.kt_net:.2f} × {basis};\n"
+                f"the {basis.removeprefix('the ')} understates the peak by {1 - nominal / view.peak if view.peak else 0.0:.0%}{offside}",
+                xy=(yp, view.peak), xytext=(yp, top + 0.13 * span), ha=ha, va="bottom", fontsize=9, color=INK,
+                arrowprops=dict(arrowstyle="-|>", color=INK, lw=0.8, shrinkA=2, shrinkB=5),
+                bbox=dict(boxstyle="round,pad=0.3", facecolor="white", edgecolor=INK, lw=0.6), zorder=6)
+    ax.set_xlim(left, right)
+    ax.set_ylim(bottom - 0.05 * span, top + (0.36 if on_cut else 0.46) * span)
+    # the three levels a reviewer compares, named on the right-hand axis
+    marks = [(view.peak, f"peak {view.peak:.0f}", INK), (ns.average, f"average {ns.average:.0f}", AVERAGE_LINE)]
+    if own_nominal and abs(nominal - ns.average) > 0.06 * span:
+        marks.append((nominal, f"nominal {nominal:.0f}", HANDBOOK_MARK))
+    if all(abs(gross - m[0]) > 0.06 * span for m in marks):
+        marks.append((gross, f"gross {gross:.0f}", GROSS_LINE))
+    side = ax.secondary_yaxis("right")
+    side.set_yticks([m[0] for m in marks], [m[1] for m in marks], fontsize=8)
+    for tick, (_, _, colour) in zip(side.get_yticklabels(), marks):
+        tick.set_color(colour)
+    side.set_ylabel("MPa", fontsize=8)
+    ax.set_xlabel("position across the section, y (mm)" if view.across_x else "position along the cut (mm)")
+    ax.set_ylabel("normal stress on the section (MPa)")
+    ax.set_title(f"{view.label}, {view.where}: net width {ns.width:.2f} mm, net area {ns.area:.1f} mm²",
+                 fontsize=10, loc="left")
+    ax.grid(True, color="#e4e4e4", lw=0.6)
+    ax.set_axisbelow(True)
+    fig.legend(loc="outside lower center", ncols=2 if own_nominal else 3, fontsize=8, frameon=False)
+    return fig
+
+
+def nominal_label(result: CheckResult, view: SectionView) -> str:
+    """Words for the nominal stress a section's Kt refers to: the check's own label for its headline net
+    nominal when that is the one, else "peak / Kt"."""
+    net = getattr(getattr(result, "nominal", None), "net", None)
+    stress = getattr(net, "stress", None)
+    if isinstance(stress, (int, float)) and view.kt_net and math.isclose(abs(stress), abs(view.peak / view.kt_net),
+                                                                          rel_tol=1e-6):
+        return str(getattr(net, "label", "net nominal"))
+    return "peak / Kt"
+
+
+def cut_figure(result: CheckResult, section: Any) -> Figure:
+    """A cut the part file asked for (method of sections): normal and shear traction along the cut, the
+    average normal stress N / A drawn flat over the material, and the largest normal traction marked."""
+    view = SectionView(str(getattr(section, "label", "cut")), section, 0.0, (0.0, 0.0), "", 0.0)
+    cut = section.cut
+    y, sn, st = np.asarray(cut.positions), np.asarray(cut.normal_stress), np.asarray(cut.shear_stress)
+    fig = _figure(height=4.2)
+    ax = fig.add_subplot()
+    spans = list(section.ligaments)
+    for (a0, b0), (a1, _) in zip(spans[:-1], spans[1:]):
+        ax.axvspan(b0, a1, color="#dddddd", zorder=0)
+    for k, (a, b) in enumerate(spans):
+        inside = (y >= a - 1e-9) & (y <= b + 1e-9)
+        ax.plot(y[inside], sn[inside], color=FE_LINE, lw=2.0, label="FE normal traction" if k == 0 else None)
+        ax.plot(y[inside], st[inside], color=HANDBOOK_MARK, lw=1.2, ls="--", label="FE shear traction" if k == 0 else None)
+        ax.plot([a, b], [section.average_normal] * 2, color=AVERAGE_LINE, lw=2.0,
+                label=f"average normal N / A = {section.average_normal:.1f} MPa" if k == 0 else None)
+    ax.axhline(0.0, color=GROSS_LINE, lw=0.6)
+    peak, where = float(section.peak_normal), float(section.peak_position)
+    ax.plot(where, peak, "o", ms=7, color=INK, zorder=5)
+    first, last = float(y.min()), float(y.max())
+    share = (where - first) / max(last - first, 1e-9)
+    ax.annotate(f"largest normal traction {peak:.1f} MPa", xy=(where, peak), xytext=(0, 12 if peak >= 0 else -12),
+                textcoords="offset points", ha="left" if share < 0.3 else "right" if share > 0.7 else "center",
+                va="bottom" if peak >= 0 else "top", fontsize=9,
+                bbox=dict(boxstyle="round,pad=0.25", facecolor="white", edgecolor="none", alpha=0.9))
+    values = np.concatenate([sn, st, [section.average_normal, 0.0]])
+    low, high = float(values.min()), float(values.max())
+    pad = 0.18 * max(high - low, 1e-9)
+    ax.set_ylim(low - pad, high + pad)
+    ax.set_xlabel("position across the section, y (mm)" if view.across_x else "position along the cut (mm)")
+    ax.set_ylabel("traction on the cut (MPa)")
+    ax.set_title(f"{view.label}, {view.where}", fontsize=10, loc="left")
+    ax.grid(True, color="#e4e4e4", lw=0.6)
+    ax.set_axisbelow(True)
+    fig.legend(loc="outside lower center", ncols=3, fontsize=8, frameon=False)
+    return fig
+
+
+# --- convergence ------------------------------------------------------------------------------------
+
+def level_sizes(result: CheckResult) -> tuple[np.ndarray, str]:
+    """Element size at the peak's raiser edge for every level (mm), scaled from the finest mesh; or the
+    relative size (finest = 1) when the finest mesh does not name that raiser."""
+    scales = np.array([lv.scale for lv in result.study.levels])
+    for feature in result.solution.mesh.features:
+        if feature.name == result.peak.feature:
+            return feature.edge_size * scales / scales[-1], f"element size at the {feature.name} edge (mm)"
+    return scales / scales[-1], "relative element size (finest level = 1)"
+
+
+def convergence_figure(result: CheckResult) -> Figure:
+    """Peak stress of each mesh level against element size, the extrapolated peak at zero size and its
+    band, and the fitted error curve when Richardson extrapolation applied."""
+    study = result.study
+    h, xlabel = level_sizes(result)
+    peaks = np.array([lv.peak for lv in study.levels])
+    est = study.estimate
+    fig = _figure(height=4.4)
+    ax = fig.add_subplot()
+    band = est.error * abs(est.value) if math.isfinite(est.error) else 0.0
+    if band > 0:
+        ax.axhspan(est.value - band, est.value + band, color=FE_LINE, alpha=0.12, lw=0,
+                   label=f"error band ± {est.error:.2%}")
+    if est.method == "richardson" and est.order:
+        reach = h[-3] if len(h) >= 3 else h[-1]
+        hh = np.linspace(0.0, reach, 80)
+        curve = est.value + (peaks[-1] - est.value) * (hh / h[-1]) ** est.order
+        ax.plot(hh, curve, color=FE_LINE, lw=1.0, ls="--", label=f"fitted error curve, observed order {est.order:.2f}")
+    ax.plot(h, peaks, "o-", color=INK, ms=6, lw=1.2, label="FE peak of each mesh level")
+    for lv, x, p in zip(study.levels, h, peaks):
+        ax.annotate(f"{2 * lv.nodes:,} DOFs", xy=(x, p), xytext=(6, 5), textcoords="offset points", fontsize=8,
+                    color=GROSS_LINE)
+    how = {"richardson": "extrapolated (Richardson)"}.get(est.method, f"finest level ({est.method})")
+    ax.errorbar([0.0], [est.value], yerr=[[band], [band]], fmt="D", color=FE_LINE, ms=7, capsize=4, lw=1.2,
+                label=f"{how}: {est.value:.1f} MPa")
+    ax.set_xlim(-0.04 * h.max(), 1.15 * h.max())
+    ax.set_xlabel(xlabel)
+    ax.set_ylabel("peak max principal stress (MPa)")
+    state = "converged" if study.converged else "NOT converged"
+    ax.set_title(f"{len(study.levels)} levels, {state}; target error {result.spec.mesh.tolerance:.2%}",
+                 fontsize=10, loc="left")
+    ax.grid(True, color="#e4e4e4", lw=0.6)
+    ax.set_axisbelow(True)
+    fig.legend(loc="outside lower center", ncols=2, fontsize=8, frameon=False)
+    return fig
+
+
+# --- handbook ---------------------------------------------------------------------------------------
+
+def handbook_figure(result: CheckResult) -> Figure | None:
+    """Kt of this part beside each matching handbook case (all on the net-section nominal), and the
+    preferred case's curve over its validity range with this part on it. None without a match."""
+    matches = list(result.handbook)
+    if not matches:
+        return None
+    kt = result.kt
+    band = kt.error * kt.net if math.isfinite(kt.error) else 0.0
+    preferred = matches[0]
+    case = preferred.case
+    curve_key = next(iter(case.ranges)) if len(case.ranges) == 1 else None
+    curve_key = curve_key if curve_key in preferred.recognised.params else None
+    fig = _figure(height=3.9)
+    axes = fig.subplots(1, 2, width_ratios=[1.1, 1.0]) if curve_key else [fig.add_subplot()]
+    dots = axes[-1]
+    labels = ["this part (FE, converged)"] + [short_source(m.case.source) for m in matches]
+    rows = np.arange(len(labels))[::-1]
+    dots.axvspan(kt.net - band, kt.net + band, color=FE_LINE, alpha=0.15, lw=0)
+    dots.errorbar([kt.net], [rows[0]], xerr=[[band], [band]], fmt="D", color=FE_LINE, ms=7, capsize=4)
+    for row, m in zip(rows[1:], matches):
+        dots.plot([m.kt_net], [row], "o", ms=8, color=HANDBOOK_MARK, mfc=HANDBOOK_MARK if m.in_range else "white",
+                  mew=1.5)
+        dots.annotate(f"{m.kt_net:.3f} (FE {kt.net / m.kt_net - 1:+.1%})" + ("" if m.in_range else ", outside range"),
+                      xy=(m.kt_net, row), xytext=(0, 9), textcoords="offset points", ha="center", fontsize=8)
+    dots.annotate(f"{kt.net:.3f} ± {kt.error:.2%}", xy=(kt.net, rows[0]), xytext=(0, 9),
+                  textcoords="offset points", ha="center", fontsize=8, color=FE_LINE)
+    values = [kt.net - band, kt.net + band] + [m.kt_net for m in matches]
+    spread = max(max(values) - min(values), 0.02 * kt.net)
+    dots.set_xlim(min(values) - 0.6 * spread, max(values) + 0.6 * spread)
+    dots.set_ylim(-0.7, len(labels) - 0.4)
+    dots.set_yticks(rows, labels, fontsize=8)
+    dots.set_xlabel("Kt on the net section (–)")
+    dots.set_title("filled: inside the case's validity range", fontsize=9, loc="left")
+    dots.grid(True, axis="x", color="#e4e4e4", lw=0.6)
+    if curve_key:
+        ax = axes[0]
+        lo, hi = case.ranges[curve_key]
+        xs = np.linspace(lo, hi, 121)
+        params = dict(preferred.recognised.params)
+        ys = [case.kt({**params, curve_key: float(x)}) for x in xs]
+        ax.plot(xs, ys, color=HANDBOOK_MARK, lw=1.6, label=short_source(case.source))
+        x = params[curve_key]
+        fe = kt.net if case.nominal == "net" else kt.gross
+        ax.errorbar([x], [fe], yerr=[[fe * kt.error if math.isfinite(kt.error) else 0.0]] * 2, fmt="D",
+                    color=FE_LINE, ms=7, capsize=4, label=f"this part: {curve_key} = {x:.3g}, Kt = {fe:.3f}")
+        ax.set_xlabel(curve_key + " (–)")
+        ax.set_ylabel(f"Kt, {case.nominal} nominal {case.nominal_text} (–)")
+        ax.set_title("preferred case over its range", fontsize=9, loc="left")
+        ax.grid(True, color="#e4e4e4", lw=0.6)
+        ax.legend(fontsize=8, loc="best")
+    return fig
+
+
+# --- design and fatigue (present when the part file asks for them) ------------------------------------
+
+def design_figure(design: Any) -> Figure | None:
+    """Net-section average and peak against the allowable stress, with margins. None when the design
+    record lacks those numbers."""
+    names = ("net_average_mpa", "peak_mpa", "allowable_mpa")
+    if design is None or not all(isinstance(getattr(design, n, None), (int, float)) for n in names):
+        return None
+    fig = _figure(height=2.9)
+    ax = fig.add_subplot()
+    bars = [("net-section average", design.net_average_mpa, getattr(design, "net_margin", None),
+             getattr(design, "net_passes", None)),
+            ("peak", design.peak_mpa, getattr(design, "peak_margin", None), getattr(design, "peak_passes", None))]
+    rows = np.arange(len(bars))[::-1]
+    governing = getattr(design, "governing_check", "")
+    for row, (label, value, margin, passes) in zip(rows, bars):
+        colour = PASS_FILL if passes else FAIL_FILL if passes is not None else GROSS_LINE
+        ax.barh(row, value, color=colour, height=0.55)
+        text = f"{value:.1f} MPa"
+        if margin is not None and math.isfinite(margin):
+            text += f", margin {margin:+.2f}"
+        if passes is not None:
+            text += ", passes" if passes else ", FAILS"
+        ax.annotate(text, xy=(value, row), xytext=(6, 0), textcoords="offset points", va="center", ha="left",
+                    fontsize=9, color=INK, zorder=4,
+                    bbox=dict(boxstyle="round,pad=0.2", facecolor="white", edgecolor="none", alpha=0.9))
+    ax.axvline(design.allowable_mpa, color=INK, lw=1.5, ls="--")
+    ax.text(design.allowable_mpa, len(bars) - 0.45, f"allowable {design.allowable_mpa:.1f} MPa ",
+            ha="right", va="center", fontsize=9)
+    yield_mpa = getattr(design, "yield_mpa", None)
+    if isinstance(yield_mpa, (int, float)):
+        ax.axvline(yield_mpa, color=GROSS_LINE, lw=1.0, ls=":")
+        ax.text(yield_mpa, -0.62, f" yield {yield_mpa:.0f} MPa", ha="left", va="center", fontsize=8,
+                color=GROSS_LINE)
+    labels = [f"{b[0]}{' (governs)' if governing and b[0].startswith(governing.split('-')[0]) else ''}" for b in bars]
+    ax.set_yticks(rows, labels)
+    top = max(design.peak_mpa, design.net_average_mpa, design.allowable_mpa, yield_mpa or 0.0)
+    ax.set_xlim(0, 1.6 * top)
+    ax.set_ylim(-0.9, len(bars) - 0.2)
+    ax.set_xlabel("stress (MPa)")
+    ax.grid(True, axis="x", color="#e4e4e4", lw=0.6)
+    ax.set_axisbelow(True)
+    return fig
+
+
+def fatigue_figure(fatigue: Any) -> Figure | None:
+    """Modified Goodman diagram: the fatigue strength line from Se to Su, the same line divided by the
+    required factor, and the notched (Kf-scaled) working point. None when numbers are missing."""
+    names = ("se_mpa", "ultimate_mpa", "sa_mpa", "sm_mpa")
+    if fatigue is None or not all(isinstance(getattr(fatigue, n, None), (int, float)) for n in names):
+        return None
+    se, su, sa, sm = fatigue.se_mpa, fatigue.ultimate_mpa, fatigue.sa_mpa, fatigue.sm_mpa
+    need = float(getattr(fatigue, "required_factor", 1.0) or 1.0)
+    fig = _figure(height=4.0, width=6.4)
+    ax = fig.add_subplot()
+    ax.plot([0, su], [se, 0], color=INK, lw=1.6, label=f"modified Goodman line (Se {se:.0f}, Su {su:.0f} MPa)")
+    if need != 1.0:
+        ax.plot([0, su / need], [se / need, 0], color=INK, lw=1.0, ls="--", label=f"line / required factor {need:g}")
+    passes = getattr(fatigue, "passes", None)
+    colour = PASS_FILL if passes else FAIL_FILL if passes is not None else FE_LINE
+    ax.plot([sm], [sa], "o", ms=9, color=colour, label="notched working point (Kf × nominal)")
+    n_f = getattr(fatigue, "n_f", None)
+    text = f"σa {sa:.1f}, σm {sm:.1f} MPa"
+    if isinstance(n_f, (int, float)) and math.isfinite(n_f):
+        text += f"\nfactor of safety {n_f:.2f}"
+    if passes is not None:
+        text += ", passes" if passes else ", FAILS"
+    ax.annotate(text, xy=(sm, sa), xytext=(10, 10), textcoords="offset points", fontsize=9, zorder=4,
+                bbox=dict(boxstyle="round,pad=0.25", facecolor="white", edgecolor="none", alpha=0.9))
+    ax.set_xlim(min(0.0, sm) - 0.02 * su, 1.05 * max(su, sm))
+    ax.set_ylim(0, 1.25 * max(se, sa))
+    ax.set_xlabel("mean stress σm (MPa)")
+    ax.set_ylabel("alternating stress σa (MPa)")
+    ax.grid(True, color="#e4e4e4", lw=0.6)
+    ax.set_axisbelow(True)
+    ax.legend(fontsize=8, loc="upper right")
+    return fig

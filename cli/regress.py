@@ -1,0 +1,94 @@
+"""`stressraiser regress SUITE` / `stressraiser regress --builtin`: check every case of a suite of reference
+Kt values and fail loudly (exit 1, the failing rows named) when a number has drifted.
+
+The suite file format is described in compare/suite.py. Identical parts in a suite are checked once.
+"""
+
+from __future__ import annotations
+
+import argparse
+import math
+from typing import Any
+
+from ..geometry.errors import PartError
+from .batch import add_execution_options, execution_from_args
+
+NAME = "regress"
+SCHEMA = "stressraiser.regress/1"
+EXIT_FAILED = 1
+
+
+def add_parser(commands) -> None:
+    parser = commands.add_parser(NAME, help="run a suite of reference Kt values; exit 1 if any case fails",
+                                 description="Check every case of a suite (a TOML table of parts with reference "
+                                             "Kt values) or of the built-in handbook suite; exit 1 if any fails.")
+    parser.add_argument("suite", nargs="?", help="suite file (TOML); see the README")
+    parser.add_argument("--builtin", action="store_true",
+                        help="run the built-in suite: every handbook case with a part builder, at points "
+                             "inside its range")
+    parser.add_argument("--json", metavar="FILE", help="also write the verdicts as a JSON record")
+    add_execution_options(parser)
+
+
+def run(args: argparse.Namespace) -> int:
+    from rich.console import Console
+
+    from ..compare.suite import builtin_suite, judge, load_suite, part_digest
+    from .batch import run_batch
+
+    if bool(args.suite) == bool(args.builtin):
+        raise PartError("command line: give a suite file or --builtin (one of them)")
+    execution = execution_from_args(args)
+    suite = builtin_suite() if args.builtin else load_suite(args.suite)
+    out = Console(highlight=False, soft_wrap=True)
+    runnable = {part_digest(c.part): c.part for c in suite.cases if not c.problem}
+    rows = run_batch(list(runnable.items()), execution, lambda key, row: None,
+                     f"regress: {len(runnable)} parts")
+    case_rows = [{} if c.problem else rows[part_digest(c.part)] for c in suite.cases]
+    verdicts = [judge(c, row) for c, row in zip(suite.cases, case_rows)]
+    print_verdicts(out, suite.title, verdicts)
+    if args.json:
+        from .files import write_json
+
+        write_json(args.json, regress_record(suite.title, verdicts, [r.get("seconds") for r in case_rows]))
+    return 0 if all(v.passed for v in verdicts) else EXIT_FAILED
+
+
+def print_verdicts(console, title: str, verdicts: list) -> None:
+    """The pass/fail table, then one line per failing row naming it and its reference's source."""
+    from rich.table import Table
+
+    table = Table(title=title, title_justify="left", box=None, pad_edge=False)
+    for name, justify in (("#", "right"), ("case", "left"), ("reference", "right"), ("on", "left"),
+                          ("FE Kt", "right"), ("difference", "right"), ("tolerance", "right"), ("result", "left")):
+        table.add_column(name, justify=justify, overflow="fold")
+    for n, v in enumerate(verdicts, start=1):
+        c = v.case
+        table.add_row(str(n), c.name, f"{c.reference:.3f}" if math.isfinite(c.reference) else "—", c.definition,
+                      f"{v.kt:.3f}" if v.kt is not None else "—",
+                      f"{v.difference:+.2%}" if v.difference is not None else "—", f"±{c.tolerance:.1%}",
+                      "[green]pass[/green]" if v.passed else "[bold red]FAIL[/bold red]")
+    console.print(table)
+    failed = [(n, v) for n, v in enumerate(verdicts, start=1) if not v.passed]
+    for n, v in failed:
+        console.print(f"FAILED row {n} {v.case.name!r}: {v.reason} (reference from {v.case.source})", markup=False)
+    console.print(f"{len(verdicts)} cases: {len(verdicts) - len(failed)} passed, {len(failed)} failed", markup=False)
+
+
+def regress_record(title: str, verdicts: list, seconds: list[float | None]) -> dict[str, Any]:
+    """The verdicts as JSON-ready data (seconds: the time of each case's check, None if it did not run)."""
+    from .. import __version__
+
+    return {
+        "schema": SCHEMA,
+        "version": __version__,
+        "suite": title,
+        "passed": all(v.passed for v in verdicts),
+        "cases": [
+            {"row": n, "name": v.case.name, "reference": v.case.reference if math.isfinite(v.case.reference) else None,
+             "definition": v.case.definition, "tolerance": v.case.tolerance, "source": v.case.source,
+             "kt": v.kt, "difference": v.difference, "converged": v.converged, "passed": v.passed,
+             "reason": v.reason, "seconds": t}
+            for n, (v, t) in enumerate(zip(verdicts, seconds), start=1)
+        ],
+    }

@@ -1,0 +1,526 @@
+"""The review report of a check: one self-contained HTML file plus its figures, fields and record.
+
+`write_report(result, directory)` writes, each file whole or not at all (cli/files.py):
+
+    report.html          the report; figures embedded as base64 PNG, no network access needed
+    figures/NAME.png     every figure as a PNG (150 dpi) ...
+    figures/NAME.svg     ... and as an SVG (the dense mesh and colour-map layers are rasterised inside)
+    part.vtu             finest-mesh displacement and stress fields (cli/fields.py)
+    check.json           the JSON record (cli/record.py, schema cli/check.schema.json)
+
+All text placed in the HTML is escaped. Units: mm, N, MPa.
+"""
+
+from __future__ import annotations
+
+import base64
+import dataclasses
+import html
+import io
+import math
+import time
+from collections.abc import Iterable
+from dataclasses import dataclass
+from datetime import datetime, timezone
+from pathlib import Path
+from typing import Any
+
+from .. import __version__
+from ..compare.check import CheckResult
+from . import plots
+from .fields import CELL_FIELDS, POINT_FIELDS, vtu_bytes
+from .files import write_atomic, write_json
+from .record import SCHEMA, check_record
+from .summary import verdict
+
+PNG_DPI = 150
+REPORT_NAME = "report.html"
+FIELDS_NAME = "part.vtu"
+RECORD_NAME = "check.json"
+FIGURES_DIR = "figures"
+
+
+@dataclass(frozen=True)
+class Rendered:
+    """A rendered figure: file stem, the report section it belongs to, caption, PNG and SVG bytes."""
+
+    name: str
+    section: str
+    caption: str
+    png: bytes
+    svg: bytes
+    width: int  # display width in CSS pixels (96 per inch of figure)
+
+
+@dataclass(frozen=True)
+class ReportFiles:
+    """What write_report wrote: every path, and the wall time of each stage (s)."""
+
+    directory: Path
+    paths: tuple[Path, ...]
+    seconds: dict[str, float]
+
+    @property
+    def report(self) -> Path:
+        return self.directory / REPORT_NAME
+
+
+def write_report(result: CheckResult, directory: str | Path, part_file: str | Path | None = None) -> ReportFiles:
+    """Render the figures and write the report folder; `part_file` (optional) is quoted in the report."""
+    directory = Path(directory)
+    seconds: dict[str, float] = {}
+    clock = time.perf_counter()
+    figures = render_figures(result)
+    seconds["figures"], clock = time.perf_counter() - clock, time.perf_counter()
+    fields = vtu_bytes(result.spec, result.solution)
+    seconds["fields"], clock = time.perf_counter() - clock, time.perf_counter()
+    part_text = _read_text(part_file)
+    page = report_html(result, figures, part_text=part_text, part_name=None if part_file is None else Path(part_file).name)
+    paths = []
+    for fig in figures:
+        for suffix, data in (("png", fig.png), ("svg", fig.svg)):
+            path = directory / FIGURES_DIR / f"{fig.name}.{suffix}"
+            write_atomic(path, data)
+            paths.append(path)
+    write_atomic(directory / FIELDS_NAME, fields)
+    write_json(directory / RECORD_NAME, check_record(result))
+    write_atomic(directory / REPORT_NAME, page.encode("utf-8"))
+    paths += [directory / FIELDS_NAME, directory / RECORD_NAME, directory / REPORT_NAME]
+    seconds["write"] = time.perf_counter() - clock
+    return ReportFiles(directory, tuple(paths), seconds)
+
+
+# --- figures ----------------------------------------------------------------------------------------
+
+def render_figures(result: CheckResult) -> list[Rendered]:
+    """Every figure of the report, in reading order, rendered to PNG and SVG."""
+    wanted: list[tuple[str, str, str, Any]] = [
+        ("outline", "part", "Outline of the part with its main dimensions, the held end, the load and the "
+         "critical section (dashed).", plots.outline_figure),
+        ("mesh", "mesh", "The finest mesh of the study, and a close-up where the peak is: the elements shrink "
+         "towards the raiser edge.", plots.mesh_figure),
+        ("stress_map", "stress", "Maximum principal stress on the finest mesh; the circle marks the peak.",
+         plots.stress_map_figure),
+    ]
+    for n, view in enumerate(plots.critical_sections(result), start=1):
+        wanted.append((f"section_{n}", "section", f"Normal stress across {view.label} ({view.where}): "
+                       "the FE distribution against the flat net-section average a hand calculation uses.",
+                       lambda r, v=view: plots.section_figure(r, v)))
+    for n, section in enumerate(getattr(result, "sections", ()) or (), start=1):
+        wanted.append((f"cut_{n}", "cuts", f"Tractions along the requested cut {getattr(section, 'label', n)}.",
+                       lambda r, c=section: plots.cut_figure(r, c)))
+    wanted.append(("convergence", "convergence", "Peak stress of each mesh level against element size, and "
+                   "the converged value with its error band at zero element size.", plots.convergence_figure))
+    wanted.append(("handbook", "handbook", "This part's Kt beside the published cases that match its geometry.",
+                   plots.handbook_figure))
+    design, fatigue = signoff_records(result)
+    wanted.append(("design", "design", "Net-section average and peak against the allowable stress.",
+                   lambda r: plots.design_figure(design)))
+    wanted.append(("fatigue", "fatigue", "Fatigue screen on a modified Goodman diagram (notched stresses).",
+                   lambda r: plots.fatigue_figure(fatigue)))
+    out = []
+    for name, section, caption, build in wanted:
+        fig = build(result)
+        if fig is not None:
+            out.append(Rendered(name, section, caption, *figure_bytes(fig), width=round(96 * fig.get_figwidth())))
+    return out
+
+
+def figure_bytes(fig) -> tuple[bytes, bytes]:
+    """PNG and SVG bytes of a matplotlib Figure (no dates in the metadata, fixed SVG ids: files repeat run to run)."""
+    import matplotlib
+
+    png, svg = io.BytesIO(), io.BytesIO()
+    fig.savefig(png, format="png", dpi=PNG_DPI, facecolor="white", metadata={"Software": None})
+    fig.set_layout_engine("none")  # keep the layout just computed: laying out again costs as much as drawing
+    with matplotlib.rc_context({"svg.hashsalt": "stressraiser"}):  # element ids repeat run to run
+        fig.savefig(svg, format="svg", dpi=PNG_DPI, facecolor="white", metadata={"Date": None})
+    return png.getvalue(), svg.getvalue()
+
+
+# --- HTML -------------------------------------------------------------------------------------------
+
+def esc(value: Any) -> str:
+    """Text escaped for HTML content and attributes."""
+    return html.escape(str(value), quote=True)
+
+
+def report_html(result: CheckResult, figures: list[Rendered], part_text: str | None = None,
+                part_name: str | None = None) -> str:
+    """The whole report page."""
+    spec = result.spec
+    by_section: dict[str, list[Rendered]] = {}
+    for fig in figures:
+        by_section.setdefault(fig.section, []).append(fig)
+    body = [
+        f"<h1>{esc(spec.title)}</h1>",
+        f'<p class="meta">stressraiser {esc(__version__)} · record schema {esc(SCHEMA)} · '
+        f"{esc(datetime.now(timezone.utc).strftime('%Y-%m-%d %H:%M UTC'))}"
+        + (f" · part file {esc(part_name)}" if part_name else "") + "</p>",
+        _verdict_section(result),
+        _part_section(result, by_section.get("part", []), part_text),
+        _mesh_section(result, by_section.get("mesh", [])),
+        _stress_section(result, by_section.get("stress", [])),
+        _sections_section(result, by_section.get("section", [])),
+        _cuts_section(result, by_section.get("cuts", [])),
+        _convergence_section(result, by_section.get("convergence", [])),
+        _handbook_section(result, by_section.get("handbook", [])),
+        _design_section(result, by_section.get("design", [])),
+        _fatigue_section(result, by_section.get("fatigue", [])),
+        _cautions_section(result),
+        _files_section(figures),
+    ]
+    return (
+        "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
+        "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"
+        f"<title>{esc(spec.title)} — stressraiser check</title>\n<style>{STYLE}</style>\n</head>\n<body>\n"
+        + "\n".join(part for part in body if part) + "\n</body>\n</html>\n"
+    )
+
+
+STYLE = """
+body { font-family: system-ui, -apple-system, "Segoe UI", Roboto, "DejaVu Sans", sans-serif; color: #222;
+       max-width: 1000px; margin: 2em auto; padding: 0 1.2em; line-height: 1.45; }
+h1 { font-size: 1.6em; margin-bottom: 0.1em; }
+h2 { font-size: 1.25em; border-bottom: 2px solid #2a5f8f; padding-bottom: 0.15em; margin-top: 2em; }
+h3 { font-size: 1.05em; margin-bottom: 0.3em; }
+.meta { color: #666; font-size: 0.9em; margin-top: 0; }
+.verdict { border-left: 6px solid #2a5f8f; background: #f1f5f9; padding: 0.6em 1em; font-size: 1.05em; }
+.verdict.fails { border-left-color: #b8392b; background: #fbeeec; }
+.verdict.passes { border-left-color: #3f8f5a; background: #eef7f1; }
+.warn { border-left: 6px solid #c8641e; background: #fdf3ea; padding: 0.4em 1em; }
+table { border-collapse: collapse; margin: 0.6em 0 1em; font-size: 0.92em; }
+th, td { border-bottom: 1px solid #dde2e8; padding: 0.25em 0.7em 0.25em 0; text-align: left; vertical-align: top; }
+td.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
+figure { margin: 1em 0 1.6em; }
+figure img { max-width: 100%; height: auto; border: 1px solid #e4e4e4; }
+figcaption { color: #444; font-size: 0.9em; }
+figcaption a { color: #2a5f8f; }
+pre { background: #f6f6f6; padding: 0.7em; overflow-x: auto; font-size: 0.85em; }
+.small { font-size: 0.85em; color: #555; }
+ul.cautions li { margin-bottom: 0.3em; }
+"""
+
+
+def _figures(figures: Iterable[Rendered]) -> str:
+    out = []
+    for fig in figures:
+        data = base64.b64encode(fig.png).decode("ascii")
+        out.append(
+            f'<figure id="fig-{esc(fig.name)}"><img src="data:image/png;base64,{data}" width="{fig.width}" '
+            f'alt="{esc(fig.caption)}">'
+            f"<figcaption>{esc(fig.caption)} Files: <a href=\"{FIGURES_DIR}/{esc(fig.name)}.png\">PNG</a>, "
+            f"<a href=\"{FIGURES_DIR}/{esc(fig.name)}.svg\">SVG</a>.</figcaption></figure>"
+        )
+    return "\n".join(out)
+
+
+def _table(rows: Iterable[Iterable[Any]], header: Iterable[str] | None = None, numeric: Iterable[int] = ()) -> str:
+    """An HTML table of escaped cells; columns listed in `numeric` are right-aligned."""
+    numeric = set(numeric)
+    head = "" if header is None else "<tr>" + "".join(f"<th>{esc(h)}</th>" for h in header) + "</tr>"
+    lines = []
+    for row in rows:
+        cells = "".join(f'<td class="num">{esc(c)}</td>' if i in numeric else f"<td>{esc(c)}</td>"
+                        for i, c in enumerate(row))
+        lines.append(f"<tr>{cells}</tr>")
+    return f"<table>{head}{''.join(lines)}</table>"
+
+
+def _section(key: str, heading: str, *parts: str) -> str:
+    return f'<section id="{esc(key)}">\n<h2>{esc(heading)}</h2>\n' + "\n".join(p for p in parts if p) + "\n</section>"
+
+
+def _p(text: str, cls: str | None = None) -> str:
+    return f'<p class="{cls}">{esc(text)}</p>' if cls else f"<p>{esc(text)}</p>"
+
+
+def _num(value: Any, digits: int = 4, unit: str = "") -> str:
+    """Format a number to `digits` significant figures (text passes through; None is a dash)."""
+    if value is None:
+        return "—"
+    if isinstance(value, bool):
+        return "yes" if value else "no"
+    if isinstance(value, (int, float)):
+        if isinstance(value, float) and not math.isfinite(value):
+            return "∞" if value > 0 else "—"
+        text = _significant(value, digits) if isinstance(value, float) else str(value)
+        return f"{text} {unit}".strip()
+    return str(value)
+
+
+def _significant(value: float, digits: int) -> str:
+    """`digits` significant figures, plain decimals from 1e-3 to 1e7 ("210000", "0.3", "12.5")."""
+    if value == 0.0:
+        return "0"
+    exponent = math.floor(math.log10(abs(value)))
+    if not -3 <= exponent < 7:
+        return f"{value:.{digits - 1}e}"
+    text = f"{value:.{max(0, digits - 1 - exponent)}f}"
+    return text.rstrip("0").rstrip(".") if "." in text else text
+
+
+# --- report sections: one function each ---------------------------------------------------------------
+
+def _verdict_section(result: CheckResult) -> str:
+    ns, peak, kt = result.net_section, result.peak, result.kt
+    design, fatigue = signoff_records(result)
+    passes = getattr(design, "passes", None)
+    cls = "verdict" + ("" if passes is None else " passes" if passes else " fails")
+    lines = [esc(verdict(result))]
+    if passes is not None:
+        governing = getattr(design, "governing_check", "design")
+        lines.append(f"<strong>Design check ({esc(governing)} governs): {'passes' if passes else 'FAILS'}</strong>")
+    if getattr(fatigue, "passes", None) is not None:
+        lines.append(f"Fatigue screen: {'passes' if fatigue.passes else 'FAILS'}")
+    rows = [
+        ("Peak (max principal, converged)", _num(peak.stress, 5, "MPa"), f"{peak.feature} at ({peak.location[0]:.2f}, "
+         f"{peak.location[1]:.2f}) mm; finest mesh {peak.fe_stress:.1f} MPa"),
+        ("Net-section average", _num(ns.average, 5, "MPa"), f"force / net area {ns.area:.1f} mm², {plots.governing_view(result).where}"),
+        ("Average understates the peak by", f"{1 - ns.average / peak.stress if peak.stress else 0.0:.1%}", ""),
+        ("Kt net / gross", f"{kt.net:.3f} / {kt.gross:.3f}", f"band ± {kt.error:.2%}; gross average "
+         f"{result.gross_average:.1f} MPa"),
+        *_nominal_rows(result),
+        ("Equilibrium on the net section", f"{ns.equilibrium_error:+.3%}", f"FE force {ns.fe_force:.1f} N"),
+    ]
+    warnings = "".join(f'<p class="warn">{esc(w)}</p>' for w in result.warnings)
+    return _section("verdict", "Verdict", f'<div class="{cls}">' + "<br>".join(lines) + "</div>", warnings,
+                    _table(rows, numeric=(1,)))
+
+
+def _nominal_rows(result: CheckResult) -> list[tuple[str, str, str]]:
+    """Which nominal stress each headline Kt uses, when the check says (bending and combined loads use
+    other nominals than force / area)."""
+    nominal = getattr(result, "nominal", None)
+    rows = []
+    for which in ("net", "gross"):
+        item = getattr(nominal, which, None)
+        if item is not None and isinstance(getattr(item, "stress", None), (int, float)):
+            rows.append((f"Nominal stress of Kt {which}", _num(item.stress, 5, "MPa"),
+                         f"{getattr(item, 'label', '')}: {getattr(item, 'formula', '')}"))
+    return rows
+
+
+def _part_section(result: CheckResult, figures: list[Rendered], part_text: str | None) -> str:
+    spec = result.spec
+    plate, material = spec.plate, spec.material
+    rows = [
+        ("Plate", f"{_num(plate.length)} × {_num(plate.width)} mm, thickness {_num(plate.thickness)} mm, "
+         f"{plate.condition}"),
+        ("Material", f"E {_num(material.E)} MPa, ν {_num(material.nu)}, yield "
+         f"{_num(getattr(material, 'yield_strength', None), unit='MPa')}, ultimate "
+         f"{_num(getattr(material, 'ultimate', None), unit='MPa')}"),
+        ("Load", _load_text(spec.load)),
+        ("Mesh study", f"target error {spec.mesh.tolerance:.2%}, at most {spec.mesh.max_levels} levels and "
+         f"{spec.mesh.max_elements:,} triangles"),
+        ("Units of the part file", getattr(spec, "units", "mm-N-MPa")),
+    ]
+    holes = [(f"hole {n}", _num(h.center[0]), _num(h.center[1]), _num(h.diameter))
+             for n, h in enumerate(getattr(spec, "holes", ()) or (), start=1)]
+    parts = [_table(rows), _figures(figures)]
+    if holes:
+        parts.append(_table(holes, header=("raiser", "centre x (mm)", "centre y (mm)", "diameter (mm)"),
+                            numeric=(1, 2, 3)))
+    if part_text is not None:
+        parts.append("<h3>The part file as read</h3><pre>" + esc(part_text) + "</pre>")
+    return _section("part", "The part and what it carries", *parts)
+
+
+def _load_text(load: Any) -> str:
+    """The load as text: every numeric field of the load record (N, N mm)."""
+    if dataclasses.is_dataclass(load):
+        items = [(f.name, getattr(load, f.name)) for f in dataclasses.fields(load)]
+    else:
+        items = [("axial", getattr(load, "axial", None))]
+    shown = [f"{name.replace('_', ' ')} {_num(value)}" for name, value in items if value not in (None, 0, 0.0)]
+    text = "; ".join(shown) or "none"
+    axial = getattr(load, "axial", None)
+    if isinstance(axial, (int, float)) and axial:
+        text += f" N ({'tension' if axial > 0 else 'compression'}) on the right end; the left end is held"
+    return text
+
+
+def _mesh_section(result: CheckResult, figures: list[Rendered]) -> str:
+    mesh = result.solution.mesh
+    features = [(f.name, _num(f.radius, unit="mm"), _num(f.edge_size, 3, "mm")) for f in mesh.features]
+    text = (f"The finest level has {mesh.n_nodes:,} nodes and {mesh.n_elements:,} linear triangles "
+            f"({2 * mesh.n_nodes:,} degrees of freedom). Element sizes shrink towards each raiser edge.")
+    table = _table(features, header=("raiser", "edge radius", "element size at the edge"), numeric=(1, 2)) if features else ""
+    return _section("mesh", "How the part was meshed", _p(text), table, _figures(figures))
+
+
+def _stress_section(result: CheckResult, figures: list[Rendered]) -> str:
+    s1 = result.solution.principal[:, 0]
+    vm = result.solution.von_mises
+    text = (f"Maximum principal stress ranges from {float(s1.min()):.1f} to {float(s1.max()):.1f} MPa on the finest "
+            f"mesh; the largest von Mises stress is {float(vm.max()):.1f} MPa. The converged peak is "
+            f"{result.peak.stress:.1f} MPa at {result.peak.feature}.")
+    return _section("stress", "Where the stress gathers", _p(text), _figures(figures))
+
+
+def _sections_section(result: CheckResult, figures: list[Rendered]) -> str:
+    rows = []
+    for view in plots.critical_sections(result):
+        ns = view.section
+        rows.append((view.label, view.feature, view.where,
+                     ", ".join(f"{a:.2f} … {b:.2f}" for a, b in ns.ligaments), _num(ns.width, 5, "mm"),
+                     _num(ns.area, 5, "mm²"), _num(ns.average, 5, "MPa"), _num(view.peak, 5, "MPa"),
+                     f"{view.kt_net:.3f}", f"{ns.equilibrium_error:+.3%}"))
+    table = _table(rows, header=("section", "raiser", "where", "ligaments (mm along the cut)", "net width",
+                                 "net area", "average", "peak", "Kt net", "equilibrium"), numeric=(4, 5, 6, 7, 8, 9))
+    text = ("The critical section is the cut across the load through the raiser that carries the peak. A hand "
+            "calculation spreads the force evenly over the net area (the flat line); the FE solution shows "
+            "how the stress actually gathers at the raiser edge.")
+    return _section("sections", "Across the critical section", _p(text), _figures(figures), table)
+
+
+def _cuts_section(result: CheckResult, figures: list[Rendered]) -> str:
+    """The cuts the part file asked for: FE resultants against statics (method of sections)."""
+    sections = getattr(result, "sections", ()) or ()
+    if not sections:
+        return ""
+    rows = []
+    for c in sections:
+        statics = getattr(c, "statics", None)
+        rows.append((getattr(c, "label", ""), _num(getattr(c, "area", None), 5, "mm²"),
+                     _num(getattr(c, "fe_normal_force", None), 5, "N"), _num(getattr(statics, "normal_force", None), 5, "N"),
+                     _num(getattr(c, "fe_shear_force", None), 5, "N"), _num(getattr(c, "fe_moment", None), 5, "N mm"),
+                     _percent(getattr(c, "normal_error", None)), _percent(getattr(c, "shear_error", None)),
+                     _percent(getattr(c, "moment_error", None)), _num(getattr(c, "average_normal", None), 4, "MPa"),
+                     _num(getattr(c, "peak_normal", None), 4, "MPa")))
+    table = _table(rows, header=("cut", "area", "N (FE)", "N (statics)", "V (FE)", "M (FE)", "N error", "V error",
+                                 "M error", "average N/A", "largest normal"), numeric=range(1, 11))
+    text = ("Each cut integrates the FE stresses across the part (normal force N, shear force V, moment M about "
+            "the centroid of its material) and compares them with what statics requires of the applied loads.")
+    return _section("cuts", "The cuts you asked for", _p(text), table, _figures(figures))
+
+
+def _percent(value: Any) -> str:
+    return "—" if value is None else f"{value:+.3%}"
+
+
+def _convergence_section(result: CheckResult, figures: list[Rendered]) -> str:
+    study, est = result.study, result.study.estimate
+    h, _ = plots.level_sizes(result)
+    rows = [(str(i), _num(lv.scale, 3), _num(float(x), 3), f"{lv.nodes:,}", f"{lv.elements:,}", f"{2 * lv.nodes:,}",
+             f"{lv.peak:.2f}", f"{sum(lv.seconds.values()):.2f}")
+            for i, (lv, x) in enumerate(zip(study.levels, h), start=1)]
+    order = f", observed order {est.order:.2f}" if est.order else ""
+    text = (f"Estimate by {est.method}{order}: {est.value:.2f} MPa ± {est.error:.2%} (target "
+            f"{result.spec.mesh.tolerance:.2%}); {'converged' if study.converged else 'NOT converged'}"
+            + (f"; stopped because {study.stop_reason}" if study.stop_reason else "") + ".")
+    table = _table(rows, header=("level", "scale", "edge size (mm)", "nodes", "triangles", "DOFs", "peak (MPa)",
+                                 "time (s)"), numeric=range(1, 8))
+    return _section("convergence", "Does the peak settle? The mesh study", _p(text), _figures(figures), table)
+
+
+def _handbook_section(result: CheckResult, figures: list[Rendered]) -> str:
+    if not result.handbook:
+        return _section("handbook", "Against published values",
+                        _p("No handbook case covers this geometry: the FE result stands on its own, with the "
+                           "error band of the mesh study."))
+    rows = []
+    for m in result.handbook:
+        params = ", ".join(f"{k} = {v:.4g}" for k, v in m.recognised.params.items())
+        rows.append((m.case.title, f"{m.kt_net:.3f}", f"{m.kt_gross:.3f}", f"{result.kt.net / m.kt_net - 1:+.2%}",
+                     params, "inside" if m.in_range else "OUTSIDE", m.case.source))
+    table = _table(rows, header=("published case", "Kt net", "Kt gross", "FE differs by", "parameters",
+                                 "validity range", "source"), numeric=(1, 2, 3))
+    return _section("handbook", "Against published values", _figures(figures), table,
+                    _p("The first row is the preferred case. Handbook values are for the idealised shape; "
+                       "differences beyond the FE band mean the part is not quite that shape, or the chart's "
+                       "own scatter.", "small"))
+
+
+def signoff_records(result: CheckResult) -> tuple[Any, Any]:
+    """The design check and fatigue screen records of a result (None when not asked for), unwrapped from
+    their sign-off envelopes (attributes `check` and `screen`) when present."""
+    design = getattr(result, "design", None)
+    fatigue = getattr(result, "fatigue", None)
+    return getattr(design, "check", design), getattr(fatigue, "screen", fatigue)
+
+
+def _signoff_lines(record: Any, envelope: Any, kind: str, units: str) -> list[str]:
+    """Plain-language lines of a design check or fatigue screen in the part file's units, then its basis."""
+    lines: tuple[str, ...] = ()
+    try:
+        if kind == "design":
+            from ..compare.design import design_statements as statements
+        else:
+            from ..compare.fatigue import screen_statements as statements
+        lines = statements(record, units)
+    except (ImportError, TypeError, ValueError, KeyError):
+        lines = tuple(getattr(record, "statements", ()) or ())
+    return list(lines) + list(getattr(envelope, "basis", ()) or ())
+
+
+def _design_section(result: CheckResult, figures: list[Rendered]) -> str:
+    design, _ = signoff_records(result)
+    heading = "Sign-off: allowable stress and margins"
+    if design is None:
+        return _section("design", heading, _p("No design check was requested for this part: add a [design] "
+                                               "table to the part file to compare with an allowable stress."))
+    lines = _signoff_lines(design, getattr(result, "design", None), "design", getattr(result.spec, "units", ""))
+    return _section("design", heading, _list(lines), _figures(figures),
+                    _p("All the numbers of the check (mm, N, MPa):", "small"), _record_table(design))
+
+
+def _fatigue_section(result: CheckResult, figures: list[Rendered]) -> str:
+    _, fatigue = signoff_records(result)
+    if fatigue is None:
+        return ""
+    envelope = getattr(result, "fatigue", None)
+    lines = _signoff_lines(fatigue, envelope, "fatigue", getattr(result.spec, "units", ""))
+    feature = getattr(envelope, "feature", None)
+    head = [f"Notch root radius taken from {feature}."] if feature else []
+    return _section("fatigue", "Fatigue screen", _list(head + lines), _figures(figures),
+                    _p("All the numbers of the screen (mm, MPa, cycles):", "small"), _record_table(fatigue),
+                    _p("A screen, not a life prediction.", "small"))
+
+
+def _list(items: Iterable[str]) -> str:
+    items = list(items)
+    return "<ul>" + "".join(f"<li>{esc(s)}</li>" for s in items) + "</ul>" if items else ""
+
+
+UNIT_SUFFIXES = (("_mpa", "MPa"), ("_mm2", "mm²"), ("_mm", "mm"), ("_n", "N"), ("_cycles", "cycles"))
+
+
+def _record_table(record: Any) -> str:
+    """Every plain field of a dataclass record as a two-column table; units read from the field suffix."""
+    if not dataclasses.is_dataclass(record):
+        return ""
+    rows = []
+    for f in dataclasses.fields(record):
+        value = getattr(record, f.name)
+        if f.name == "statements" or not isinstance(value, (int, float, str, bool, type(None))):
+            continue
+        label, unit = f.name, ""
+        for suffix, name in UNIT_SUFFIXES:
+            if label.endswith(suffix):
+                label, unit = label[: -len(suffix)], name
+                break
+        rows.append((label.replace("_", " ") + (f" ({unit})" if unit else ""), _num(value, 4)))
+    return _table(rows, numeric=(1,))
+
+
+def _cautions_section(result: CheckResult) -> str:
+    items = "".join(f"<li>{esc(c)}</li>" for c in result.cautions)
+    return _section("cautions", "Read this before relying on the numbers", f'<ul class="cautions">{items}</ul>')
+
+
+def _files_section(figures: list[Rendered]) -> str:
+    rows = [(FIELDS_NAME, "finest-mesh fields for a VTK viewer: point data " + ", ".join(POINT_FIELDS)
+             + "; cell data " + ", ".join(CELL_FIELDS) + " (mm, MPa)"),
+            (RECORD_NAME, f"the JSON record ({SCHEMA})")]
+    rows += [(f"{FIGURES_DIR}/{fig.name}.png, .svg", fig.caption) for fig in figures]
+    return _section("files", "Files beside this report", _table(rows, header=("file", "contents")))
+
+
+def _read_text(path: str | Path | None) -> str | None:
+    if path is None:
+        return None
+    try:
+        return Path(path).read_text(encoding="utf-8")
+    except (OSError, UnicodeDecodeError):
+        return None

@@ -1,0 +1,116 @@
+"""The Kt curve of a sweep: FE Kt (net section) with its error band against the first varied key, one
+series per combination of the other keys, and the handbook curve of every case that covers the part,
+evaluated densely over the same range (the case's formula at the parameters the part is recognised with).
+
+matplotlib is imported here only (it is slow to import) and drawn without pyplot (no global backend).
+"""
+
+from __future__ import annotations
+
+import io
+import math
+from pathlib import Path
+from typing import Any
+
+CURVE_SAMPLES = 121  # handbook points per series
+MAX_CURVE_SERIES = 12  # series beyond this get FE points only (keeps the plot readable and quick)
+CASE_STYLES = ("--", ":", "-.", (0, (6, 2, 1, 2)), (0, (1, 3)))
+
+
+def plot_sweep(png: Path, svg: Path, base: dict[str, Any], varies: list, rows: list[dict[str, Any]]) -> None:
+    """Draw the sweep and write it as PNG and SVG (each written whole or not at all)."""
+    from matplotlib import colormaps, rc_context
+    from matplotlib.figure import Figure
+
+    from .files import write_atomic
+
+    xkey = varies[0].key.text
+    units = base.get("units", "mm-N-MPa")
+    series = _series(varies, rows)
+    colours = colormaps["viridis"]
+    fig = Figure(figsize=(7.5, 5.0), layout="constrained")
+    ax = fig.add_subplot()
+    styles: dict[str, Any] = {}
+    failed = 0
+    for n, (label, members) in enumerate(series.items()):
+        colour = colours(0.15 + 0.7 * n / max(1, len(series) - 1)) if len(series) > 1 else colours(0.3)
+        done = sorted((r for r in members if r["status"] == "ok"), key=lambda r: r["inputs"][xkey])
+        failed += len(members) - len(done)
+        if done:
+            xs = [r["inputs"][xkey] for r in done]
+            kt = [r["kt_net"] for r in done]
+            band = [r["kt_net"] * (r["kt_error"] if r["kt_error"] is not None else math.nan) for r in done]
+            fe_label = "FE, converged Kt net" + (f" ({label})" if label else "")
+            ax.errorbar(xs, kt, yerr=band, color=colour, marker="o", ms=5, lw=1.4, capsize=3, label=fe_label)
+            loose = [r for r in done if not r["converged"]]
+            if loose:
+                ax.plot([r["inputs"][xkey] for r in loose], [r["kt_net"] for r in loose], ls="none", marker="o",
+                        ms=10, mfc="none", mec="#b2182b", label="not converged" if n == 0 else None)
+        if n < MAX_CURVE_SERIES:
+            for case, (cx, cy) in _handbook_curves(base, varies, members).items():
+                first = case not in styles
+                styles.setdefault(case, CASE_STYLES[len(styles) % len(CASE_STYLES)])
+                shade = colours(min(0.9, 0.55 + 0.3 * list(styles).index(case))) if len(series) == 1 else colour
+                ax.plot(cx, cy, color=shade, ls=styles[case], lw=1.6,
+                        label=f"handbook: {case}" if first else None)
+    ax.set_xlabel(f"{xkey} (part-file units, {units})")
+    ax.set_ylabel("Kt on the net section (peak / net-section average)")
+    title = str(base.get("title", "untitled part"))
+    ax.set_title(f"{title[:70]}\nKt against {xkey}", fontsize=10)
+    ax.grid(True, alpha=0.3)
+    if failed:
+        ax.text(0.99, 0.01, f"{failed} failed case(s) not drawn; see the table", transform=ax.transAxes,
+                ha="right", va="bottom", fontsize=8, color="#b2182b")
+    ax.legend(fontsize=8, loc="best")
+    for path, fmt in ((png, "png"), (svg, "svg")):
+        buffer = io.BytesIO()
+        with rc_context({"svg.fonttype": "none"}):  # SVG text stays text: searchable and editable
+            fig.savefig(buffer, format=fmt, dpi=150)
+        write_atomic(path, buffer.getvalue())
+
+
+def _series(varies: list, rows: list[dict[str, Any]]) -> dict[str, list[dict[str, Any]]]:
+    """Rows grouped by the values of every varied key but the first (label "" when only one key)."""
+    others = [v.key.text for v in varies[1:]]
+    groups: dict[str, list[dict[str, Any]]] = {}
+    for row in rows:
+        label = ", ".join(f"{k} = {row['inputs'][k]:g}" for k in others)
+        groups.setdefault(label, []).append(row)
+    return groups
+
+
+def _handbook_curves(base: dict[str, Any], varies: list, members: list[dict[str, Any]]
+                     ) -> dict[str, tuple[list[float], list[float]]]:
+    """Handbook Kt net of every case that covers the part, over the series' range of the first key; a
+    value outside the case's range or where the part is not recognised is left as a gap."""
+    from ..compare.handbook import handbook_matches
+    from ..geometry.errors import PartError
+    from ..geometry.partfile import part_from_dict
+    from ..geometry.partkeys import set_value
+
+    xkey = varies[0]
+    xs = [r["inputs"][xkey.key.text] for r in members]
+    lo, hi = min(xs), max(xs)
+    if hi <= lo:
+        return {}
+    fixed = members[0]["inputs"]
+    part = base
+    for vary in varies[1:]:
+        part = set_value(part, vary.key, fixed[vary.key.text])
+    samples = [lo + (hi - lo) * i / (CURVE_SAMPLES - 1) for i in range(CURVE_SAMPLES)]
+    curves: dict[str, dict[float, float]] = {}
+    for x in samples:
+        try:
+            spec = part_from_dict(set_value(part, xkey.key, x))
+        except PartError:
+            continue
+        for match in handbook_matches(spec):
+            if match.in_range:
+                curves.setdefault(match.case.key, {})[x] = match.kt_net
+    out = {}
+    for case, values in curves.items():
+        ys = [values.get(x, math.nan) for x in samples]
+        out[case] = (samples, ys)
+    return out
+
+

@@ -1,0 +1,55 @@
+"""The data of the handbook library: a published case, a part recognised as a case's family, and a case
+applied to a part. Kept apart from compare/handbook.py so that the modules holding the cases of each
+family (raiser_cases.py, bending_cases.py) can import them in any order."""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass
+
+
+@dataclass(frozen=True)
+class Case:
+    """One published Kt formula or table.
+
+    nominal: "net" or "gross", the nominal stress the formula's Kt is referred to, described by
+    nominal_text. ranges: validity interval of each parameter.
+    """
+
+    key: str
+    family: str
+    title: str
+    source: str
+    formula: str
+    nominal: str
+    nominal_text: str
+    ranges: dict[str, tuple[float, float]]
+    kt: Callable[[dict[str, float]], float]
+    # where this project's FE was measured to agree with the formula (tests name the figures); the built-in
+    # regression suite samples this sub-range when it is given, the full range otherwise
+    checked: dict[str, tuple[float, float]] | None = None
+
+    def in_range(self, params: dict[str, float]) -> bool:
+        return all(lo - 1e-12 <= params[k] <= hi + 1e-12 for k, (lo, hi) in self.ranges.items())
+
+
+@dataclass(frozen=True)
+class Recognised:
+    """A part recognised as a handbook family: its parameters and gross/net area ratio (>= 1)."""
+
+    family: str
+    description: str
+    params: dict[str, float]
+    gross_over_net: float
+    raiser: str | None = None  # the raiser whose own peak the case describes (None: the part's peak)
+
+
+@dataclass(frozen=True)
+class Match:
+    """A case applied to a recognised part: Kt on both nominal definitions."""
+
+    case: Case
+    recognised: Recognised
+    kt_net: float
+    kt_gross: float
+    in_range: bool

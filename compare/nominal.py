@@ -1,0 +1,141 @@
+"""Nominal stresses the handbooks use for each kind of load, and the Kt each one gives.
+
+On the critical section (a straight cut through the raiser; see compare.check) with statics resultants
+N (normal force), M (moment about the centroid of the section's material), net area A = t sum(l_i),
+second moment I about that centroid and extreme-fibre distance c (largest distance from the centroid
+to the end of a ligament):
+
+    axial     net  N / A                         gross  N / (W t)
+    bending   net  |M| c / I  (= 6 M / (t h^2)   gross  6 |M| / (t W^2)
+                   for one ligament of width h)
+    combined  net  largest |N / A + M s / I| at the two extreme fibres (s from the centroid); gross alike
+    pin       net  P / A (cut through the pin hole across the pin's line), gross P / (W t), and the
+              bearing stress P / (d t)
+    remote    the largest principal stress of the remote state in magnitude (Kirsch's nominal)
+
+W is the plate's width along the cut (the gross section). Kt = |peak| / |nominal| (MPa / MPa).
+The headline Kt(net) and Kt(gross) use the first two rows of the load's kind; every nominal that
+applies is listed with its own Kt, so the report states which nominal each Kt uses.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..geometry.spec import PartSpec
+from .method_of_sections import SectionResult
+
+
+@dataclass(frozen=True)
+class Nominal:
+    """One nominal stress: key, what it is in words, its formula, value (MPa, signed) and Kt."""
+
+    key: str
+    label: str
+    formula: str
+    stress: float
+    kt: float | None
+
+
+@dataclass(frozen=True)
+class NominalSet:
+    """The nominals of a check: `net` and `gross` give the headline Kt; `all` lists every one."""
+
+    net: Nominal
+    gross: Nominal
+    all: tuple[Nominal, ...]
+
+
+@dataclass(frozen=True)
+class SectionProperties:
+    """Net area (mm^2), second moment about the centroid (mm^4) and the two extreme-fibre positions
+    measured from the centroid along the cut (mm, bottom <= 0 <= top)."""
+
+    area: float
+    inertia: float
+    bottom: float
+    top: float
+
+    @property
+    def extreme(self) -> float:
+        return max(-self.bottom, self.top)
+
+
+def section_properties(ligaments: tuple[tuple[float, float], ...], thickness: float) -> SectionProperties:
+    """Properties of the material intervals `ligaments` (mm along the cut) of a plate of `thickness`."""
+    lig = np.asarray(ligaments, dtype=float).reshape(-1, 2)
+    length = lig[:, 1] - lig[:, 0]
+    area = thickness * float(length.sum())
+    if area <= 0.0:
+        return SectionProperties(0.0, 0.0, 0.0, 0.0)
+    middle = 0.5 * (lig[:, 0] + lig[:, 1])
+    centroid = float(np.sum(length * middle) / length.sum())
+    inertia = thickness * float(np.sum(length ** 3 / 12.0 + length * (middle - centroid) ** 2))
+    return SectionProperties(area, inertia, float(lig[0, 0] - centroid), float(lig[-1, 1] - centroid))
+
+
+def nominal_stresses(spec: PartSpec, peak: float, section: SectionResult, gross_width: float) -> NominalSet:
+    """The nominals of `spec`'s load on the critical `section` (statics N, M), with Kt against `peak`
+    (MPa); `gross_width` is the plate's width along the cut (mm)."""
+    t = spec.plate.thickness
+    kind = spec.load.kind
+    N, M = section.statics.normal_force, section.statics.moment
+    net = section_properties(section.ligaments, t)
+    gross = SectionProperties(gross_width * t, t * gross_width ** 3 / 12.0, -0.5 * gross_width, 0.5 * gross_width)
+
+    def make(key, label, formula, stress):
+        return Nominal(key, label, formula, stress, abs(peak / stress) if stress != 0.0 else None)
+
+    axial_net = make("axial-net", "axial, net section", "N / A_net", _ratio(N, net.area))
+    axial_gross = make("axial-gross", "axial, gross section", "N / (W t)", _ratio(N, gross.area))
+    bending_net = make("bending-net", "bending, net section", "|M| c / I_net (= 6 M / (t h^2) for one ligament)",
+                       _ratio(abs(M) * net.extreme, net.inertia))
+    bending_gross = make("bending-gross", "bending, gross section", "6 |M| / (t W^2)",
+                         _ratio(abs(M) * gross.extreme, gross.inertia))
+    if kind == "remote":
+        s1, s2 = spec.load.remote.principal
+        remote = make("remote", "remote stress", "largest remote principal stress in magnitude",
+                      s1 if abs(s1) >= abs(s2) else s2)
+        return NominalSet(remote, remote, (remote, axial_net))
+    if kind == "pin":
+        pin = spec.load.pin
+        d = spec.holes[pin.hole - 1].diameter
+        pin_net = make("pin-net", "pin load, net section", "P / A_net", _ratio(pin.force, net.area))
+        pin_gross = make("pin-gross", "pin load, gross section", "P / (W t)", _ratio(pin.force, gross.area))
+        bearing = make("bearing", "pin bearing", "P / (d t)", pin.force / (d * t))
+        return NominalSet(pin_net, pin_gross, (pin_net, pin_gross, bearing))
+    if kind == "axial":
+        return NominalSet(axial_net, axial_gross, (axial_net, axial_gross))
+    if kind == "bending":
+        return NominalSet(bending_net, bending_gross, (bending_net, bending_gross))
+    combined_net = make("combined-net", "axial + bending, net section", "largest |N / A_net + M s / I_net| at the "
+                        "extreme fibres", _extreme_fibre(N, M, net))
+    combined_gross = make("combined-gross", "axial + bending, gross section", "largest |N / (W t) +/- 6 M / (t W^2)|",
+                          _extreme_fibre(N, M, gross))
+    return NominalSet(combined_net, combined_gross,
+                      (combined_net, combined_gross, axial_net, bending_net, axial_gross, bending_gross))
+
+
+def _ratio(a: float, b: float) -> float:
+    return a / b if b > 0.0 else 0.0
+
+
+def _extreme_fibre(N: float, M: float, p: SectionProperties) -> float:
+    """The larger in magnitude of N / A + M s / I at s = bottom and s = top (signed, MPa)."""
+    if p.area <= 0.0 or p.inertia <= 0.0:
+        return 0.0
+    values = [N / p.area + M * s / p.inertia for s in (p.bottom, p.top)]
+    return max(values, key=abs)
+
+
+def critical_cut(spec: PartSpec, x_section: float) -> tuple[tuple[float, float], tuple[float, float]]:
+    """(point, unit normal) of the critical section: through a pin's hole centre across the pin's line,
+    otherwise across the part at x_section (kept just inside the ends)."""
+    if spec.load.pin is not None:
+        pin = spec.load.pin
+        return spec.holes[pin.hole - 1].center, (math.cos(pin.angle), math.sin(pin.angle))
+    half = 0.5 * spec.plate.length * (1.0 - 1e-3)
+    return (min(max(x_section, -half), half), 0.0), (1.0, 0.0)

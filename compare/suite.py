@@ -1,0 +1,306 @@
+"""Regression suites: tables of parts with a reference Kt each, and the built-in suite of handbook cases.
+
+A suite file (TOML) lists cases; each names its part either as a part file (path relative to the suite
+file, optionally with values replaced by dotted keys, see geometry/partkeys.py) or as a handbook family
+and its parameters (the family's part builder in compare/handbook.py makes the part). Each case carries
+the reference Kt, whether it is referred to the net or the gross section, a relative tolerance and the
+source of the reference:
+
+    title = "BR-series strap brackets"
+
+    [defaults]                      # optional: any case key except name and reference; a case that
+                                    # names its own part or family takes none of part/family/parameters
+    part = "br_plate.toml"
+    definition = "net"
+    tolerance = 0.02
+    source = "BR-series sign-off records, rev B"
+
+    [[case]]
+    name = "BR-60-14"
+    set = { "hole.1.diameter" = 14.0 }
+    reference = 2.43
+
+    [[case]]
+    name = "central hole d/W 0.3"
+    family = "central-hole-tension"
+    parameters = { "d/W" = 0.3 }
+    reference = 3.36
+    definition = "gross"
+    tolerance = 0.01
+    source = "Howland (1930), as tabulated"
+
+A case passes when its check converged and its FE Kt is within the tolerance of the reference.
+
+The built-in suite takes every handbook case whose family has a part builder and checks it at
+POINT_FRACTIONS of each parameter's validity range. Tolerances follow the handbook's own scatter
+(shared/REFERENCES.md): a tabulated solution (the case's formula text says it comes from a table) 1 %, a
+curve fit to charts 3 %; TOLERANCE_OVERRIDES holds any case whose published scatter warrants another band.
+Each built-in part asks the FE for an error band equal to its tolerance, kept within BUILTIN_MESH_LIMITS
+(so mesh.tolerance 0.01 for a table, 0.02 for a curve fit): fast enough for CI, and the Richardson
+estimate is well inside that band in practice (tests/test_central_hole.py).
+"""
+
+from __future__ import annotations
+
+import hashlib
+import json
+import math
+import tomllib
+from collections.abc import Mapping
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+from ..geometry.errors import PartError
+from ..geometry.partfile import part_from_dict
+from ..geometry.partkeys import check_key_known, flatten_keys, resolve_key, set_value
+from . import handbook
+from .handbook import Case, handbook_matches
+
+DEFINITIONS = ("net", "gross")
+CASE_KEYS = {"name", "part", "set", "family", "parameters", "reference", "definition", "tolerance", "source"}
+TOP_KEYS = {"title", "defaults", "case"}
+
+POINT_FRACTIONS = (0.2, 0.5, 0.8)  # where the built-in points sit inside each parameter's range
+TABLE_TOLERANCE = 0.01  # tabulated solutions (Howland's table): 1 % (shared/REFERENCES.md)
+CURVE_FIT_TOLERANCE = 0.03  # curve fits to handbook charts: 3 % (shared/REFERENCES.md)
+TOLERANCE_OVERRIDES: dict[str, float] = {  # case key -> tolerance, where a case's scatter warrants another
+    # in-plane bending fits (compare/bending_cases.py, from memory): this project's FE lies -4.0 ... +3.8 %
+    # from them at the checked points (tests/test_bending_handbook.py), as it lies ~3 % from the tension fits
+    "opposite-u-notches-bending": 0.05,
+    "stepped-bar-fillets-bending": 0.05,
+}
+BUILTIN_MESH_LIMITS = (0.005, 0.02)  # the built-in cases ask the FE for the case's tolerance, within these
+
+
+@dataclass(frozen=True)
+class SuiteCase:
+    """One row of a suite: a part-file dictionary and its reference Kt (on the `definition` section, net or
+    gross), the relative tolerance, and the source text. `problem` holds why the row cannot run, if so."""
+
+    name: str
+    part: dict[str, Any]
+    reference: float
+    definition: str
+    tolerance: float
+    source: str
+    problem: str | None = None
+
+
+@dataclass(frozen=True)
+class Suite:
+    title: str
+    cases: tuple[SuiteCase, ...]
+
+
+@dataclass(frozen=True)
+class Verdict:
+    """A suite case judged: the FE Kt on the case's definition, its relative difference from the
+    reference, and whether it passed, with the reason in words."""
+
+    case: SuiteCase
+    kt: float | None
+    difference: float | None
+    converged: bool | None
+    passed: bool
+    reason: str
+
+
+def part_digest(part: Mapping[str, Any]) -> str:
+    """A short stable fingerprint of a part-file dictionary (identical parts share it)."""
+    text = json.dumps(part, sort_keys=True, separators=(",", ":"), default=str)
+    return hashlib.sha256(text.encode("utf-8")).hexdigest()[:20]
+
+
+def judge(case: SuiteCase, row: Mapping[str, Any]) -> Verdict:
+    """Compare a check's row (cli.batch.run_case: status, error, kt_net, kt_gross, kt_error, converged) with
+    the case's reference."""
+    if case.problem:
+        return Verdict(case, None, None, None, False, case.problem)
+    if row.get("status") != "ok":
+        return Verdict(case, None, None, None, False, f"the check failed ({row.get('status')}): {row.get('error')}")
+    kt = float(row[f"kt_{case.definition}"])
+    diff = kt / case.reference - 1.0
+    converged = bool(row["converged"])
+    if not converged:
+        band = row.get("kt_error")
+        band_text = f"{band:.2%}" if band is not None else "unknown"
+        return Verdict(case, kt, diff, False, False, f"the peak did not converge (error band {band_text})")
+    if abs(diff) > case.tolerance:
+        return Verdict(case, kt, diff, True, False, f"off by {diff:+.2%}; tolerance ±{case.tolerance:.2%}")
+    return Verdict(case, kt, diff, True, True, f"within ±{case.tolerance:.2%}")
+
+
+# --- suite files ---------------------------------------------------------------------------------------
+
+def load_suite(path: str | Path) -> Suite:
+    """Read and validate a suite file; every mistake raises PartError naming the case and the key."""
+    path = Path(path)
+    try:
+        data = tomllib.loads(path.read_text(encoding="utf-8"))
+    except FileNotFoundError:
+        raise PartError(f"{path}: no such suite file") from None
+    except (OSError, UnicodeDecodeError) as exc:
+        raise PartError(f"{path}: cannot be read as UTF-8 text ({exc.__class__.__name__})") from None
+    except tomllib.TOMLDecodeError as exc:
+        raise PartError(f"{path}: not valid TOML: {exc}") from None
+    _known(data, TOP_KEYS, f"{path}")
+    title = data.get("title", path.stem)
+    if not isinstance(title, str):
+        raise PartError(f"{path}: title: must be a text string")
+    defaults = data.get("defaults", {})
+    if not isinstance(defaults, dict):
+        raise PartError(f"{path}: defaults: must be a table written [defaults]")
+    _known(defaults, CASE_KEYS - {"name", "reference"}, f"{path}: [defaults]")
+    rows = data.get("case")
+    if not isinstance(rows, list) or not rows or not all(isinstance(r, dict) for r in rows):
+        raise PartError(f"{path}: case: the suite needs at least one case, each written [[case]]")
+    cases, names = [], set()
+    for n, row in enumerate(rows, start=1):
+        inherited = {k: v for k, v in defaults.items()
+                     if not ({"part", "family"} & row.keys() and k in {"part", "family", "parameters"})}
+        case = _suite_case({**inherited, **row}, f"{path}: case {n}", path.parent)
+        if case.name in names:
+            raise PartError(f"{path}: case {n}: name {case.name!r} is used by an earlier case; names must differ")
+        names.add(case.name)
+        cases.append(case)
+    return Suite(title, tuple(cases))
+
+
+def _suite_case(row: dict[str, Any], where: str, folder: Path) -> SuiteCase:
+    name = row.get("name")
+    if not isinstance(name, str) or not name.strip():
+        raise PartError(f"{where}: name: a non-empty text naming the case is required")
+    where = f"{where} ({name})"
+    _known(row, CASE_KEYS, where)
+    if ("part" in row) == ("family" in row):
+        raise PartError(f"{where}: give either part (a part file) or family (a handbook family), not "
+                        f"{'both' if 'part' in row else 'neither'}")
+    part = _row_part(row, where, folder)
+    overrides = row.get("set", {})
+    if not isinstance(overrides, dict):
+        raise PartError(f"{where}: set: must be a table of dotted keys and values, e.g. "
+                        "set = { \"hole.1.diameter\" = 14.0 }")
+    for text, value in flatten_keys(overrides).items():
+        try:
+            key = resolve_key(part, text)
+            check_key_known(part, key, value, part_from_dict)
+        except PartError as exc:
+            raise PartError(f"{where}: set: {exc}") from None
+        part = set_value(part, key, value)
+    definition = row.get("definition")
+    if definition not in DEFINITIONS:
+        raise PartError(f"{where}: definition: {definition!r} is not allowed; use \"net\" or \"gross\" "
+                        "(the section the reference Kt is referred to)")
+    source = row.get("source")
+    if not isinstance(source, str) or not source.strip():
+        raise PartError(f"{where}: source: a text naming where the reference comes from is required")
+    return SuiteCase(name=name, part=part, reference=_number(row, "reference", where, 0.0, math.inf),
+                     definition=definition, tolerance=_number(row, "tolerance", where, 0.0, 1.0), source=source)
+
+
+def _row_part(row: dict[str, Any], where: str, folder: Path) -> dict[str, Any]:
+    if "part" in row:
+        name = row["part"]
+        if not isinstance(name, str):
+            raise PartError(f"{where}: part: must be the path of a part file (relative to the suite file)")
+        path = folder / name
+        try:
+            return tomllib.loads(path.read_text(encoding="utf-8"))
+        except FileNotFoundError:
+            raise PartError(f"{where}: part: {path}: no such part file") from None
+        except (OSError, UnicodeDecodeError, tomllib.TOMLDecodeError) as exc:
+            raise PartError(f"{where}: part: {path}: cannot be read as TOML ({exc})") from None
+    family = row["family"]
+    if family not in handbook.BUILDERS:
+        raise PartError(f"{where}: family: {family!r} has no part builder; known families: "
+                        f"{', '.join(sorted(handbook.BUILDERS))}")
+    params = row.get("parameters")
+    if not isinstance(params, dict) or not params or not all(
+            isinstance(v, (int, float)) and not isinstance(v, bool) for v in params.values()):
+        raise PartError(f"{where}: parameters: a table of the family's numbers is required, e.g. "
+                        "parameters = { \"d/W\" = 0.3 }")
+    try:
+        return handbook.BUILDERS[family]({k: float(v) for k, v in params.items()})
+    except Exception as exc:  # the builder's own refusal (a missing or impossible parameter)
+        raise PartError(f"{where}: parameters: the {family} builder cannot make this part "
+                        f"({type(exc).__name__}: {exc})") from None
+
+
+def _number(row: dict[str, Any], key: str, where: str, low: float, high: float) -> float:
+    value = row.get(key)
+    if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value) \
+            or not low < value < high:
+        span = f"greater than {low:g}" if math.isinf(high) else f"between {low:g} and {high:g}"
+        raise PartError(f"{where}: {key}: a number {span} is required; got {value!r}")
+    return float(value)
+
+
+def _known(t: dict[str, Any], allowed: set[str], where: str) -> None:
+    for key in t:
+        if key not in allowed:
+            raise PartError(f"{where}: {key}: unknown key; allowed here: {', '.join(sorted(allowed))}")
+
+
+# --- the built-in suite --------------------------------------------------------------------------------
+
+def case_tolerance(case: Case) -> float:
+    """The relative tolerance a handbook case earns: an override, else 1 % for a table, 3 % for a fit."""
+    if case.key in TOLERANCE_OVERRIDES:
+        return TOLERANCE_OVERRIDES[case.key]
+    return TABLE_TOLERANCE if "table" in case.formula.lower() else CURVE_FIT_TOLERANCE
+
+
+def builtin_points(case: Case, fractions: tuple[float, ...] = POINT_FRACTIONS) -> list[dict[str, float]]:
+    """Parameter sets inside the case's validity range: every parameter at the same fraction of its range,
+    or of the sub-range the case says the FE was checked over (`Case.checked`) when it gives one (an open
+    end is taken as twice the closed one, or one above it when that is zero)."""
+    points = []
+    for f in fractions:
+        params = {}
+        for name, (lo, hi) in (getattr(case, "checked", None) or case.ranges).items():
+            if not math.isfinite(hi):
+                hi = 2.0 * lo if lo > 0 else lo + 1.0
+            if not math.isfinite(lo):
+                lo = 0.5 * hi if hi > 0 else hi - 1.0
+            params[name] = float(f"{lo + f * (hi - lo):.6g}")
+        points.append(params)
+    return points
+
+
+def builtin_suite(fractions: tuple[float, ...] = POINT_FRACTIONS) -> Suite:
+    """Every handbook case whose family has a part builder, at `fractions` of its range, referred to the
+    case's own nominal section. The reference is the case's Kt at the parameters the part is recognised
+    with; a builder whose part is refused or not recognised as the case gives a failing row."""
+    cases = []
+    for case in handbook.CASES:  # read at call time: every family with a builder is picked up
+        build = handbook.BUILDERS.get(case.family)
+        if build is None:
+            continue
+        tolerance = case_tolerance(case)
+        mesh = min(BUILTIN_MESH_LIMITS[1], max(BUILTIN_MESH_LIMITS[0], tolerance))
+        for params in builtin_points(case, fractions):
+            label = ", ".join(f"{k} = {v:g}" for k, v in params.items())
+            part, reference, problem = _builtin_part(case, build, params, mesh)
+            cases.append(SuiteCase(f"{case.key} at {label}", part, reference, case.nominal, tolerance,
+                                   case.source, problem))
+    return Suite("built-in handbook suite", tuple(cases))
+
+
+def _builtin_part(case: Case, build, params: dict[str, float], mesh_tolerance: float
+                  ) -> tuple[dict[str, Any], float, str | None]:
+    try:
+        part = dict(build(dict(params)))
+    except Exception as exc:  # another family's builder: report, do not stop the suite
+        return {}, math.nan, f"the {case.family} builder failed at these parameters ({type(exc).__name__}: {exc})"
+    part["mesh"] = {**part.get("mesh", {}), "tolerance": mesh_tolerance}
+    try:
+        spec = part_from_dict(part)
+    except PartError as exc:
+        return part, math.nan, f"the {case.family} builder made a part the reader refuses: {exc}"
+    match = next((m for m in handbook_matches(spec) if m.case.key == case.key), None)
+    if match is None:
+        return part, math.nan, f"the {case.family} builder's part is not recognised as {case.key}"
+    if not match.in_range:
+        return part, math.nan, f"the {case.family} builder's part lies outside the range of {case.key}"
+    return part, match.kt_net if case.nominal == "net" else match.kt_gross, None
