@@ -7,6 +7,7 @@ from rich.markup import escape
 from rich.table import Table
 
 from ..compare.check import CheckResult
+from .display_units import cut_label, label, point_text, quantity_text, shown, shown_point
 
 Row = tuple[str, str, str]
 
@@ -19,7 +20,8 @@ def nominal_rows(result: CheckResult) -> list[Row]:
     rows = [("Kt net / gross use", "", f"{n.net.label} / {n.gross.label}")]
     for nom in n.all:
         kt = f"Kt {nom.kt:.3f}" if nom.kt is not None else "Kt —"
-        rows.append((f"  {nom.label}", f"{nom.stress:.1f} MPa", f"{kt}; {escape(nom.formula)}"))
+        rows.append((f"  {nom.label}", quantity_text(nom.stress, "stress", result.spec.units),
+                     f"{kt}; {escape(nom.formula)}"))
     if result.spec.load.pin is not None:
         rows.append(("", "", "bearing stress P / (d t): the pin's force over its projected contact area"))
     return rows
@@ -27,16 +29,17 @@ def nominal_rows(result: CheckResult) -> list[Row]:
 
 def stress_rows(result: CheckResult) -> list[Row]:
     """von Mises and Tresca peaks, and the compressive peak when it is larger in magnitude."""
-    s = result.stresses
+    s, units = result.stresses, result.spec.units
     if s is None:
         return []
-    rows = [("von Mises / Tresca", f"{s.von_mises.value:.1f} / {s.tresca.value:.1f} MPa",
-             f"finest mesh, at ({s.von_mises.location[0]:.2f}, {s.von_mises.location[1]:.2f}) / "
-             f"({s.tresca.location[0]:.2f}, {s.tresca.location[1]:.2f}) mm")]
+    rows = [("von Mises / Tresca",
+             f"{shown(s.von_mises.value, 'stress', units)} / {quantity_text(s.tresca.value, 'stress', units)}",
+             f"finest mesh, at {shown_point(s.von_mises.location, units)} / "
+             f"{point_text(s.tresca.location, units)}")]
     if s.compressive_governs:
-        rows.append(("Compressive peak", f"{s.min_principal.value:.1f} MPa",
-                     f"min principal at ({s.min_principal.location[0]:.2f}, {s.min_principal.location[1]:.2f}) mm "
-                     f"exceeds the tensile {s.max_principal.value:.1f} MPa"))
+        rows.append(("Compressive peak", quantity_text(s.min_principal.value, "stress", units),
+                     f"min principal at {point_text(s.min_principal.location, units)} "
+                     f"exceeds the tensile {quantity_text(s.max_principal.value, 'stress', units)}"))
     return rows
 
 
@@ -46,13 +49,18 @@ def print_sections(result: CheckResult, console: Console) -> None:
         return
     table = Table(title="Sections (method of sections: FE resultants vs statics)", title_justify="left",
                   box=None, pad_edge=False)
-    for column in ("cut", "N kN", "V kN", "M kN·m", "avg σ MPa", "avg τ MPa", "peak σ MPa", "statics err"):
+    units = result.spec.units
+    force, moment, stress = label("force", units, True), label("moment", units, True), label("stress", units)
+    for column in ("cut", f"N {force}", f"V {force}", f"M {moment}", f"avg σ {stress}", f"avg τ {stress}",
+                   f"peak σ {stress}", "statics err"):
         table.add_column(column, justify="left" if column == "cut" else "right")
     for r in result.sections:
         worst = r.worst_error
-        table.add_row(escape(r.label), f"{r.fe_normal_force / 1e3:.3f}", f"{r.fe_shear_force / 1e3:.3f}",
-                      f"{r.fe_moment / 1e6:.4f}", f"{r.average_normal:.2f}", f"{r.average_shear:.2f}",
-                      f"{r.peak_normal:.1f}", "—" if worst is None else f"{worst:.3%}")
+        table.add_row(escape(cut_label(r.label, r.point, units)), shown(r.fe_normal_force, "force", units, ".3f", True),
+                      shown(r.fe_shear_force, "force", units, ".3f", True),
+                      shown(r.fe_moment, "moment", units, ".4f", True), shown(r.average_normal, "stress", units, ".2f"),
+                      shown(r.average_shear, "stress", units, ".2f"), shown(r.peak_normal, "stress", units),
+                      "—" if worst is None else f"{worst:.3%}")
     console.print(table)
     console.print("M about the centroid of the cut's material, positive when it stretches the side to the left of "
                   "the cut's normal; errors relative to the cut's largest force scale (README)", soft_wrap=False)

@@ -27,6 +27,7 @@ from typing import Any
 
 from .. import __version__
 from ..compare.check import CheckResult
+from ..geometry.units import format_number
 from . import plots
 from .fields import CELL_FIELDS, POINT_FIELDS, vtu_bytes
 from .files import write_atomic, write_json
@@ -244,20 +245,10 @@ def _num(value: Any, digits: int = 4, unit: str = "") -> str:
     if isinstance(value, (int, float)):
         if isinstance(value, float) and not math.isfinite(value):
             return "∞" if value > 0 else "—"
-        text = _significant(value, digits) if isinstance(value, float) else str(value)
+        text = format_number(value, digits) if isinstance(value, float) else str(value)
         return f"{text} {unit}".strip()
     return str(value)
 
-
-def _significant(value: float, digits: int) -> str:
-    """`digits` significant figures, plain decimals from 1e-3 to 1e7 ("210000", "0.3", "12.5")."""
-    if value == 0.0:
-        return "0"
-    exponent = math.floor(math.log10(abs(value)))
-    if not -3 <= exponent < 7:
-        return f"{value:.{digits - 1}e}"
-    text = f"{value:.{max(0, digits - 1 - exponent)}f}"
-    return text.rstrip("0").rstrip(".") if "." in text else text
 
 
 # --- report sections: one function each ---------------------------------------------------------------

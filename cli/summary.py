@@ -8,17 +8,19 @@ from rich.table import Table
 
 from ..compare.check import CheckResult
 from .citation import short_source
+from .display_units import label, point_text, quantity_text, shown
 from .loads_summary import nominal_rows, print_sections, stress_rows
 from .signoff_summary import print_signoff
 
 
 def verdict(result: CheckResult) -> str:
-    """One line: Kt with its band and whether the peak converged."""
+    """One line: Kt with its band and whether the peak converged (the peak in the part file's units)."""
     kt = result.kt
+    peak = quantity_text(result.peak.stress, "stress", result.spec.units)
     state = "converged" if kt.converged else "NOT converged"
     nominal = result.nominal
     basis = f" on the {nominal.net.label.split(',')[0]} nominal" if nominal and result.spec.load.kind != "axial" else ""
-    return (f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f}{basis} — peak {result.peak.stress:.1f} MPa "
+    return (f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f}{basis} — peak {peak} "
             f"at {result.peak.feature}, {state} in {len(result.study.levels)} mesh levels")
 
 
@@ -44,16 +46,17 @@ def print_heading(result: CheckResult, console: Console) -> None:
 
 
 def peak_rows(result: CheckResult) -> list[Row]:
-    peak = result.peak
+    peak, units = result.peak, result.spec.units
     component = "min principal" if peak.stress < 0.0 else "max principal"
-    return [(f"Peak ({component})", f"{peak.stress:.1f} MPa",
-             f"{peak.feature} at ({peak.location[0]:.2f}, {peak.location[1]:.2f}) mm"),
-            ("  on the finest mesh", f"{peak.fe_stress:.1f} MPa", "before extrapolation")]
+    return [(f"Peak ({component})", quantity_text(peak.stress, "stress", units),
+             f"{peak.feature} at {point_text(peak.location, units)}"),
+            ("  on the finest mesh", quantity_text(peak.fe_stress, "stress", units), "before extrapolation")]
 
 
 def net_section_rows(result: CheckResult) -> list[Row]:
-    ns = result.net_section
-    rows = [("Net-section average", f"{ns.average:.1f} MPa", f"N / {ns.area:.1f} mm² at x = {ns.x:g} mm")]
+    ns, units = result.net_section, result.spec.units
+    rows = [("Net-section average", quantity_text(ns.average, "stress", units),
+             f"N / {quantity_text(ns.area, 'area', units)} at x = {quantity_text(ns.x, 'length', units, 'g')}")]
     if result.spec.load.kind in ("axial", "pin") and ns.average != 0.0:
         rows.append(("Average understates peak", f"{1 - ns.average / result.peak.stress:.1%}",
                      f"peak = {abs(result.peak.stress / ns.average):.2f} × average"))
@@ -63,7 +66,7 @@ def net_section_rows(result: CheckResult) -> list[Row]:
 def kt_rows(result: CheckResult) -> list[Row]:
     kt = result.kt
     return [("Kt net / gross", f"{kt.net:.3f} / {kt.gross:.3f}",
-             f"± {kt.error:.2%}; gross average {result.gross_average:.1f} MPa")]
+             f"± {kt.error:.2%}; gross average {quantity_text(result.gross_average, 'stress', result.spec.units)}")]
 
 
 def handbook_rows(result: CheckResult) -> list[Row]:
@@ -98,18 +101,21 @@ def competing_rows(result: CheckResult) -> list[Row]:
     """Each competing raiser's own peak, net section and Kt (when more than one raiser competes)."""
     if len(result.peaks) < 2:
         return []
-    rows = []
+    rows, units = [], result.spec.units
     for p in result.peaks:
         band = f"± {p.error:.1%}" if p.error < 1.0 else "band unknown"
-        rows.append((f"  {p.feature}", f"{p.stress:.1f} MPa",
-                     f"Kt net {p.kt_net:.3f} {band}; average {p.section.average:.1f} MPa at x = {p.section.x:g} mm"))
+        rows.append((f"  {p.feature}", quantity_text(p.stress, "stress", units),
+                     f"Kt net {p.kt_net:.3f} {band}; average {quantity_text(p.section.average, 'stress', units)} "
+                     f"at x = {quantity_text(p.section.x, 'length', units, 'g')}"))
     return [("Competing peaks", "", "each raiser's own peak and net section")] + rows
 
 
 def equilibrium_rows(result: CheckResult) -> list[Row]:
     ns = result.net_section
     applied = ns.result.statics.normal_force if ns.result is not None else result.spec.load.axial
-    return [("Equilibrium", f"{ns.equilibrium_error:+.3%}", f"FE {ns.fe_force:.1f} N vs statics {applied:.1f} N")]
+    units = result.spec.units
+    return [("Equilibrium", f"{ns.equilibrium_error:+.3%}", f"FE {quantity_text(ns.fe_force, 'force', units)} "
+             f"vs statics {quantity_text(applied, 'force', units)}")]
 
 
 KEY_ROWS = (peak_rows, stress_rows, net_section_rows, kt_rows, nominal_rows, competing_rows, handbook_rows,
@@ -131,10 +137,12 @@ def print_key_numbers(result: CheckResult, console: Console) -> None:
 def print_levels(result: CheckResult, console: Console) -> None:
     """The mesh levels of the study and how the estimate was made."""
     levels = Table(title="Mesh levels", title_justify="left", box=None, pad_edge=False)
-    for column in ("level", "nodes", "elements", "peak MPa", "time s"):
+    units = result.spec.units
+    for column in ("level", "nodes", "elements", f"peak {label('stress', units)}", "time s"):
         levels.add_column(column, justify="right")
     for i, lv in enumerate(result.study.levels, start=1):
-        levels.add_row(str(i), str(lv.nodes), str(lv.elements), f"{lv.peak:.2f}", f"{sum(lv.seconds.values()):.2f}")
+        levels.add_row(str(i), str(lv.nodes), str(lv.elements), shown(lv.peak, "stress", units, ".2f"),
+                       f"{sum(lv.seconds.values()):.2f}")
     console.print(levels)
     est = result.study.estimate
     order = f", observed order {est.order:.2f}" if est.order else ""

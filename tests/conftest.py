@@ -9,6 +9,21 @@ import pytest
 from stressraiser.geometry.partfile import part_from_dict
 
 REPO = Path(__file__).resolve().parents[1]
+
+# The strap of examples/winch_strap.toml as part-file text: the base that input tests corrupt one key at a time.
+STRAP_TEXT = """[plate]
+length = 300.0
+width = 80.0
+thickness = 10.0
+[[hole]]
+center = [0.0, 0.0]
+diameter = 22.0
+[material]
+E = 210000.0
+nu = 0.3
+[load]
+axial = 120000.0
+"""
 EXAMPLES = REPO / "examples"
 
 

@@ -7,23 +7,10 @@ import sys
 
 import pytest
 
+from conftest import STRAP_TEXT
 from stressraiser.cli.main import main
 
-GOOD = """
-title = "bad-input base"
-[plate]
-length = 300.0
-width = 80.0
-thickness = 10.0
-[[hole]]
-center = [0.0, 0.0]
-diameter = 22.0
-[material]
-E = 210000.0
-nu = 0.3
-[load]
-axial = 120000.0
-"""
+GOOD = 'title = "bad-input base"\n' + STRAP_TEXT
 
 CASES = [
     # (what is wrong, replacement of a line of GOOD or full text, words the message must contain)

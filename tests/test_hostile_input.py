@@ -13,22 +13,9 @@ import pytest
 from stressraiser.cli.main import main
 from stressraiser.compare.check import check_part
 
-from conftest import EXAMPLES, plate_with_hole
+from conftest import STRAP_TEXT, EXAMPLES, plate_with_hole
 
-BASE = """title = "hostile input base"
-[plate]
-length = 300.0
-width = 80.0
-thickness = 10.0
-[[hole]]
-center = [0.0, 0.0]
-diameter = 22.0
-[material]
-E = 210000.0
-nu = 0.3
-[load]
-axial = 120000.0
-"""
+BASE = 'title = "hostile input base"\n' + STRAP_TEXT
 
 CASES = [
     # (what, part-file text, words the one-line message must contain)

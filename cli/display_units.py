@@ -1,0 +1,92 @@
+"""Numbers of the terminal summary in the part file's unit system.
+
+Every result is held in mm, N, MPa, mm², N·mm (geometry/units.py); the terminal summary shows it in the
+part file's system (`spec.units`). The row functions say how a value is shown in mm-N-MPa with a format
+spec (".1f", ".2f", "g", ...); `shown` converts the value and keeps the same resolution in the other system
+by shifting the decimals of a fixed-point spec by the order of magnitude of the unit factor (a stress in
+MPa with 1 decimal is shown in psi with none and in ksi with 2; a length in mm with 2 decimals is shown in
+inches with 3). In mm-N-MPa the factor is 1 and the text is exactly `format(value, spec)`.
+
+Section resultants are shown in larger units: kN and kN·m in mm-N-MPa (as the sections table always
+has); the US systems use their own force and moment units. JSON records are not touched: they stay in
+mm-N-MPa and declare `display_units`.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+
+from ..geometry.units import DEFAULT_SYSTEM, to_internal, unit_label
+
+_FIXED = re.compile(r"^(?P<head>[^.]*)\.(?P<decimals>\d+)f$")
+
+# (label, internal units per display unit) of section resultants, where they differ from the system's own
+_RESULTANT_UNITS: dict[str, dict[str, tuple[str, float]]] = {
+    DEFAULT_SYSTEM: {"force": ("kN", 1e3), "moment": ("kN·m", 1e6)},
+}
+
+
+def display_unit(quantity: str, units: str, resultant: bool = False) -> tuple[str, float]:
+    """(label, internal units per display unit) of `quantity` ("length", "force", "stress", "area",
+    "moment") in the system `units`; `resultant` picks the section-resultant units (kN, kN·m in mm-N-MPa)."""
+    if resultant and quantity in _RESULTANT_UNITS.get(units, {}):
+        return _RESULTANT_UNITS[units][quantity]
+    return unit_label(quantity, units), float(to_internal(1.0, quantity, units))
+
+
+def label(quantity: str, units: str, resultant: bool = False) -> str:
+    """Display label of `quantity` in `units`, e.g. "psi", "in²", "kN" (resultant forces in mm-N-MPa)."""
+    return display_unit(quantity, units, resultant)[0]
+
+
+def shown(value: float, quantity: str, units: str, spec: str = ".1f", resultant: bool = False) -> str:
+    """The number alone: `value` (internal mm, N, MPa, mm², N·mm) in `units`, formatted by `spec` as
+    written for mm-N-MPa (fixed-point decimals shifted by the unit factor's order of magnitude)."""
+    factor = display_unit(quantity, units, resultant)[1]
+    reference = display_unit(quantity, DEFAULT_SYSTEM, resultant)[1]
+    fixed = _FIXED.match(spec)
+    if fixed is not None and factor != reference:
+        shift = round(math.log10(factor / reference))
+        spec = f"{fixed['head']}.{max(0, int(fixed['decimals']) + shift)}f"
+    return format(value / factor, spec)
+
+
+def quantity_text(value: float, quantity: str, units: str, spec: str = ".1f", resultant: bool = False) -> str:
+    """`shown` followed by the unit label, e.g. "25993 psi" or "179.2 MPa"."""
+    return f"{shown(value, quantity, units, spec, resultant)} {label(quantity, units, resultant)}"
+
+
+def shown_point(location: tuple[float, float], units: str, spec: str = ".2f") -> str:
+    """A point (x, y) in mm shown in `units` without its label, e.g. "(0.000, 0.250)"."""
+    x, y = (shown(c, "length", units, spec) for c in location[:2])
+    return f"({x}, {y})"
+
+
+def point_text(location: tuple[float, float], units: str, spec: str = ".2f") -> str:
+    """`shown_point` followed by the length label, e.g. "(0.000, 0.250) in"."""
+    return f"{shown_point(location, units, spec)} {label('length', units)}"
+
+
+_THROUGH = re.compile(r"^through \((?P<x1>[^,()]+), (?P<y1>[^,()]+)\) and \((?P<x2>[^,()]+), (?P<y2>[^,()]+)\)$")
+
+
+def cut_label(text: str, point: tuple[float, float], units: str) -> str:
+    """The label of a section cut in `units`. Unnamed cuts are labelled in mm by the part reader ("x = 38.1",
+    "through (0, -5) and (0, 5)", from `point`, the cut's first point in mm); those are re-stated in `units`
+    with the length label. Names the user gave, and every label in mm-N-MPa, are returned as they are."""
+    if units == DEFAULT_SYSTEM:
+        return text
+    length = label("length", units)
+    for axis, coordinate in (("x", point[0]), ("y", point[1])):
+        if text == f"{axis} = {coordinate:g}":
+            return f"{axis} = {shown(coordinate, 'length', units, 'g')} {length}"
+    through = _THROUGH.match(text)
+    if through is not None and (through["x1"], through["y1"]) == (f"{point[0]:g}", f"{point[1]:g}"):
+        try:
+            x1, y1, x2, y2 = (float(through[k]) for k in ("x1", "y1", "x2", "y2"))
+        except ValueError:
+            return text
+        a, b = shown_point((x1, y1), units, "g"), shown_point((x2, y2), units, "g")
+        return f"through {a} and {b} {length}"
+    return text
