@@ -8,15 +8,14 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..fem.analysis import Solution
-from ..fem.convergence import Level, Study, converge
-from ..fem.convergence import MIN_LEVELS, richardson
-from ..geometry.outline import nearest_raiser, part_polygon, plate_polygon, raiser_sections
+from ..fem.convergence import MIN_LEVELS, Level, Study, converge, richardson
+from ..geometry.outline import nearest_raiser, plate_polygon, raiser_sections
 from ..geometry.spec import PartSpec, SectionSpec
 from .guards import result_warnings
 from .handbook import Match, handbook_matches
 from .method_of_sections import SectionResult, section_result, section_results
 from .nominal import NominalSet, critical_cut, nominal_stresses
-from .sections import Cut, cut_resultants, ligaments
+from .sections import Cut, ligaments
 from .stress_peaks import StressPeaks, stress_peaks
 from .signoff import DesignSignOff, FatigueSignOff, with_signoff
 

@@ -5,7 +5,6 @@ is valid, a correct result.
 
 from __future__ import annotations
 
-import json
 import os
 
 import pytest

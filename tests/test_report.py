@@ -13,7 +13,6 @@ import re
 import shutil
 import subprocess
 import xml.etree.ElementTree as ET
-from pathlib import Path
 
 import numpy as np
 import pytest
