@@ -16,27 +16,26 @@ reliably enough to cite.
 
 from __future__ import annotations
 
-import math
 from collections.abc import Callable
 from dataclasses import replace
 
 from ..geometry.spec import Load, PartSpec
-from .case_types import Case, Recognised
+from .case_types import Case, Recognised, Coefficients, two_range_cubic
+
+
+_U_NOTCHES_BENDING_LOW: Coefficients = ((1.024, 2.092, -0.051), (-0.63, -7.194, 1.288), (2.117, 8.574, -2.16), (-1.42, -3.494, 0.932))
+_U_NOTCHES_BENDING_HIGH: Coefficients = ((1.113, 1.957, 0.0), (-2.579, -4.017, -0.013), (4.1, 3.922, 0.083), (-1.528, -1.893, -0.066))
 
 
 def opposite_u_notches_bending(p: dict[str, float]) -> float:
     """Two opposite U-notches, in-plane bending, Kt on 6 M / (t d^2), d = D - 2h (Pilkey & Pilkey,
     Peterson's Stress Concentration Factors, 3rd ed., 2008, chart 2.25 fit; the same fit in Young & Budynas,
     Roark's Formulas for Stress and Strain, 7th ed., table 17.1 (from memory))."""
-    hr, x = p["h/r"], p["2h/D"]
-    s = math.sqrt(hr)
-    if hr <= 2.0:
-        c = (1.024 + 2.092 * s - 0.051 * hr, -0.630 - 7.194 * s + 1.288 * hr,
-             2.117 + 8.574 * s - 2.160 * hr, -1.420 - 3.494 * s + 0.932 * hr)
-    else:
-        c = (1.113 + 1.957 * s, -2.579 - 4.017 * s - 0.013 * hr,
-             4.100 + 3.922 * s + 0.083 * hr, -1.528 - 1.893 * s - 0.066 * hr)
-    return c[0] + c[1] * x + c[2] * x * x + c[3] * x ** 3
+    return two_range_cubic(p, _U_NOTCHES_BENDING_LOW, _U_NOTCHES_BENDING_HIGH)
+
+
+_STEP_BENDING_LOW: Coefficients = ((1.006, 0.967, 0.013), (-0.27, -2.372, 0.708), (0.662, 1.157, -0.908), (-0.405, 0.249, 0.2))
+_STEP_BENDING_HIGH: Coefficients = ((1.058, 1.002, -0.038), (-3.652, 1.639, -0.436), (6.17, -5.687, 1.175), (-2.558, 3.046, -0.701))
 
 
 def stepped_bar_bending(p: dict[str, float]) -> float:
@@ -44,15 +43,7 @@ def stepped_bar_bending(p: dict[str, float]) -> float:
     (Pilkey & Pilkey, Peterson's Stress Concentration Factors, 3rd ed., 2008, chapter 3 fit for a stepped
     flat bar in bending; the same fit in Young & Budynas, Roark's Formulas for Stress and Strain, 7th ed.,
     table 17.1 (from memory))."""
-    hr, x = p["h/r"], p["2h/D"]
-    s = math.sqrt(hr)
-    if hr <= 2.0:
-        c = (1.006 + 0.967 * s + 0.013 * hr, -0.270 - 2.372 * s + 0.708 * hr,
-             0.662 + 1.157 * s - 0.908 * hr, -0.405 + 0.249 * s + 0.200 * hr)
-    else:
-        c = (1.058 + 1.002 * s - 0.038 * hr, -3.652 + 1.639 * s - 0.436 * hr,
-             6.170 - 5.687 * s + 1.175 * hr, -2.558 + 3.046 * s - 0.701 * hr)
-    return c[0] + c[1] * x + c[2] * x * x + c[3] * x ** 3
+    return two_range_cubic(p, _STEP_BENDING_LOW, _STEP_BENDING_HIGH)
 
 
 _SOURCE_NOTCHES = ("W. D. Pilkey and D. F. Pilkey, Peterson's Stress Concentration Factors, 3rd ed. (2008), chart "

@@ -4,6 +4,7 @@ family (raiser_cases.py, bending_cases.py) can import them in any order."""
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable
 from dataclasses import dataclass
 
@@ -53,3 +54,16 @@ class Match:
     kt_net: float
     kt_gross: float
     in_range: bool
+
+
+Coefficients = tuple[tuple[float, float, float], ...]  # four rows (a, b, c): C_i = a + b sqrt(h/r) + c h/r
+
+
+def two_range_cubic(p: dict[str, float], low: Coefficients, high: Coefficients) -> float:
+    """The handbook curve-fit form Kt = C1 + C2 x + C3 x^2 + C4 x^3 with x = p["2h/D"], whose coefficients
+    C_i = a + b sqrt(h/r) + c h/r come from `low` for h/r <= 2 and from `high` above (Young & Budynas,
+    Roark's Formulas for Stress and Strain, 7th ed., table 17.1 form)."""
+    hr, x = p["h/r"], p["2h/D"]
+    s = math.sqrt(hr)
+    c = [a + b * s + k * hr for a, b, k in (low if hr <= 2.0 else high)]
+    return c[0] + c[1] * x + c[2] * x * x + c[3] * x ** 3

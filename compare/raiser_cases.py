@@ -14,7 +14,7 @@ from collections.abc import Callable
 
 from ..geometry.shapes import ellipse_shape, step_shape
 from ..geometry.spec import PartSpec
-from .case_types import Case, Recognised
+from .case_types import Case, Recognised, Coefficients, two_range_cubic
 
 POSITION_TOLERANCE = 0.01  # centres within 1 % of the width of where the case puts them
 END_CLEARANCE = 1.0  # raiser at least one plate width from either end (common practice)
@@ -104,18 +104,14 @@ def build_ellipse(params: dict[str, float], width: float = 400.0) -> dict:
 
 # --- edge notches --------------------------------------------------------------------------------------
 
+_U_NOTCHES_LOW: Coefficients = ((0.85, 2.628, -0.413), (-1.119, -4.826, 2.575), (3.563, -0.514, -2.402), (-2.294, 2.713, 0.24))
+_U_NOTCHES_HIGH: Coefficients = ((0.833, 2.069, -0.009), (2.732, -4.157, 0.176), (-8.859, 5.327, -0.32), (6.294, -3.239, 0.154))
+
+
 def roark_opposite_u_notches(p: dict[str, float]) -> float:
     """Young & Budynas, Roark's Formulas for Stress and Strain, 7th ed., table 17.1 (from memory; shared
     REFERENCES.md section 3): Kt = C1 + C2 x + C3 x^2 + C4 x^3, x = 2h/D, on the net section."""
-    hr, x = p["h/r"], p["2h/D"]
-    s = math.sqrt(hr)
-    if hr <= 2.0:
-        c = (0.850 + 2.628 * s - 0.413 * hr, -1.119 - 4.826 * s + 2.575 * hr,
-             3.563 - 0.514 * s - 2.402 * hr, -2.294 + 2.713 * s + 0.240 * hr)
-    else:
-        c = (0.833 + 2.069 * s - 0.009 * hr, 2.732 - 4.157 * s + 0.176 * hr,
-             -8.859 + 5.327 * s - 0.320 * hr, 6.294 - 3.239 * s + 0.154 * hr)
-    return c[0] + c[1] * x + c[2] * x * x + c[3] * x ** 3
+    return two_range_cubic(p, _U_NOTCHES_LOW, _U_NOTCHES_HIGH)
 
 
 def peterson_semicircular_notches(p: dict[str, float]) -> float:
@@ -207,18 +203,14 @@ def build_edge_notch(params: dict[str, float], width: float = 400.0) -> dict:
 
 # --- stepped flat bar with shoulder fillets ---------------------------------------------------------------
 
+_STEP_LOW: Coefficients = ((1.007, 1.0, -0.031), (-0.114, -0.585, 0.314), (0.241, -0.992, -0.271), (-0.134, 0.577, -0.012))
+_STEP_HIGH: Coefficients = ((1.042, 0.982, -0.036), (-0.074, -0.156, -0.01), (-3.418, 1.22, -0.005), (3.45, -2.046, 0.051))
+
+
 def roark_stepped_bar(p: dict[str, float]) -> float:
     """Young & Budynas, Roark's Formulas for Stress and Strain, 7th ed., table 17.1 (from memory; shared
     REFERENCES.md section 4): Kt = C1 + C2 x + C3 x^2 + C4 x^3, x = 2h/D, on the narrow section."""
-    hr, x = p["h/r"], p["2h/D"]
-    s = math.sqrt(hr)
-    if hr <= 2.0:
-        c = (1.007 + 1.000 * s - 0.031 * hr, -0.114 - 0.585 * s + 0.314 * hr,
-             0.241 - 0.992 * s - 0.271 * hr, -0.134 + 0.577 * s - 0.012 * hr)
-    else:
-        c = (1.042 + 0.982 * s - 0.036 * hr, -0.074 - 0.156 * s - 0.010 * hr,
-             -3.418 + 1.220 * s - 0.005 * hr, 3.450 - 2.046 * s + 0.051 * hr)
-    return c[0] + c[1] * x + c[2] * x * x + c[3] * x ** 3
+    return two_range_cubic(p, _STEP_LOW, _STEP_HIGH)
 
 
 def recognise_stepped_bar(spec: PartSpec) -> Recognised | None:
