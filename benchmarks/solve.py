@@ -2,13 +2,14 @@
 (`spsolve`, SuperLU with its default COLAMD column ordering) on the same systems: the bundled strap
 meshed at about 50k, 200k and 800k DOFs, loaded and held as the part file says.
 
-Strategies: "superlu" (SuperLU, symmetric mode, minimum degree on A^T + A: our direct solve without the
-optional extra), "cholmod" (CHOLMOD with METIS, when scikit-sparse is installed), "amg-cg" (smoothed-
-aggregation multigrid CG to a 1e-10 relative residual), "spsolve" (scipy's default). Each runs in its own
+Strategies: "superlu" (SuperLU, symmetric mode, minimum degree on A^T + A: our direct solve below 120k
+DOFs and without the optional extra), "pardiso" (oneMKL PARDISO Cholesky, METIS, 2 x 2 block grouping: the
+`fast` extra, what "auto" uses above 120k DOFs when installed), "amg-cg" (smoothed-aggregation multigrid CG
+to a 1e-10 relative residual: "auto" above 120k DOFs without the extra), "spsolve" (scipy's default). Each runs in its own
 process: best-of-n wall and CPU time, peak memory, relative residual, and the largest displacement
 difference from the first strategy that ran. Asserts nothing. Usage:
 
-    python benchmarks/solve.py [--sizes 50000 200000 800000] [--methods superlu cholmod amg-cg spsolve]
+    python benchmarks/solve.py [--sizes 50000 200000 800000] [--methods superlu pardiso amg-cg spsolve]
                                [--repeat 2] [--spsolve-max 250000]
 """
 
@@ -61,12 +62,13 @@ def child(method: str, size: int, repeat: int) -> None:
             return u, 0
     else:
         if method == "superlu":
-            solve_module.cholmod_available = lambda: False
+            solve_module.pardiso_available = lambda: False
             solver = "direct"
-        elif method == "cholmod":
-            if not solve_module.cholmod_available():
-                print('{"error": "scikit-sparse is not installed"}')
+        elif method == "pardiso":
+            if not solve_module.pardiso_available():
+                print('{"error": "pypardiso is not installed"}')
                 return
+            solve_module.LARGE_FROM = 0  # PARDISO at every size measured here
             solver = "direct"
         else:
             solver = "iterative"
@@ -85,7 +87,7 @@ def child(method: str, size: int, repeat: int) -> None:
 def main() -> None:
     parser = argparse.ArgumentParser()
     parser.add_argument("--sizes", type=int, nargs="+", default=[50_000, 200_000, 800_000])
-    parser.add_argument("--methods", nargs="+", default=["superlu", "cholmod", "amg-cg", "spsolve"])
+    parser.add_argument("--methods", nargs="+", default=["superlu", "pardiso", "amg-cg", "spsolve"])
     parser.add_argument("--repeat", type=int, default=2)
     parser.add_argument("--spsolve-max", type=int, default=250_000,
                         help="largest size at which scipy's default solve is run (it is slow and memory-hungry)")

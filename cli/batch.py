@@ -74,8 +74,17 @@ def run_case(part: dict) -> dict:
 
 
 def summary_row(result) -> dict[str, Any]:
-    """The numbers of one CheckResult that a table of many cases shows (mm, N, MPa; kt_error relative)."""
+    """The numbers of one CheckResult that a table of many cases shows (mm, N, MPa; kt_error relative).
+
+    kt_net / kt_gross / kt_error / converged are the part's governing peak (what signs the part off).
+    case_raiser / case_kt_net / case_kt_gross / case_kt_error / case_converged are those of the raiser the
+    preferred handbook case describes (compare/case_kt.py: the middle hole of a row of holes), the Kt a
+    handbook comparison uses; when the case describes the part's peak, or no case covers the part, they
+    equal the governing values and case_raiser is the governing feature."""
+    from ..compare.case_kt import case_kt
+
     preferred = result.handbook[0] if result.handbook else None
+    described = case_kt(result, preferred)
     row = {
         "status": STATUS_OK,
         "error": None,
@@ -97,6 +106,11 @@ def summary_row(result) -> dict[str, Any]:
         "handbook_kt_net": preferred.kt_net if preferred else None,
         "handbook_kt_gross": preferred.kt_gross if preferred else None,
         "handbook_in_range": bool(preferred.in_range) if preferred else None,
+        "case_raiser": described.raiser,
+        "case_kt_net": described.kt_net,
+        "case_kt_gross": described.kt_gross,
+        "case_kt_error": described.error,
+        "case_converged": described.converged,
     }
     return {k: _plain(v) for k, v in row.items()}
 
@@ -112,7 +126,8 @@ def _plain(value: Any) -> Any:
 ROW_FIELDS = (  # every key of a row, in table order
     "status", "error", "peak", "peak_fe", "peak_x", "peak_y", "feature", "average", "gross_average", "kt_net",
     "kt_gross", "kt_error", "converged", "equilibrium_error", "levels", "elements", "handbook_case",
-    "handbook_kt_net", "handbook_kt_gross", "handbook_in_range", "seconds",
+    "handbook_kt_net", "handbook_kt_gross", "handbook_in_range", "case_raiser", "case_kt_net", "case_kt_gross",
+    "case_kt_error", "case_converged", "seconds",
 )
 
 

@@ -42,7 +42,7 @@ def run(args: argparse.Namespace) -> int:
     spec = with_max_elements(with_sections(load_part(args.part), args.section), args.max_elements)
     report_dir = _report_folder(args.report) if args.report else None
     out = Console(highlight=False, soft_wrap=True)
-    with LevelProgress(Console(stderr=True, highlight=False), enabled=not args.quiet) as progress:
+    with LevelProgress(Console(stderr=True, highlight=False), enabled=not args.quiet, units=spec.units) as progress:
         result = check_part(spec, progress)
         if report_dir is not None:
             progress.stage(f"drawing the figures and writing the report to {report_dir}")

@@ -7,9 +7,13 @@ by shifting the decimals of a fixed-point spec by the order of magnitude of the 
 MPa with 1 decimal is shown in psi with none and in ksi with 2; a length in mm with 2 decimals is shown in
 inches with 3). In mm-N-MPa the factor is 1 and the text is exactly `format(value, spec)`.
 
+A number that rounds to zero is shown without a sign ("0.00", never "-0.00"): a coordinate on an axis is
+often -1e-15 after meshing.
+
 Section resultants are shown in larger units: kN and kN·m in mm-N-MPa (as the sections table always
 has); the US systems use their own force and moment units. JSON records are not touched: they stay in
-mm-N-MPa and declare `display_units`.
+mm-N-MPa and declare `display_units`. The same holds for the warnings of a check (compare/notices.py):
+`warning_text` writes them in the part file's system, the record keeps their mm-N-MPa text.
 """
 
 from __future__ import annotations
@@ -17,7 +21,8 @@ from __future__ import annotations
 import math
 import re
 
-from ..geometry.units import DEFAULT_SYSTEM, to_internal, unit_label
+from ..compare.notices import Notice
+from ..geometry.units import DEFAULT_SYSTEM, format_number, to_internal, unit_label
 
 _FIXED = re.compile(r"^(?P<head>[^.]*)\.(?P<decimals>\d+)f$")
 
@@ -49,7 +54,25 @@ def shown(value: float, quantity: str, units: str, spec: str = ".1f", resultant:
     if fixed is not None and factor != reference:
         shift = round(math.log10(factor / reference))
         spec = f"{fixed['head']}.{max(0, int(fixed['decimals']) + shift)}f"
-    return format(value / factor, spec)
+    return unsigned_zero(format(value / factor, spec))
+
+
+def unsigned_zero(text: str) -> str:
+    """`text` without its minus sign when the number it shows is zero ("-0.00" -> "0.00", "-0" -> "0")."""
+    if text.startswith("-"):
+        try:
+            if float(text.rstrip("%")) == 0.0:
+                return text[1:]
+        except ValueError:
+            pass
+    return text
+
+
+def significant(value: float, quantity: str, units: str, digits: int = 4, resultant: bool = False) -> str:
+    """`value` (internal units) in `units` to `digits` significant figures with the unit label, e.g. "0.375 in²"
+    (geometry.units.format_number: trailing zeros dropped, plain decimals from 1e-3 to 1e7)."""
+    name, factor = display_unit(quantity, units, resultant)
+    return f"{format_number(value / factor, digits)} {name}"
 
 
 def quantity_text(value: float, quantity: str, units: str, spec: str = ".1f", resultant: bool = False) -> str:
@@ -90,3 +113,8 @@ def cut_label(text: str, point: tuple[float, float], units: str) -> str:
         a, b = shown_point((x1, y1), units, "g"), shown_point((x2, y2), units, "g")
         return f"through {a} and {b} {length}"
     return text
+
+
+def warning_text(warning: Notice | str, units: str) -> str:
+    """A warning of a check in `units`: its numbers converted and labelled, unnamed cut labels restated."""
+    return warning.text(units, cut_label) if isinstance(warning, Notice) else str(warning)

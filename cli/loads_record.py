@@ -7,6 +7,7 @@ from typing import Any
 
 from ..compare.check import CheckResult
 from ..compare.method_of_sections import SectionResult
+from ..fem.loads import pin_peak_pressure
 from ..geometry.spec import PartSpec
 
 
@@ -19,8 +20,27 @@ def load_record(spec: PartSpec) -> dict[str, Any]:
     if load.pin is not None:
         hole = spec.holes[load.pin.hole - 1]
         out["pin"] = {"hole": load.pin.hole, "force": load.pin.force, "direction": load.pin.direction,
-                      "bearing_stress": load.pin.force / (hole.diameter * spec.plate.thickness)}
+                      "bearing_stress": load.pin.force / (hole.diameter * spec.plate.thickness),
+                      "contact": load.pin.contact, "clearance": load.pin.clearance}
     return out
+
+
+def pin_contact_record(result: CheckResult) -> dict[str, Any] | None:
+    """How the pin bore on its hole on the finest mesh: the cosine pressure's arc and peak (exact), or the
+    rigid pin's contact found by the solve (mm, N, MPa, degrees); None without a pin."""
+    pin = result.spec.load.pin
+    if pin is None:
+        return None
+    contact = result.solution.contact
+    if contact is None:  # the cosine pressure of common practice
+        d = result.spec.holes[pin.hole - 1].diameter
+        return {"model": pin.contact, "clearance": 0.0, "arc": [-90.0, 90.0],
+                "peak_pressure": pin_peak_pressure(pin.force, d, result.spec.plate.thickness), "passes": None,
+                "pin_displacement": None, "penetration": None, "resultant": None}
+    return {"model": pin.contact, "clearance": contact.clearance, "arc": list(contact.arc),
+            "peak_pressure": contact.peak_pressure, "passes": contact.passes,
+            "pin_displacement": list(contact.pin_displacement), "penetration": contact.penetration,
+            "resultant": [float(v) for v in contact.forces.sum(axis=0)]}
 
 
 def support_record(spec: PartSpec) -> dict[str, Any]:

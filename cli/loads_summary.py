@@ -1,4 +1,5 @@
-"""Terminal rows and blocks for loads: which nominal each Kt uses, the stress peaks, and section cuts."""
+"""Terminal rows and blocks for loads: the nominal stresses besides the Kt ones, the stress peaks, and
+section cuts."""
 
 from __future__ import annotations
 
@@ -13,18 +14,38 @@ Row = tuple[str, str, str]
 
 
 def nominal_rows(result: CheckResult) -> list[Row]:
-    """Each nominal stress of the load, its formula and the Kt it gives; the first two give Kt net/gross."""
+    """The load's other nominal stresses (those the Kt rows of cli/summary.py do not use), each with its
+    value, the Kt it would give and its formula."""
     n = result.nominal
     if n is None:
         return []
-    rows = [("Kt net / gross use", "", f"{n.net.label} / {n.gross.label}")]
-    for nom in n.all:
+    others = [nom for nom in n.all if nom.key not in (n.net.key, n.gross.key)]
+    if not others:
+        return []
+    rows = [("Other nominals", "", "the Kt each would give")]
+    for nom in others:
         kt = f"Kt {nom.kt:.3f}" if nom.kt is not None else "Kt —"
         rows.append((f"  {nom.label}", quantity_text(nom.stress, "stress", result.spec.units),
                      f"{kt}; {escape(nom.formula)}"))
-    if result.spec.load.pin is not None:
-        rows.append(("", "", "bearing stress P / (d t): the pin's force over its projected contact area"))
+    if any(nom.key == "bearing" for nom in others):
+        rows.append(("", "", "bearing stress: the pin's force over its projected contact area"))
     return rows
+
+
+def pin_rows(result: CheckResult) -> list[Row]:
+    """Which pin model bore on the hole: the cosine pressure, or the rigid pin's contact arc, peak pressure
+    and active-set passes on the finest mesh."""
+    pin, units = result.spec.load.pin, result.spec.units
+    if pin is None:
+        return []
+    contact = result.solution.contact
+    if contact is None:
+        return [("Pin model", "cosine", "p0 cos(a - direction) on the loaded half (common practice)")]
+    fit = "neat fit" if pin.clearance == 0.0 else f"clearance {quantity_text(pin.clearance, 'length', units)}"
+    return [("Pin model", "rigid", f"frictionless contact, {fit}"),
+            ("  contact arc", f"{contact.arc[0]:+.1f}° … {contact.arc[1]:+.1f}°",
+             f"from the pin's line; peak pressure {quantity_text(contact.peak_pressure, 'stress', units)}, "
+             f"{contact.passes} active-set pass{'es' if contact.passes != 1 else ''}")]
 
 
 def stress_rows(result: CheckResult) -> list[Row]:

@@ -1,8 +1,12 @@
 """The figures of a check: pure functions from a CheckResult (or one of its parts) to a matplotlib Figure.
 
-Lengths in mm, stresses in MPa, Kt dimensionless. Figures are built with `matplotlib.figure.Figure`
-directly (no pyplot, no global state) and rendered by the Agg/SVG backends when saved, so nothing here
-needs a display. matplotlib is slow to import: import this module only when figures are wanted.
+Data stay in the internal units (lengths in mm, stresses in MPa; Kt dimensionless); what a reader sees is
+in the part file's unit system (`spec.units`): each dimensional axis places its ticks at round numbers of
+the display unit and labels them in it (`unit_axis`, `unit_colorbar`), and every number written on a
+figure goes through cli/display_units.py, the one place that converts for display. Figures are built
+with `matplotlib.figure.Figure` directly (no pyplot, no global state) and rendered by the Agg/SVG
+backends when saved, so nothing here needs a display. matplotlib is slow to import: import this module
+only when figures are wanted.
 
 Colour maps are perceptually uniform (viridis); line colours are this project's own small palette.
 """
@@ -17,11 +21,14 @@ import numpy as np
 from matplotlib.figure import Figure
 from matplotlib.lines import Line2D
 from matplotlib.patches import FancyArrowPatch, Polygon as PolygonPatch
+from matplotlib.ticker import AutoLocator, Formatter
 from matplotlib.tri import Triangulation
 
 from ..compare.check import CheckResult
 from ..geometry.outline import part_polygon
+from ..geometry.units import DEFAULT_SYSTEM
 from .citation import short_source
+from .display_units import cut_label, display_unit, label as unit_label, point_text, quantity_text, shown, unsigned_zero
 
 INK = "#222222"
 FE_LINE = "#2a5f8f"  # finite-element values
@@ -67,13 +74,12 @@ class SectionView:
     def across_x(self) -> bool:
         return bool(np.allclose(self.normal, (1.0, 0.0)))
 
-    @property
-    def where(self) -> str:
-        """Where the cut is, in words: "x = 0 mm" or "through (x, y) mm, normal (nx, ny)"."""
+    def where(self, units: str = DEFAULT_SYSTEM) -> str:
+        """Where the cut is, in words and in `units`: "x = 0 mm" or "through (x, y) mm, normal (nx, ny)"."""
         if self.across_x:
-            return f"x = {self.point[0]:g} mm"
-        (px, py), (nx, ny) = self.point, self.normal
-        return f"through ({px:.4g}, {py:.4g}) mm, normal ({nx:.3f}, {ny:.3f})"
+            return f"x = {quantity_text(self.point[0], 'length', units, 'g')}"
+        (nx, ny) = self.normal
+        return f"through {point_text(tuple(self.point), units, '.4g')}, normal ({nx:.3f}, {ny:.3f})"
 
     def position(self, xy: tuple[float, float]) -> tuple[float, float]:
         """(position along the cut, distance off the cut) of a point, mm."""
@@ -207,12 +213,60 @@ def _box(ax, window, colour: str) -> None:
                               lw=1.2, zorder=5))
 
 
-def _frame(ax, xlim, ylim, xlabel: str = "x (mm)", ylabel: str = "y (mm)") -> None:
+class DisplayLocator(AutoLocator):
+    """Ticks at round numbers of a display unit on an axis whose data are in internal units; `factor` is
+    internal units per display unit (cli/display_units.display_unit)."""
+
+    def __init__(self, factor: float) -> None:
+        super().__init__()
+        self.factor = factor
+
+    def tick_values(self, vmin: float, vmax: float) -> np.ndarray:
+        return np.asarray(super().tick_values(vmin / self.factor, vmax / self.factor)) * self.factor
+
+
+class DisplayFormatter(Formatter):
+    """Tick labels in a display unit: data / factor with the fewest decimals (at most 6) that show every
+    tick exactly, the same for all ticks of the axis; a zero carries no sign."""
+
+    def __init__(self, factor: float) -> None:
+        self.factor = factor
+        self.decimals = 0
+
+    def set_locs(self, locs) -> None:
+        super().set_locs(locs)
+        values = [float(v) / self.factor for v in locs]
+        self.decimals = next((d for d in range(7) if all(abs(round(v, d) - v) <= 1e-9 * max(1.0, abs(v))
+                                                          for v in values)), 6)
+
+    def __call__(self, x: float, pos: int | None = None) -> str:
+        return unsigned_zero(f"{x / self.factor:.{self.decimals}f}").replace("-", "\N{MINUS SIGN}")
+
+
+def unit_axis(axis, quantity: str, units: str, text: str) -> None:
+    """Ticks of a matplotlib `axis` (x or y, data in internal units) at round numbers of `quantity`'s
+    display unit in `units`, labelled in it; the axis title is "text (unit)"."""
+    name, factor = display_unit(quantity, units)
+    axis.set_major_locator(DisplayLocator(factor))
+    axis.set_major_formatter(DisplayFormatter(factor))
+    axis.set_label_text(f"{text} ({name})")
+
+
+def unit_colorbar(colorbar, quantity: str, units: str, text: str) -> None:
+    """A colour bar of data in internal units ticked and labelled in the display unit, like unit_axis."""
+    name, factor = display_unit(quantity, units)
+    colorbar.locator = DisplayLocator(factor)
+    colorbar.formatter = DisplayFormatter(factor)
+    colorbar.set_label(f"{text} ({name})")
+
+
+def _frame(ax, xlim, ylim, units: str) -> None:
+    """An equal-aspect view of the part, limits in mm, axes x and y in the display length unit."""
     ax.set_aspect("equal")
     ax.set_xlim(*xlim)
     ax.set_ylim(*ylim)
-    ax.set_xlabel(xlabel)
-    ax.set_ylabel(ylabel)
+    unit_axis(ax.xaxis, "length", units, "x")
+    unit_axis(ax.yaxis, "length", units, "y")
 
 
 def _padded(result: CheckResult, pad: float = 0.04) -> tuple[tuple[float, float], tuple[float, float]]:
@@ -236,9 +290,9 @@ def _dimension(ax, a: tuple[float, float], b: tuple[float, float], text: str, of
             bbox=dict(boxstyle="round,pad=0.2", facecolor="white", edgecolor="none"))
 
 
-def _fmt(value: float, unit: str = "") -> str:
-    text = f"{value:.4g}"
-    return f"{text} {unit}".strip()
+def _fmt(value: float, quantity: str, units: str, resultant: bool = False) -> str:
+    """An internal value written on a drawing: 4 significant figures in `units`, with the unit label."""
+    return quantity_text(value, quantity, units, ".4g", resultant)
 
 
 # --- the part ---------------------------------------------------------------------------------------
@@ -246,7 +300,7 @@ def _fmt(value: float, unit: str = "") -> str:
 def outline_figure(result: CheckResult) -> Figure:
     """Dimensioned outline of the part: overall length and width, each hole numbered (diameters and
     centres listed below the drawing), the held end, the loads and the critical sections."""
-    spec = result.spec
+    spec, units = result.spec, result.spec.units
     minx, miny, maxx, maxy = _bounds(result)
     length, width = maxx - minx, maxy - miny
     step = 0.09 * max(length, width)
@@ -256,8 +310,8 @@ def outline_figure(result: CheckResult) -> Figure:
     fig = _figure(height=(WIDTH_IN - 0.8) * (ylim[1] - ylim[0]) / (xlim[1] - xlim[0]) + 0.8 + 0.22 * rows)
     ax = fig.add_subplot()
     _outline_patches(result, ax)
-    _dimension(ax, (minx, miny), (maxx, miny), f"{_fmt(length)} mm", (0.0, -1.3 * step))
-    _dimension(ax, (minx, miny), (minx, maxy), f"{_fmt(width)} mm", (-0.9 * step, 0.0), rotation=90)
+    _dimension(ax, (minx, miny), (maxx, miny), _fmt(length, "length", units), (0.0, -1.3 * step))
+    _dimension(ax, (minx, miny), (minx, maxy), _fmt(width, "length", units), (-0.9 * step, 0.0), rotation=90)
     _draw_support(ax, spec, (minx, miny, maxx, maxy), step)
     _draw_loads(ax, spec, (minx, miny, maxx, maxy), step)
     handles = []
@@ -270,7 +324,8 @@ def outline_figure(result: CheckResult) -> Figure:
         ax.annotate(str(n), xy=(cx + 0.71 * r, cy + 0.71 * r), xytext=(4, 4), textcoords="offset points",
                     fontsize=9, fontweight="bold", color=INK)
         handles.append(Line2D([], [], ls="none", marker=f"${n}$", color=INK, markersize=7,
-                              label=f"hole {n}: Ø{_fmt(hole.diameter)} mm, centre ({_fmt(cx)}, {_fmt(cy)}) mm"))
+                              label=f"hole {n}: Ø{_fmt(hole.diameter, 'length', units)}, centre "
+                                    f"{point_text((cx, cy), units, '.4g')}"))
     if handles:
         fig.legend(handles=handles, loc="outside lower center", ncols=min(3, len(handles)), fontsize=9,
                    frameon=False, handletextpad=0.3, columnspacing=1.5)
@@ -288,11 +343,11 @@ def outline_figure(result: CheckResult) -> Figure:
         low = a if a[1] <= b[1] else b
         names = ", ".join(v.label.removeprefix("section ") for v in views)
         label = ("sections " if len(views) > 1 else "section ") + names
-        ax.text(low[0], low[1] - 0.1 * step, label + (f"\n{view.where}" if view.across_x else ""),
+        ax.text(low[0], low[1] - 0.1 * step, label + (f"\n{view.where(units)}" if view.across_x else ""),
                 ha="center", va="top", fontsize=8, color=FE_LINE)
-    ax.text(0.99, 0.01, f"thickness {_fmt(spec.plate.thickness)} mm · origin at the plate centre",
+    ax.text(0.99, 0.01, f"thickness {_fmt(spec.plate.thickness, 'length', units)} · origin at the plate centre",
             transform=ax.transAxes, ha="right", va="bottom", fontsize=8, color=GROSS_LINE)
-    _frame(ax, xlim, ylim)
+    _frame(ax, xlim, ylim, units)
     for side in ("top", "right"):
         ax.spines[side].set_visible(False)
     return fig
@@ -317,9 +372,10 @@ def _arrow(ax, tail, head, colour: str = AVERAGE_LINE) -> None:
 
 def _draw_loads(ax, spec, bounds, step: float) -> None:
     """Arrows and labels for the loads the part file gives: end force, moment and shear, a pin through a
-    hole, or a remote stress state. Forces in kN, moments in N·m on the drawing."""
+    hole, or a remote stress state. Forces and moments in the section-resultant units of the part file's
+    system (kN and kN·m in mm-N-MPa), stresses in its stress unit."""
     minx, miny, maxx, maxy = bounds
-    load = spec.load
+    load, units = spec.load, spec.units
     width = maxy - miny
     notes = []
     axial = float(getattr(load, "axial", 0.0) or 0.0)
@@ -327,20 +383,20 @@ def _draw_loads(ax, spec, bounds, step: float) -> None:
         tail, head = (maxx + 0.2 * step, maxx + 1.3 * step) if axial > 0 else (maxx + 1.3 * step, maxx + 0.2 * step)
         for y in np.linspace(miny + 0.2 * width, maxy - 0.2 * width, 3):
             _arrow(ax, (tail, y), (head, y))
-        notes.append(f"P = {_fmt(abs(axial) / 1000.0)} kN " + ("tension" if axial > 0 else "compression"))
+        notes.append(f"P = {_fmt(abs(axial), 'force', units, True)} " + ("tension" if axial > 0 else "compression"))
     shear = float(getattr(load, "shear", 0.0) or 0.0)
     if shear:
         x = maxx + 1.45 * step
         y0, y1 = (miny + 0.1 * width, maxy - 0.1 * width) if shear > 0 else (maxy - 0.1 * width, miny + 0.1 * width)
         _arrow(ax, (x, y0), (x, y1), FE_LINE)
-        notes.append(f"V = {_fmt(shear / 1000.0)} kN along y")
+        notes.append(f"V = {_fmt(shear, 'force', units, True)} along y")
     bending = float(getattr(load, "bending", 0.0) or 0.0)
     if bending:
         centre = (maxx + 0.75 * step, 0.5 * (miny + maxy))
         ax.add_patch(FancyArrowPatch((centre[0], centre[1] - 0.35 * width), (centre[0], centre[1] + 0.35 * width),
                                      connectionstyle=f"arc3,rad={0.6 if bending > 0 else -0.6}", arrowstyle="-|>",
                                      mutation_scale=12, color=HANDBOOK_MARK, lw=1.4))
-        notes.append(f"M = {_fmt(bending / 1000.0)} N·m")
+        notes.append(f"M = {_fmt(bending, 'moment', units, True)}")
     pin = getattr(load, "pin", None)
     holes = list(getattr(spec, "holes", ()) or ())
     if pin is not None and 1 <= getattr(pin, "hole", 0) <= len(holes):
@@ -349,7 +405,8 @@ def _draw_loads(ax, spec, bounds, step: float) -> None:
         u = np.array([math.cos(angle), math.sin(angle)])
         start = np.asarray(hole.center, dtype=float)
         _arrow(ax, start, start + (0.5 * hole.diameter + 1.2 * step) * u)
-        notes.append(f"pin in hole {pin.hole}: F = {_fmt(pin.force / 1000.0)} kN at {_fmt(math.degrees(angle))}°")
+        notes.append(f"pin in hole {pin.hole}: F = {_fmt(pin.force, 'force', units, True)} at "
+                     f"{math.degrees(angle):.4g}°")
     remote = getattr(load, "remote", None)
     if remote is not None:
         sx, sy = float(getattr(remote, "sx", 0.0)), float(getattr(remote, "sy", 0.0))
@@ -364,7 +421,8 @@ def _draw_loads(ax, spec, bounds, step: float) -> None:
                 cx = 0.5 * (minx + maxx)
                 _arrow(ax, (cx, y + (0.15 * step * sign if sy > 0 else d + 0.15 * step * sign)),
                        (cx, y + (d if sy > 0 else 0.15 * step * sign)))
-        notes.append(f"remote stress σx {_fmt(sx)}, σy {_fmt(sy)}, τxy {_fmt(float(getattr(remote, 'txy', 0.0)))} MPa")
+        sxy = (shown(v, "stress", units, ".4g") for v in (sx, sy, float(getattr(remote, "txy", 0.0))))
+        notes.append("remote stress σx {}, σy {}, τxy {} ".format(*sxy) + unit_label("stress", units))
     if notes:
         ax.text(maxx, maxy + 0.3 * step, "\n".join(notes), ha="right", va="bottom", fontsize=9, color=AVERAGE_LINE)
 
@@ -383,23 +441,23 @@ def _map_layout(result: CheckResult, bottom_height: float = 3.6):
 def mesh_figure(result: CheckResult) -> Figure:
     """The finest mesh: the whole part above; below, the raiser that holds the peak and a closer view
     of the peak itself, where the layered elements along the edge are visible."""
-    mesh = result.solution.mesh
+    mesh, units = result.solution.mesh, result.spec.units
     fig, ax, near, closest, limits = _map_layout(result)
     raiser, peak = _raiser_window(result), _peak_window(result)
     ax.triplot(_triangulation(result), color=INK, lw=0.15, rasterized=True)
     _box(ax, raiser, AVERAGE_LINE)
     ax.set_title(f"finest level: {mesh.n_nodes:,} nodes, {mesh.n_elements:,} triangles", fontsize=10, loc="left")
-    _frame(ax, *limits)
+    _frame(ax, *limits, units)
     near.triplot(_window_triangulation(result, raiser), color=INK, lw=0.3, rasterized=True)
     _box(near, peak, FE_LINE)
     near.set_title(f"around {result.peak.feature} (orange box above)", fontsize=10, loc="left")
-    _frame(near, *raiser)
+    _frame(near, *raiser, units)
     closest.triplot(_window_triangulation(result, peak), color=INK, lw=0.5, rasterized=True)
     closest.plot(*result.peak.location, "o", ms=9, mfc="none", mec=AVERAGE_LINE, mew=1.8)
     size = next((f.edge_size for f in mesh.features if f.name == result.peak.feature), None)
-    closest.set_title("at the peak (blue box)" + (f": edge elements {size:.3g} mm" if size else ""), fontsize=10,
-                      loc="left")
-    _frame(closest, *peak)
+    closest.set_title("at the peak (blue box)" + (f": edge elements {quantity_text(size, 'length', units, '.3g')}"
+                                                  if size else ""), fontsize=10, loc="left")
+    _frame(closest, *peak, units)
     for axis, colour in ((near, AVERAGE_LINE), (closest, FE_LINE)):
         for spine in axis.spines.values():
             spine.set_edgecolor(colour)
@@ -414,6 +472,7 @@ def stress_map_figure(result: CheckResult) -> Figure:
     with the peak marked and labelled, and von Mises stress over the same close-up."""
     s1 = result.solution.principal[:, 0]
     vm = result.solution.von_mises
+    units = result.spec.units
     limits = (float(np.min(s1)), float(np.max(s1)))
     fig, ax, near, other, whole = _map_layout(result)
     image = ax.tripcolor(_triangulation(result), s1, shading="gouraud", cmap=STRESS_MAP, vmin=limits[0],
@@ -425,29 +484,31 @@ def stress_map_figure(result: CheckResult) -> Figure:
     ax.plot(px, py, marker="o", ms=8, mfc="none", mec="white", mew=1.6)
     window = _raiser_window(result)
     _box(ax, window, AVERAGE_LINE)
-    ax.set_title(f"max principal stress; peak {result.peak.stress:.1f} MPa at ({px:.2f}, {py:.2f}) mm "
-                 f"({result.peak.feature}); dashed: critical section", fontsize=10, loc="left")
-    _frame(ax, *whole)
-    fig.colorbar(image, ax=ax, shrink=0.95, pad=0.01, aspect=12).set_label("max principal (MPa)")
+    ax.set_title(f"max principal stress; peak {quantity_text(result.peak.stress, 'stress', units)} at "
+                 f"{point_text((px, py), units)} ({result.peak.feature}); dashed: critical section", fontsize=10,
+                 loc="left")
+    _frame(ax, *whole, units)
+    unit_colorbar(fig.colorbar(image, ax=ax, shrink=0.95, pad=0.01, aspect=12), "stress", units, "max principal")
     close = _window_triangulation(result, window)
     image = near.tripcolor(close, s1, shading="gouraud", cmap=STRESS_MAP, vmin=limits[0], vmax=limits[1],
                            rasterized=True)
     _outline_patches(result, near, fill="none", edge=INK, lw=0.8)
     near.plot(px, py, marker="o", ms=9, mfc="none", mec="white", mew=2.0)
     cx, cy = 0.5 * sum(window[0]), 0.5 * sum(window[1])
-    near.annotate(f"peak {result.peak.stress:.1f} MPa\n(finest mesh {result.peak.fe_stress:.1f})", xy=(px, py),
+    near.annotate(f"peak {quantity_text(result.peak.stress, 'stress', units)}\n(finest mesh "
+                  f"{shown(result.peak.fe_stress, 'stress', units)})", xy=(px, py),
                   xytext=(cx, cy), fontsize=9, color="white", ha="center", va="center",
                   arrowprops=dict(arrowstyle="-|>", color=INK, lw=0.9, shrinkA=4, shrinkB=6),
                   bbox=dict(boxstyle="round,pad=0.3", facecolor=INK, edgecolor="none", alpha=0.85))
     near.set_title(f"max principal around {result.peak.feature}", fontsize=10, loc="left")
-    _frame(near, *window)
-    fig.colorbar(image, ax=near, shrink=0.9, pad=0.02).set_label("max principal (MPa)")
+    _frame(near, *window, units)
+    unit_colorbar(fig.colorbar(image, ax=near, shrink=0.9, pad=0.02), "stress", units, "max principal")
     image = other.tripcolor(close, vm, shading="gouraud", cmap=STRESS_MAP, rasterized=True,
                             vmin=0.0, vmax=float(np.max(vm[np.unique(close.triangles)])))
     _outline_patches(result, other, fill="none", edge=INK, lw=0.8)
     other.set_title("von Mises, same close-up", fontsize=10, loc="left")
-    _frame(other, *window)
-    fig.colorbar(image, ax=other, shrink=0.9, pad=0.02).set_label("von Mises (MPa)")
+    _frame(other, *window, units)
+    unit_colorbar(fig.colorbar(image, ax=other, shrink=0.9, pad=0.02), "stress", units, "von Mises")
     return fig
 
 
@@ -456,7 +517,7 @@ def stress_map_figure(result: CheckResult) -> Figure:
 def section_figure(result: CheckResult, view: SectionView) -> Figure:
     """Normal stress across one critical section from the FE solution, the net-section average drawn
     flat over each ligament, the gross average for reference, and the converged peak annotated."""
-    ns = view.section
+    ns, units = view.section, result.spec.units
     cut = ns.cut
     fig = _figure(height=4.6)
     ax = fig.add_subplot()
@@ -474,16 +535,18 @@ def section_figure(result: CheckResult, view: SectionView) -> Figure:
         ax.plot(y[inside], s[inside], color=FE_LINE, lw=2.0, zorder=3,
                 label="FE normal stress on the section (finest mesh)" if k == 0 else None)
         ax.plot([a, b], [ns.average, ns.average], color=AVERAGE_LINE, lw=2.0, zorder=4,
-                label=f"net-section average, force / net area: {ns.average:.1f} MPa" if k == 0 else None)
+                label=f"net-section average, force / net area: {quantity_text(ns.average, 'stress', units)}"
+                if k == 0 else None)
     gross = result.gross_average
-    ax.axhline(gross, color=GROSS_LINE, lw=1.0, ls=":", zorder=2, label=f"gross-section average {gross:.1f} MPa")
+    ax.axhline(gross, color=GROSS_LINE, lw=1.0, ls=":", zorder=2,
+               label=f"gross-section average {quantity_text(gross, 'stress', units)}")
     # Kt may refer to another nominal than force / net area (bending, combined loads): draw it too
     nominal = view.peak / view.kt_net if view.kt_net else ns.average
     own_nominal = abs(nominal - ns.average) > 0.01 * max(abs(ns.average), 1e-9 * abs(view.peak), 1e-12)
     if own_nominal:
         name = nominal_label(result, view)
         ax.axhline(nominal, color=HANDBOOK_MARK, lw=1.2, ls="--", zorder=2,
-                   label=f"nominal stress of Kt ({name}) {nominal:.1f} MPa")
+                   label=f"nominal stress of Kt ({name}) {quantity_text(nominal, 'stress', units)}")
     # the converged peak: at its own position when it lies on this cut, else at the cut's maximum
     along, off = view.position(view.location)
     on_cut = abs(off) <= 1e-6 * max(1.0, abs(hi - lo))
@@ -497,10 +560,11 @@ def section_figure(result: CheckResult, view: SectionView) -> Figure:
     left, right = lo - 0.02 * (hi - lo), hi + 0.02 * (hi - lo)
     where = (yp - left) / (right - left)
     ha = "left" if where < 0.3 else "right" if where > 0.7 else "center"
-    offside = "" if on_cut else (f"\nthe peak lies {abs(off):.2f} mm off this cut, at ({view.location[0]:.2f}, "
-                                 f"{view.location[1]:.2f}) mm; marked at the cut's highest point")
+    offside = "" if on_cut else (f"\nthe peak lies {quantity_text(abs(off), 'length', units, '.2f')} off this cut, "
+                                 f"at {point_text(view.location, units)}; marked at the cut's highest point")
     basis = "the nominal stress of Kt" if own_nominal else "net-section average"
-    ax.annotate(f"peak {view.peak:.1f} MPa ({view.feature}, converged) = {view.kt_net:.2f} × {basis};\n"
+    ax.annotate(f"peak {quantity_text(view.peak, 'stress', units)} ({view.feature}, converged) = "
+                f"{view.kt_net:.2f} × {basis};\n"
                 f"the {basis.removeprefix('the ')} understates the peak by {1 - nominal / view.peak if view.peak else 0.0:.0%}{offside}",
                 xy=(yp, view.peak), xytext=(yp, top + 0.13 * span), ha=ha, va="bottom", fontsize=9, color=INK,
                 arrowprops=dict(arrowstyle="-|>", color=INK, lw=0.8, shrinkA=2, shrinkB=5),
@@ -508,20 +572,24 @@ def section_figure(result: CheckResult, view: SectionView) -> Figure:
     ax.set_xlim(left, right)
     ax.set_ylim(bottom - 0.05 * span, top + (0.36 if on_cut else 0.46) * span)
     # the three levels a reviewer compares, named on the right-hand axis
-    marks = [(view.peak, f"peak {view.peak:.0f}", INK), (ns.average, f"average {ns.average:.0f}", AVERAGE_LINE)]
+    def level(value: float) -> str:
+        return shown(value, "stress", units, ".0f")
+
+    marks = [(view.peak, f"peak {level(view.peak)}", INK), (ns.average, f"average {level(ns.average)}", AVERAGE_LINE)]
     if own_nominal and abs(nominal - ns.average) > 0.06 * span:
-        marks.append((nominal, f"nominal {nominal:.0f}", HANDBOOK_MARK))
+        marks.append((nominal, f"nominal {level(nominal)}", HANDBOOK_MARK))
     if all(abs(gross - m[0]) > 0.06 * span for m in marks):
-        marks.append((gross, f"gross {gross:.0f}", GROSS_LINE))
+        marks.append((gross, f"gross {level(gross)}", GROSS_LINE))
     side = ax.secondary_yaxis("right")
     side.set_yticks([m[0] for m in marks], [m[1] for m in marks], fontsize=8)
     for tick, (_, _, colour) in zip(side.get_yticklabels(), marks):
         tick.set_color(colour)
-    side.set_ylabel("MPa", fontsize=8)
-    ax.set_xlabel("position across the section, y (mm)" if view.across_x else "position along the cut (mm)")
-    ax.set_ylabel("normal stress on the section (MPa)")
-    ax.set_title(f"{view.label}, {view.where}: net width {ns.width:.2f} mm, net area {ns.area:.1f} mm²",
-                 fontsize=10, loc="left")
+    side.set_ylabel(unit_label("stress", units), fontsize=8)
+    unit_axis(ax.xaxis, "length", units, "position across the section, y" if view.across_x
+              else "position along the cut")
+    unit_axis(ax.yaxis, "stress", units, "normal stress on the section")
+    ax.set_title(f"{view.label}, {view.where(units)}: net width {quantity_text(ns.width, 'length', units, '.2f')}, "
+                 f"net area {quantity_text(ns.area, 'area', units)}", fontsize=10, loc="left")
     ax.grid(True, color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)
     fig.legend(loc="outside lower center", ncols=2 if own_nominal else 3, fontsize=8, frameon=False)
@@ -542,7 +610,11 @@ def nominal_label(result: CheckResult, view: SectionView) -> str:
 def cut_figure(result: CheckResult, section: Any) -> Figure:
     """A cut the part file asked for (method of sections): normal and shear traction along the cut, the
     average normal stress N / A drawn flat over the material, and the largest normal traction marked."""
-    view = SectionView(str(getattr(section, "label", "cut")), section, 0.0, (0.0, 0.0), "", 0.0)
+    units = result.spec.units
+    name = str(getattr(section, "label", "cut"))
+    point = getattr(section, "point", None)
+    view = SectionView(name if point is None else cut_label(name, tuple(point), units), section, 0.0, (0.0, 0.0),
+                       "", 0.0)
     cut = section.cut
     y, sn, st = np.asarray(cut.positions), np.asarray(cut.normal_stress), np.asarray(cut.shear_stress)
     fig = _figure(height=4.2)
@@ -555,13 +627,15 @@ def cut_figure(result: CheckResult, section: Any) -> Figure:
         ax.plot(y[inside], sn[inside], color=FE_LINE, lw=2.0, label="FE normal traction" if k == 0 else None)
         ax.plot(y[inside], st[inside], color=HANDBOOK_MARK, lw=1.2, ls="--", label="FE shear traction" if k == 0 else None)
         ax.plot([a, b], [section.average_normal] * 2, color=AVERAGE_LINE, lw=2.0,
-                label=f"average normal N / A = {section.average_normal:.1f} MPa" if k == 0 else None)
+                label=f"average normal N / A = {quantity_text(section.average_normal, 'stress', units)}"
+                if k == 0 else None)
     ax.axhline(0.0, color=GROSS_LINE, lw=0.6)
     peak, where = float(section.peak_normal), float(section.peak_position)
     ax.plot(where, peak, "o", ms=7, color=INK, zorder=5)
     first, last = float(y.min()), float(y.max())
     share = (where - first) / max(last - first, 1e-9)
-    ax.annotate(f"largest normal traction {peak:.1f} MPa", xy=(where, peak), xytext=(0, 12 if peak >= 0 else -12),
+    ax.annotate(f"largest normal traction {quantity_text(peak, 'stress', units)}",
+                xy=(where, peak), xytext=(0, 12 if peak >= 0 else -12),
                 textcoords="offset points", ha="left" if share < 0.3 else "right" if share > 0.7 else "center",
                 va="bottom" if peak >= 0 else "top", fontsize=9,
                 bbox=dict(boxstyle="round,pad=0.25", facecolor="white", edgecolor="none", alpha=0.9))
@@ -569,9 +643,11 @@ def cut_figure(result: CheckResult, section: Any) -> Figure:
     low, high = float(values.min()), float(values.max())
     pad = 0.18 * max(high - low, 1e-9)
     ax.set_ylim(low - pad, high + pad)
-    ax.set_xlabel("position across the section, y (mm)" if view.across_x else "position along the cut (mm)")
-    ax.set_ylabel("traction on the cut (MPa)")
-    ax.set_title(f"{view.label}, {view.where}", fontsize=10, loc="left")
+    unit_axis(ax.xaxis, "length", units, "position across the section, y" if view.across_x
+              else "position along the cut")
+    unit_axis(ax.yaxis, "stress", units, "traction on the cut")
+    where = view.where(units)
+    ax.set_title(view.label if view.label == where else f"{view.label}, {where}", fontsize=10, loc="left")
     ax.grid(True, color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)
     fig.legend(loc="outside lower center", ncols=3, fontsize=8, frameon=False)
@@ -580,21 +656,21 @@ def cut_figure(result: CheckResult, section: Any) -> Figure:
 
 # --- convergence ------------------------------------------------------------------------------------
 
-def level_sizes(result: CheckResult) -> tuple[np.ndarray, str]:
-    """Element size at the peak's raiser edge for every level (mm), scaled from the finest mesh; or the
-    relative size (finest = 1) when the finest mesh does not name that raiser."""
+def level_sizes(result: CheckResult) -> tuple[np.ndarray, str | None]:
+    """(element size at the peak's raiser edge for every level in mm, scaled from the finest mesh, and that
+    raiser's name); or (the relative size, finest = 1, and None) when the finest mesh does not name it."""
     scales = np.array([lv.scale for lv in result.study.levels])
     for feature in result.solution.mesh.features:
         if feature.name == result.peak.feature:
-            return feature.edge_size * scales / scales[-1], f"element size at the {feature.name} edge (mm)"
-    return scales / scales[-1], "relative element size (finest level = 1)"
+            return feature.edge_size * scales / scales[-1], feature.name
+    return scales / scales[-1], None
 
 
 def convergence_figure(result: CheckResult) -> Figure:
     """Peak stress of each mesh level against element size, the extrapolated peak at zero size and its
     band, and the fitted error curve when Richardson extrapolation applied."""
-    study = result.study
-    h, xlabel = level_sizes(result)
+    study, units = result.study, result.spec.units
+    h, raiser = level_sizes(result)
     peaks = np.array([lv.peak for lv in study.levels])
     est = study.estimate
     fig = _figure(height=4.4)
@@ -614,10 +690,13 @@ def convergence_figure(result: CheckResult) -> Figure:
                     color=GROSS_LINE)
     how = {"richardson": "extrapolated (Richardson)"}.get(est.method, f"finest level ({est.method})")
     ax.errorbar([0.0], [est.value], yerr=[[band], [band]], fmt="D", color=FE_LINE, ms=7, capsize=4, lw=1.2,
-                label=f"{how}: {est.value:.1f} MPa")
+                label=f"{how}: {quantity_text(est.value, 'stress', units)}")
     ax.set_xlim(-0.04 * h.max(), 1.15 * h.max())
-    ax.set_xlabel(xlabel)
-    ax.set_ylabel("peak max principal stress (MPa)")
+    if raiser is None:
+        ax.set_xlabel("relative element size (finest level = 1)")
+    else:
+        unit_axis(ax.xaxis, "length", units, f"element size at the {raiser} edge")
+    unit_axis(ax.yaxis, "stress", units, "peak max principal stress")
     state = "converged" if study.converged else "NOT converged"
     ax.set_title(f"{len(study.levels)} levels, {state}; target error {result.spec.mesh.tolerance:.2%}",
                  fontsize=10, loc="left")
@@ -684,9 +763,9 @@ def handbook_figure(result: CheckResult) -> Figure | None:
 
 # --- design and fatigue (present when the part file asks for them) ------------------------------------
 
-def design_figure(design: Any) -> Figure | None:
-    """Net-section average and peak against the allowable stress, with margins. None when the design
-    record lacks those numbers."""
+def design_figure(design: Any, units: str = DEFAULT_SYSTEM) -> Figure | None:
+    """Net-section average and peak against the allowable stress, with margins, in the unit system
+    `units` (the record is in MPa). None when the design record lacks those numbers."""
     names = ("net_average_mpa", "peak_mpa", "allowable_mpa")
     if design is None or not all(isinstance(getattr(design, n, None), (int, float)) for n in names):
         return None
@@ -700,7 +779,7 @@ def design_figure(design: Any) -> Figure | None:
     for row, (label, value, margin, passes) in zip(rows, bars):
         colour = PASS_FILL if passes else FAIL_FILL if passes is not None else GROSS_LINE
         ax.barh(row, value, color=colour, height=0.55)
-        text = f"{value:.1f} MPa"
+        text = quantity_text(value, "stress", units)
         if margin is not None and math.isfinite(margin):
             text += f", margin {margin:+.2f}"
         if passes is not None:
@@ -709,27 +788,30 @@ def design_figure(design: Any) -> Figure | None:
                     fontsize=9, color=INK, zorder=4,
                     bbox=dict(boxstyle="round,pad=0.2", facecolor="white", edgecolor="none", alpha=0.9))
     ax.axvline(design.allowable_mpa, color=INK, lw=1.5, ls="--")
-    ax.text(design.allowable_mpa, len(bars) - 0.45, f"allowable {design.allowable_mpa:.1f} MPa ",
+    ax.text(design.allowable_mpa, len(bars) - 0.45,
+            f"allowable {quantity_text(design.allowable_mpa, 'stress', units)} ",
             ha="right", va="center", fontsize=9)
     yield_mpa = getattr(design, "yield_mpa", None)
     if isinstance(yield_mpa, (int, float)):
         ax.axvline(yield_mpa, color=GROSS_LINE, lw=1.0, ls=":")
-        ax.text(yield_mpa, -0.62, f" yield {yield_mpa:.0f} MPa", ha="left", va="center", fontsize=8,
+        ax.text(yield_mpa, -0.62, f" yield {quantity_text(yield_mpa, 'stress', units, '.0f')}", ha="left",
+                va="center", fontsize=8,
                 color=GROSS_LINE)
     labels = [f"{b[0]}{' (governs)' if governing and b[0].startswith(governing.split('-')[0]) else ''}" for b in bars]
     ax.set_yticks(rows, labels)
     top = max(design.peak_mpa, design.net_average_mpa, design.allowable_mpa, yield_mpa or 0.0)
     ax.set_xlim(0, 1.6 * top)
     ax.set_ylim(-0.9, len(bars) - 0.2)
-    ax.set_xlabel("stress (MPa)")
+    unit_axis(ax.xaxis, "stress", units, "stress")
     ax.grid(True, axis="x", color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)
     return fig
 
 
-def fatigue_figure(fatigue: Any) -> Figure | None:
+def fatigue_figure(fatigue: Any, units: str = DEFAULT_SYSTEM) -> Figure | None:
     """Modified Goodman diagram: the fatigue strength line from Se to Su, the same line divided by the
-    required factor, and the notched (Kf-scaled) working point. None when numbers are missing."""
+    required factor, and the notched (Kf-scaled) working point, in the unit system `units` (the record is
+    in MPa). None when numbers are missing."""
     names = ("se_mpa", "ultimate_mpa", "sa_mpa", "sm_mpa")
     if fatigue is None or not all(isinstance(getattr(fatigue, n, None), (int, float)) for n in names):
         return None
@@ -737,14 +819,16 @@ def fatigue_figure(fatigue: Any) -> Figure | None:
     need = float(getattr(fatigue, "required_factor", 1.0) or 1.0)
     fig = _figure(height=4.0, width=6.4)
     ax = fig.add_subplot()
-    ax.plot([0, su], [se, 0], color=INK, lw=1.6, label=f"modified Goodman line (Se {se:.0f}, Su {su:.0f} MPa)")
+    ax.plot([0, su], [se, 0], color=INK, lw=1.6,
+            label=f"modified Goodman line (Se {shown(se, 'stress', units, '.0f')}, "
+                  f"Su {quantity_text(su, 'stress', units, '.0f')})")
     if need != 1.0:
         ax.plot([0, su / need], [se / need, 0], color=INK, lw=1.0, ls="--", label=f"line / required factor {need:g}")
     passes = getattr(fatigue, "passes", None)
     colour = PASS_FILL if passes else FAIL_FILL if passes is not None else FE_LINE
     ax.plot([sm], [sa], "o", ms=9, color=colour, label="notched working point (Kf × nominal)")
     n_f = getattr(fatigue, "n_f", None)
-    text = f"σa {sa:.1f}, σm {sm:.1f} MPa"
+    text = f"σa {shown(sa, 'stress', units)}, σm {quantity_text(sm, 'stress', units)}"
     if isinstance(n_f, (int, float)) and math.isfinite(n_f):
         text += f"\nfactor of safety {n_f:.2f}"
     if passes is not None:
@@ -753,8 +837,8 @@ def fatigue_figure(fatigue: Any) -> Figure | None:
                 bbox=dict(boxstyle="round,pad=0.25", facecolor="white", edgecolor="none", alpha=0.9))
     ax.set_xlim(min(0.0, sm) - 0.02 * su, 1.05 * max(su, sm))
     ax.set_ylim(0, 1.25 * max(se, sa))
-    ax.set_xlabel("mean stress σm (MPa)")
-    ax.set_ylabel("alternating stress σa (MPa)")
+    unit_axis(ax.xaxis, "stress", units, "mean stress σm")
+    unit_axis(ax.yaxis, "stress", units, "alternating stress σa")
     ax.grid(True, color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)
     ax.legend(fontsize=8, loc="upper right")

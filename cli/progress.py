@@ -13,6 +13,8 @@ from rich.console import Console
 from rich.progress import Progress, SpinnerColumn, TextColumn, TimeElapsedColumn
 
 from ..fem.convergence import Level
+from ..geometry.units import DEFAULT_SYSTEM
+from .display_units import quantity_text
 
 SHOW_AFTER = 1.0  # seconds before the display appears
 
@@ -20,10 +22,11 @@ SHOW_AFTER = 1.0  # seconds before the display appears
 class LevelProgress:
     """A context manager and `converge` callback: `with LevelProgress(err) as report: check_part(spec, report)`.
 
-    Each call with a finished Level updates the line ("level 3 done: 4,350 triangles, peak 492.1 MPa");
-    `stage(text)` names the current step after the levels (e.g. writing the report)."""
+    Each call with a finished Level updates the line ("level 3 done: 4,350 triangles, peak 492.1 MPa", the peak
+    in the unit system `units`); `stage(text)` names the current step after the levels (e.g. writing the report)."""
 
-    def __init__(self, console: Console, enabled: bool = True, delay: float = SHOW_AFTER):
+    def __init__(self, console: Console, enabled: bool = True, delay: float = SHOW_AFTER,
+                 units: str = DEFAULT_SYSTEM):
         self._progress = Progress(SpinnerColumn(), TextColumn("{task.description}"), TimeElapsedColumn(),
                                   console=console, transient=True, disable=not (enabled and console.is_terminal))
         self._task = self._progress.add_task("meshing and solving level 1", total=None)
@@ -33,6 +36,7 @@ class LevelProgress:
         self._shown = False
         self._done = False
         self.levels = 0
+        self.units = units
 
     def __enter__(self) -> LevelProgress:
         self._timer = threading.Timer(self._delay, self._show)
@@ -49,7 +53,8 @@ class LevelProgress:
     def __call__(self, level: Level) -> None:
         self.levels += 1
         self._progress.update(self._task, description=(
-            f"level {self.levels} done: {level.elements:,} triangles, peak {level.peak:.1f} MPa; "
+            f"level {self.levels} done: {level.elements:,} triangles, peak "
+            f"{quantity_text(level.peak, 'stress', self.units)}; "
             "refining or finishing"))
 
     def stage(self, text: str) -> None:

@@ -8,7 +8,7 @@ from typing import Any
 from .. import __version__
 from ..compare.check import CheckResult
 from .loads_record import (kt_basis, load_record, net_section_statics, nominal_records, peak_component,
-                           section_record, stresses_record, support_record)
+                           pin_contact_record, section_record, stresses_record, support_record)
 from .signoff_record import design_record, fatigue_record, material_record
 
 SCHEMA = "stressraiser.check/1"
@@ -69,6 +69,7 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             "basis": kt_basis(result),
         },
         "nominal_stresses": nominal_records(result),
+        "pin_contact": pin_contact_record(result),
         "sections": [section_record(r) for r in result.sections],
         "mesh": {
             "tolerance": spec.mesh.tolerance,
@@ -88,7 +89,7 @@ def check_record(result: CheckResult) -> dict[str, Any]:
         "handbook": None if preferred is None else _match(preferred),
         "handbook_alternatives": [_match(m) for m in result.handbook[1:]],
         "handbook_note": None if preferred else "no handbook case covers this geometry",
-        "warnings": list(result.warnings),
+        "warnings": [str(w) for w in result.warnings],  # numbers in mm, N, MPa, each with its unit label
         "design": design_record(result.design),
         "fatigue": fatigue_record(result.fatigue),
         "cautions": list(result.cautions),

@@ -55,7 +55,12 @@ def run(args: argparse.Namespace) -> int:
 
 
 def print_verdicts(console, title: str, verdicts: list) -> None:
-    """The pass/fail table, then one line per failing row naming it and its reference's source."""
+    """The pass/fail table, then one line per failing row naming it and its reference's source.
+
+    "FE Kt" is the Kt compared with the reference. When a handbook case describes a raiser other than the
+    one where the part's peak is (the middle hole of a row of holes), the Kt carries a mark and a note under
+    the table names that raiser and gives the part's own governing Kt and where its peak is, so that the
+    case's Kt is never read as the part's peak."""
     from rich.table import Table
 
     table = Table(title=title, title_justify="left", box=None, pad_edge=False)
@@ -64,19 +69,33 @@ def print_verdicts(console, title: str, verdicts: list) -> None:
         table.add_column(name, justify=justify, overflow="fold")
     for n, v in enumerate(verdicts, start=1):
         c = v.case
+        kt = f"{v.kt:.3f}" + ("*" if _apart(v) else "") if v.kt is not None else "—"
         table.add_row(str(n), c.name, f"{c.reference:.3f}" if math.isfinite(c.reference) else "—", c.definition,
-                      f"{v.kt:.3f}" if v.kt is not None else "—",
-                      f"{v.difference:+.2%}" if v.difference is not None else "—", f"±{c.tolerance:.1%}",
+                      kt, f"{v.difference:+.2%}" if v.difference is not None else "—", f"±{c.tolerance:.1%}",
                       "[green]pass[/green]" if v.passed else "[bold red]FAIL[/bold red]")
     console.print(table)
+    for n, v in enumerate(verdicts, start=1):
+        if _apart(v):
+            console.print(f"* row {n}: the Kt of {v.raiser}, the raiser the case describes; the part's peak is at "
+                          f"{v.governing_feature}, Kt {v.governing_kt:.3f}", markup=False)
     failed = [(n, v) for n, v in enumerate(verdicts, start=1) if not v.passed]
     for n, v in failed:
         console.print(f"FAILED row {n} {v.case.name!r}: {v.reason} (reference from {v.case.source})", markup=False)
     console.print(f"{len(verdicts)} cases: {len(verdicts) - len(failed)} passed, {len(failed)} failed", markup=False)
 
 
+def _apart(verdict) -> bool:
+    """True when the Kt compared is not the part's governing Kt (a case that names another raiser)."""
+    return verdict.raiser is not None and verdict.raiser != verdict.governing_feature \
+        and verdict.governing_kt is not None
+
+
 def regress_record(title: str, verdicts: list, seconds: list[float | None]) -> dict[str, Any]:
-    """The verdicts as JSON-ready data (seconds: the time of each case's check, None if it did not run)."""
+    """The verdicts as JSON-ready data (seconds: the time of each case's check, None if it did not run).
+
+    Per case: kt is the FE Kt compared with the reference, of `raiser` (kt_of "case": the raiser the part's
+    handbook case describes; "part": the governing peak's feature); governing_kt / governing_feature are
+    the part's own governing Kt on the same section and where its peak is."""
     from .. import __version__
 
     return {
@@ -87,8 +106,9 @@ def regress_record(title: str, verdicts: list, seconds: list[float | None]) -> d
         "cases": [
             {"row": n, "name": v.case.name, "reference": v.case.reference if math.isfinite(v.case.reference) else None,
              "definition": v.case.definition, "tolerance": v.case.tolerance, "source": v.case.source,
-             "kt": v.kt, "difference": v.difference, "converged": v.converged, "passed": v.passed,
-             "reason": v.reason, "seconds": t}
+             "kt_of": v.case.kt_of, "kt": v.kt, "raiser": v.raiser, "difference": v.difference,
+             "converged": v.converged, "passed": v.passed, "reason": v.reason, "governing_kt": v.governing_kt,
+             "governing_feature": v.governing_feature, "seconds": t}
             for n, (v, t) in enumerate(zip(verdicts, seconds), start=1)
         ],
     }

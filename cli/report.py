@@ -8,7 +8,9 @@
     part.vtu             finest-mesh displacement and stress fields (cli/fields.py)
     check.json           the JSON record (cli/record.py, schema cli/check.schema.json)
 
-All text placed in the HTML is escaped. Units: mm, N, MPa.
+All text placed in the HTML is escaped. Every number the report and its figures show is in the part
+file's unit system (`spec.units`), converted by cli/display_units.py like the terminal summary; part.vtu
+and check.json stay in mm, N, MPa (the report says so beside them).
 """
 
 from __future__ import annotations
@@ -27,12 +29,13 @@ from typing import Any
 
 from .. import __version__
 from ..compare.check import CheckResult
-from ..geometry.units import format_number
+from ..geometry.units import DEFAULT_SYSTEM, format_number
 from . import plots
+from .display_units import cut_label, label, point_text, quantity_text, shown, significant, warning_text
 from .fields import CELL_FIELDS, POINT_FIELDS, vtu_bytes
 from .files import write_atomic, write_json
 from .record import SCHEMA, check_record
-from .summary import verdict
+from .summary import kt_rows, verdict
 
 PNG_DPI = 150
 REPORT_NAME = "report.html"
@@ -95,6 +98,7 @@ def write_report(result: CheckResult, directory: str | Path, part_file: str | Pa
 
 def render_figures(result: CheckResult) -> list[Rendered]:
     """Every figure of the report, in reading order, rendered to PNG and SVG."""
+    units = result.spec.units
     wanted: list[tuple[str, str, str, Any]] = [
         ("outline", "part", "Outline of the part with its main dimensions, the held end, the load and the "
          "critical section (dashed).", plots.outline_figure),
@@ -104,11 +108,11 @@ def render_figures(result: CheckResult) -> list[Rendered]:
          plots.stress_map_figure),
     ]
     for n, view in enumerate(plots.critical_sections(result), start=1):
-        wanted.append((f"section_{n}", "section", f"Normal stress across {view.label} ({view.where}): "
+        wanted.append((f"section_{n}", "section", f"Normal stress across {view.label} ({view.where(units)}): "
                        "the FE distribution against the flat net-section average a hand calculation uses.",
                        lambda r, v=view: plots.section_figure(r, v)))
     for n, section in enumerate(getattr(result, "sections", ()) or (), start=1):
-        wanted.append((f"cut_{n}", "cuts", f"Tractions along the requested cut {getattr(section, 'label', n)}.",
+        wanted.append((f"cut_{n}", "cuts", f"Tractions along the requested cut {_cut_name(section, units, n)}.",
                        lambda r, c=section: plots.cut_figure(r, c)))
     wanted.append(("convergence", "convergence", "Peak stress of each mesh level against element size, and "
                    "the converged value with its error band at zero element size.", plots.convergence_figure))
@@ -116,9 +120,9 @@ def render_figures(result: CheckResult) -> list[Rendered]:
                    plots.handbook_figure))
     design, fatigue = signoff_records(result)
     wanted.append(("design", "design", "Net-section average and peak against the allowable stress.",
-                   lambda r: plots.design_figure(design)))
+                   lambda r: plots.design_figure(design, units)))
     wanted.append(("fatigue", "fatigue", "Fatigue screen on a modified Goodman diagram (notched stresses).",
-                   lambda r: plots.fatigue_figure(fatigue)))
+                   lambda r: plots.fatigue_figure(fatigue, units)))
     out = []
     for name, section, caption, build in wanted:
         fig = build(result)
@@ -250,11 +254,29 @@ def _num(value: Any, digits: int = 4, unit: str = "") -> str:
     return str(value)
 
 
+def _amount(value: Any, quantity: str, units: str, digits: int = 4, resultant: bool = False, unit: bool = True) -> str:
+    """An internal value (mm, N, MPa, mm², N·mm) in the unit system `units` to `digits` significant figures,
+    with its unit label unless `unit` is False; None is a dash, anything not a number passes through _num."""
+    if not isinstance(value, (int, float)) or isinstance(value, bool):
+        return _num(value)
+    if not math.isfinite(value):
+        return "∞" if value > 0 else "—"
+    text = significant(float(value), quantity, units, digits, resultant)
+    return text if unit else text.rsplit(" ", 1)[0]
+
+
+def _cut_name(section: Any, units: str, default: Any = "") -> str:
+    """A requested cut's label in `units` (unnamed cuts are labelled in mm by the part reader)."""
+    name, point = getattr(section, "label", None), getattr(section, "point", None)
+    if name is None:
+        return str(default)
+    return name if point is None else cut_label(name, tuple(point), units)
+
 
 # --- report sections: one function each ---------------------------------------------------------------
 
 def _verdict_section(result: CheckResult) -> str:
-    ns, peak, kt = result.net_section, result.peak, result.kt
+    ns, peak, units = result.net_section, result.peak, result.spec.units
     design, fatigue = signoff_records(result)
     passes = getattr(design, "passes", None)
     cls = "verdict" + ("" if passes is None else " passes" if passes else " fails")
@@ -265,75 +287,75 @@ def _verdict_section(result: CheckResult) -> str:
     if getattr(fatigue, "passes", None) is not None:
         lines.append(f"Fatigue screen: {'passes' if fatigue.passes else 'FAILS'}")
     rows = [
-        ("Peak (max principal, converged)", _num(peak.stress, 5, "MPa"), f"{peak.feature} at ({peak.location[0]:.2f}, "
-         f"{peak.location[1]:.2f}) mm; finest mesh {peak.fe_stress:.1f} MPa"),
-        ("Net-section average", _num(ns.average, 5, "MPa"), f"force / net area {ns.area:.1f} mm², {plots.governing_view(result).where}"),
+        ("Peak (max principal, converged)", _amount(peak.stress, "stress", units, 5),
+         f"{peak.feature} at {point_text(peak.location, units)}; finest mesh "
+         f"{quantity_text(peak.fe_stress, 'stress', units)}"),
+        ("Net-section average", _amount(ns.average, "stress", units, 5),
+         f"force / net area {quantity_text(ns.area, 'area', units)}, {plots.governing_view(result).where(units)}"),
         ("Average understates the peak by", f"{1 - ns.average / peak.stress if peak.stress else 0.0:.1%}", ""),
-        ("Kt net / gross", f"{kt.net:.3f} / {kt.gross:.3f}", f"band ± {kt.error:.2%}; gross average "
-         f"{result.gross_average:.1f} MPa"),
-        *_nominal_rows(result),
-        ("Equilibrium on the net section", f"{ns.equilibrium_error:+.3%}", f"FE force {ns.fe_force:.1f} N"),
+        *kt_rows(result),
+        ("Equilibrium on the net section", f"{ns.equilibrium_error:+.3%}",
+         f"FE force {quantity_text(ns.fe_force, 'force', units)}"),
     ]
-    warnings = "".join(f'<p class="warn">{esc(w)}</p>' for w in result.warnings)
+    warnings = "".join(f'<p class="warn">{esc(warning_text(w, units))}</p>' for w in result.warnings)
     return _section("verdict", "Verdict", f'<div class="{cls}">' + "<br>".join(lines) + "</div>", warnings,
                     _table(rows, numeric=(1,)))
 
 
-def _nominal_rows(result: CheckResult) -> list[tuple[str, str, str]]:
-    """Which nominal stress each headline Kt uses, when the check says (bending and combined loads use
-    other nominals than force / area)."""
-    nominal = getattr(result, "nominal", None)
-    rows = []
-    for which in ("net", "gross"):
-        item = getattr(nominal, which, None)
-        if item is not None and isinstance(getattr(item, "stress", None), (int, float)):
-            rows.append((f"Nominal stress of Kt {which}", _num(item.stress, 5, "MPa"),
-                         f"{getattr(item, 'label', '')}: {getattr(item, 'formula', '')}"))
-    return rows
-
-
 def _part_section(result: CheckResult, figures: list[Rendered], part_text: str | None) -> str:
     spec = result.spec
-    plate, material = spec.plate, spec.material
+    plate, material, units = spec.plate, spec.material, spec.units
+    length = label("length", units)
     rows = [
-        ("Plate", f"{_num(plate.length)} × {_num(plate.width)} mm, thickness {_num(plate.thickness)} mm, "
-         f"{plate.condition}"),
-        ("Material", f"E {_num(material.E)} MPa, ν {_num(material.nu)}, yield "
-         f"{_num(getattr(material, 'yield_strength', None), unit='MPa')}, ultimate "
-         f"{_num(getattr(material, 'ultimate', None), unit='MPa')}"),
-        ("Load", _load_text(spec.load)),
+        ("Plate", f"{_amount(plate.length, 'length', units, unit=False)} × {_amount(plate.width, 'length', units)}, "
+         f"thickness {_amount(plate.thickness, 'length', units)}, {plate.condition}"),
+        ("Material", f"E {_amount(material.E, 'stress', units)}, ν {_num(material.nu)}, yield "
+         f"{_amount(getattr(material, 'yield_strength', None), 'stress', units)}, ultimate "
+         f"{_amount(getattr(material, 'ultimate', None), 'stress', units)}"),
+        ("Load", _load_text(spec.load, units)),
         ("Mesh study", f"target error {spec.mesh.tolerance:.2%}, at most {spec.mesh.max_levels} levels and "
          f"{spec.mesh.max_elements:,} triangles"),
-        ("Units of the part file", getattr(spec, "units", "mm-N-MPa")),
+        ("Units", f"{units}, the part file's system: every number of this report and its figures is in it"
+         + ("" if units == DEFAULT_SYSTEM else f"; {FIELDS_NAME} and {RECORD_NAME} are in mm, N, MPa")),
     ]
-    holes = [(f"hole {n}", _num(h.center[0]), _num(h.center[1]), _num(h.diameter))
+    holes = [(f"hole {n}", *(_amount(v, "length", units, unit=False) for v in (*h.center, h.diameter)))
              for n, h in enumerate(getattr(spec, "holes", ()) or (), start=1)]
     parts = [_table(rows), _figures(figures)]
     if holes:
-        parts.append(_table(holes, header=("raiser", "centre x (mm)", "centre y (mm)", "diameter (mm)"),
-                            numeric=(1, 2, 3)))
+        parts.append(_table(holes, header=("raiser", f"centre x ({length})", f"centre y ({length})",
+                                           f"diameter ({length})"), numeric=(1, 2, 3)))
     if part_text is not None:
         parts.append("<h3>The part file as read</h3><pre>" + esc(part_text) + "</pre>")
     return _section("part", "The part and what it carries", *parts)
 
 
-def _load_text(load: Any) -> str:
-    """The load as text: every numeric field of the load record (N, N mm)."""
-    if dataclasses.is_dataclass(load):
-        items = [(f.name, getattr(load, f.name)) for f in dataclasses.fields(load)]
-    else:
-        items = [("axial", getattr(load, "axial", None))]
-    shown = [f"{name.replace('_', ' ')} {_num(value)}" for name, value in items if value not in (None, 0, 0.0)]
-    text = "; ".join(shown) or "none"
-    axial = getattr(load, "axial", None)
-    if isinstance(axial, (int, float)) and axial:
-        text += f" N ({'tension' if axial > 0 else 'compression'}) on the right end; the left end is held"
+def _load_text(load: Any, units: str) -> str:
+    """The load as text in `units`: the end force, moment and shear, a pin's force and direction, or the
+    remote stresses, whichever the load has."""
+    parts = []
+    for name, quantity in (("axial", "force"), ("bending", "moment"), ("shear", "force")):
+        value = getattr(load, name, None)
+        if isinstance(value, (int, float)) and value:
+            parts.append(f"{name} {_amount(value, quantity, units)}"
+                         + (f" ({'tension' if value > 0 else 'compression'})" if name == "axial" else ""))
+    pin = getattr(load, "pin", None)
+    if pin is not None:
+        parts.append(f"pin in hole {pin.hole}: {_amount(pin.force, 'force', units)} at {_num(float(pin.direction))}°")
+    remote = getattr(load, "remote", None)
+    if remote is not None:
+        parts.append("remote stress " + ", ".join(f"{name} {_amount(getattr(remote, key, 0.0), 'stress', units)}"
+                                                  for key, name in (("sx", "σx"), ("sy", "σy"), ("txy", "τxy"))))
+    text = "; ".join(parts) or "none"
+    if remote is None:
+        text += "; the left end is held" + (", the end loads act on the right end"
+                                             if getattr(load, "has_end_loads", False) else "")
     return text
 
 
 def _mesh_section(result: CheckResult, figures: list[Rendered]) -> str:
-    mesh = result.solution.mesh
-    features = [(f.name, _num(f.radius, unit="mm"), _num(f.edge_size, 3, "mm")) for f in mesh.features]
+    mesh, units = result.solution.mesh, result.spec.units
+    features = [(f.name, _amount(f.radius, "length", units), _amount(f.edge_size, "length", units, 3))
+                for f in mesh.features]
     text = (f"The finest level has {mesh.n_nodes:,} nodes and {mesh.n_elements:,} linear triangles "
             f"({2 * mesh.n_nodes:,} degrees of freedom). Element sizes shrink towards each raiser edge.")
     table = _table(features, header=("raiser", "edge radius", "element size at the edge"), numeric=(1, 2)) if features else ""
@@ -343,22 +365,30 @@ def _mesh_section(result: CheckResult, figures: list[Rendered]) -> str:
 def _stress_section(result: CheckResult, figures: list[Rendered]) -> str:
     s1 = result.solution.principal[:, 0]
     vm = result.solution.von_mises
-    text = (f"Maximum principal stress ranges from {float(s1.min()):.1f} to {float(s1.max()):.1f} MPa on the finest "
-            f"mesh; the largest von Mises stress is {float(vm.max()):.1f} MPa. The converged peak is "
-            f"{result.peak.stress:.1f} MPa at {result.peak.feature}.")
+    units = result.spec.units
+
+    def stress(value: float) -> str:
+        return quantity_text(float(value), "stress", units)
+
+    text = (f"Maximum principal stress ranges from {stress(s1.min())} to {stress(s1.max())} on the finest mesh; "
+            f"the largest von Mises stress is {stress(vm.max())}. The converged peak is "
+            f"{stress(result.peak.stress)} at {result.peak.feature}.")
     return _section("stress", "Where the stress gathers", _p(text), _figures(figures))
 
 
 def _sections_section(result: CheckResult, figures: list[Rendered]) -> str:
+    units = result.spec.units
     rows = []
     for view in plots.critical_sections(result):
         ns = view.section
-        rows.append((view.label, view.feature, view.where,
-                     ", ".join(f"{a:.2f} … {b:.2f}" for a, b in ns.ligaments), _num(ns.width, 5, "mm"),
-                     _num(ns.area, 5, "mm²"), _num(ns.average, 5, "MPa"), _num(view.peak, 5, "MPa"),
-                     f"{view.kt_net:.3f}", f"{ns.equilibrium_error:+.3%}"))
-    table = _table(rows, header=("section", "raiser", "where", "ligaments (mm along the cut)", "net width",
-                                 "net area", "average", "peak", "Kt net", "equilibrium"), numeric=(4, 5, 6, 7, 8, 9))
+        ligaments = ", ".join(f"{_amount(a, 'length', units, unit=False)} … {_amount(b, 'length', units, unit=False)}"
+                              for a, b in ns.ligaments)
+        rows.append((view.label, view.feature, view.where(units), ligaments, _amount(ns.width, "length", units, 5),
+                     _amount(ns.area, "area", units, 5), _amount(ns.average, "stress", units, 5),
+                     _amount(view.peak, "stress", units, 5), f"{view.kt_net:.3f}", f"{ns.equilibrium_error:+.3%}"))
+    table = _table(rows, header=("section", "raiser", "where", f"ligaments ({label('length', units)} along the cut)",
+                                 "net width", "net area", "average", "peak", "Kt net", "equilibrium"),
+                   numeric=(4, 5, 6, 7, 8, 9))
     text = ("The critical section is the cut across the load through the raiser that carries the peak. A hand "
             "calculation spreads the force evenly over the net area (the flat line); the FE solution shows "
             "how the stress actually gathers at the raiser edge.")
@@ -370,15 +400,23 @@ def _cuts_section(result: CheckResult, figures: list[Rendered]) -> str:
     sections = getattr(result, "sections", ()) or ()
     if not sections:
         return ""
+    units = result.spec.units
     rows = []
     for c in sections:
         statics = getattr(c, "statics", None)
-        rows.append((getattr(c, "label", ""), _num(getattr(c, "area", None), 5, "mm²"),
-                     _num(getattr(c, "fe_normal_force", None), 5, "N"), _num(getattr(statics, "normal_force", None), 5, "N"),
-                     _num(getattr(c, "fe_shear_force", None), 5, "N"), _num(getattr(c, "fe_moment", None), 5, "N mm"),
+
+        def amount(value: Any, quantity: str, digits: int = 5) -> str:
+            return _amount(value, quantity, units, digits)
+
+        rows.append((_cut_name(c, units), amount(getattr(c, "area", None), "area"),
+                     amount(getattr(c, "fe_normal_force", None), "force"),
+                     amount(getattr(statics, "normal_force", None), "force"),
+                     amount(getattr(c, "fe_shear_force", None), "force"),
+                     amount(getattr(c, "fe_moment", None), "moment"),
                      _percent(getattr(c, "normal_error", None)), _percent(getattr(c, "shear_error", None)),
-                     _percent(getattr(c, "moment_error", None)), _num(getattr(c, "average_normal", None), 4, "MPa"),
-                     _num(getattr(c, "peak_normal", None), 4, "MPa")))
+                     _percent(getattr(c, "moment_error", None)),
+                     amount(getattr(c, "average_normal", None), "stress", 4),
+                     amount(getattr(c, "peak_normal", None), "stress", 4)))
     table = _table(rows, header=("cut", "area", "N (FE)", "N (statics)", "V (FE)", "M (FE)", "N error", "V error",
                                  "M error", "average N/A", "largest normal"), numeric=range(1, 11))
     text = ("Each cut integrates the FE stresses across the part (normal force N, shear force V, moment M about "
@@ -391,17 +429,21 @@ def _percent(value: Any) -> str:
 
 
 def _convergence_section(result: CheckResult, figures: list[Rendered]) -> str:
-    study, est = result.study, result.study.estimate
-    h, _ = plots.level_sizes(result)
-    rows = [(str(i), _num(lv.scale, 3), _num(float(x), 3), f"{lv.nodes:,}", f"{lv.elements:,}", f"{2 * lv.nodes:,}",
-             f"{lv.peak:.2f}", f"{sum(lv.seconds.values()):.2f}")
+    study, est, units = result.study, result.study.estimate, result.spec.units
+    h, raiser = plots.level_sizes(result)
+    rows = [(str(i), _num(lv.scale, 3),
+             _num(float(x), 3) if raiser is None else _amount(float(x), "length", units, 3, unit=False),
+             f"{lv.nodes:,}", f"{lv.elements:,}", f"{2 * lv.nodes:,}", shown(lv.peak, "stress", units, ".2f"),
+             f"{sum(lv.seconds.values()):.2f}")
             for i, (lv, x) in enumerate(zip(study.levels, h), start=1)]
     order = f", observed order {est.order:.2f}" if est.order else ""
-    text = (f"Estimate by {est.method}{order}: {est.value:.2f} MPa ± {est.error:.2%} (target "
+    text = (f"Estimate by {est.method}{order}: {quantity_text(est.value, 'stress', units, '.2f')} "
+            f"± {est.error:.2%} (target "
             f"{result.spec.mesh.tolerance:.2%}); {'converged' if study.converged else 'NOT converged'}"
             + (f"; stopped because {study.stop_reason}" if study.stop_reason else "") + ".")
-    table = _table(rows, header=("level", "scale", "edge size (mm)", "nodes", "triangles", "DOFs", "peak (MPa)",
-                                 "time (s)"), numeric=range(1, 8))
+    size = "relative edge size" if raiser is None else f"edge size ({label('length', units)})"
+    table = _table(rows, header=("level", "scale", size, "nodes", "triangles", "DOFs",
+                                 f"peak ({label('stress', units)})", "time (s)"), numeric=range(1, 8))
     return _section("convergence", "Does the peak settle? The mesh study", _p(text), _figures(figures), table)
 
 
@@ -453,7 +495,8 @@ def _design_section(result: CheckResult, figures: list[Rendered]) -> str:
                                                "table to the part file to compare with an allowable stress."))
     lines = _signoff_lines(design, getattr(result, "design", None), "design", getattr(result.spec, "units", ""))
     return _section("design", heading, _list(lines), _figures(figures),
-                    _p("All the numbers of the check (mm, N, MPa):", "small"), _record_table(design))
+                    _p(f"All the numbers of the check (in {result.spec.units}):", "small"),
+                    _record_table(design, result.spec.units))
 
 
 def _fatigue_section(result: CheckResult, figures: list[Rendered]) -> str:
@@ -465,7 +508,8 @@ def _fatigue_section(result: CheckResult, figures: list[Rendered]) -> str:
     feature = getattr(envelope, "feature", None)
     head = [f"Notch root radius taken from {feature}."] if feature else []
     return _section("fatigue", "Fatigue screen", _list(head + lines), _figures(figures),
-                    _p("All the numbers of the screen (mm, MPa, cycles):", "small"), _record_table(fatigue),
+                    _p(f"All the numbers of the screen (in {result.spec.units}, lives in cycles):", "small"),
+                    _record_table(fatigue, result.spec.units),
                     _p("A screen, not a life prediction.", "small"))
 
 
@@ -474,11 +518,12 @@ def _list(items: Iterable[str]) -> str:
     return "<ul>" + "".join(f"<li>{esc(s)}</li>" for s in items) + "</ul>" if items else ""
 
 
-UNIT_SUFFIXES = (("_mpa", "MPa"), ("_mm2", "mm²"), ("_mm", "mm"), ("_n", "N"), ("_cycles", "cycles"))
+FIELD_QUANTITIES = (("_mpa", "stress"), ("_mm2", "area"), ("_mm", "length"), ("_n", "force"))  # internal units
 
 
-def _record_table(record: Any) -> str:
-    """Every plain field of a dataclass record as a two-column table; units read from the field suffix."""
+def _record_table(record: Any, units: str = DEFAULT_SYSTEM) -> str:
+    """Every plain field of a dataclass record as a two-column table; a field's suffix names its quantity
+    (_mpa, _mm2, _mm, _n: shown in `units`) or its unit (_cycles)."""
     if not dataclasses.is_dataclass(record):
         return ""
     rows = []
@@ -486,12 +531,16 @@ def _record_table(record: Any) -> str:
         value = getattr(record, f.name)
         if f.name == "statements" or not isinstance(value, (int, float, str, bool, type(None))):
             continue
-        label, unit = f.name, ""
-        for suffix, name in UNIT_SUFFIXES:
-            if label.endswith(suffix):
-                label, unit = label[: -len(suffix)], name
+        name, shown_value = f.name, _num(value, 4)
+        for suffix, quantity in FIELD_QUANTITIES:
+            if name.endswith(suffix):
+                name = f"{name[: -len(suffix)]} ({label(quantity, units)})"
+                shown_value = _amount(value, quantity, units, unit=False)
                 break
-        rows.append((label.replace("_", " ") + (f" ({unit})" if unit else ""), _num(value, 4)))
+        else:
+            if name.endswith("_cycles"):
+                name = f"{name.removesuffix('_cycles')} (cycles)"
+        rows.append((name.replace("_", " "), shown_value))
     return _table(rows, numeric=(1,))
 
 
@@ -502,8 +551,9 @@ def _cautions_section(result: CheckResult) -> str:
 
 def _files_section(figures: list[Rendered]) -> str:
     rows = [(FIELDS_NAME, "finest-mesh fields for a VTK viewer: point data " + ", ".join(POINT_FIELDS)
-             + "; cell data " + ", ".join(CELL_FIELDS) + " (mm, MPa)"),
-            (RECORD_NAME, f"the JSON record ({SCHEMA})")]
+             + "; cell data " + ", ".join(CELL_FIELDS) + " (in mm and MPa whatever the part file's units)"),
+            (RECORD_NAME, f"the JSON record ({SCHEMA}; numbers in mm, N, MPa, its display_units names the "
+                          "part file's system)")]
     rows += [(f"{FIGURES_DIR}/{fig.name}.png, .svg", fig.caption) for fig in figures]
     return _section("files", "Files beside this report", _table(rows, header=("file", "contents")))
 

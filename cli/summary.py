@@ -8,8 +8,8 @@ from rich.table import Table
 
 from ..compare.check import CheckResult
 from .citation import short_source
-from .display_units import label, point_text, quantity_text, shown
-from .loads_summary import nominal_rows, print_sections, stress_rows
+from .display_units import label, point_text, quantity_text, shown, warning_text
+from .loads_summary import nominal_rows, pin_rows, print_sections, stress_rows
 from .signoff_summary import print_signoff
 
 
@@ -42,7 +42,8 @@ def print_heading(result: CheckResult, console: Console) -> None:
     console.print(f"[bold]{escape(result.spec.title)}[/bold]")
     console.print(verdict(result), markup=False, soft_wrap=False)
     for warning in result.warnings:
-        console.print(f"[bold yellow]warning:[/bold yellow] {escape(warning)}", soft_wrap=False)
+        text = warning_text(warning, result.spec.units)
+        console.print(f"[bold yellow]warning:[/bold yellow] {escape(text)}", soft_wrap=False)
 
 
 def peak_rows(result: CheckResult) -> list[Row]:
@@ -64,9 +65,23 @@ def net_section_rows(result: CheckResult) -> list[Row]:
 
 
 def kt_rows(result: CheckResult) -> list[Row]:
-    kt = result.kt
-    return [("Kt net / gross", f"{kt.net:.3f} / {kt.gross:.3f}",
-             f"± {kt.error:.2%}; gross average {quantity_text(result.gross_average, 'stress', result.spec.units)}")]
+    """The headline Kt, each on its own row naming the nominal stress it divides the peak by, e.g.
+    "Kt on net section  2.437 ± 0.60%  nominal N / A_net = 10667 psi". No rich markup: the report reuses them."""
+    kt, nominal, units = result.kt, result.nominal, result.spec.units
+    net = f"{kt.net:.3f} ± {kt.error:.2%}"
+    if nominal is None:
+        return [("Kt on net section", net, f"gross {kt.gross:.3f} on the gross average "
+                 f"{quantity_text(result.gross_average, 'stress', units)}")]
+    if nominal.net.key == nominal.gross.key:  # one nominal for both (a remote stress state)
+        return [(f"Kt on {nominal.net.label}", net, nominal_note(nominal.net.formula, nominal.net.stress, units))]
+    return [("Kt on net section", net, nominal_note(nominal.net.formula, nominal.net.stress, units)),
+            ("Kt on gross section", f"{kt.gross:.3f}",
+             nominal_note(nominal.gross.formula, nominal.gross.stress, units))]
+
+
+def nominal_note(formula: str, stress: float, units: str) -> str:
+    """ "nominal N / A_net = 10667 psi": which nominal stress a Kt uses, and its value in `units`."""
+    return f"nominal {formula} = {quantity_text(stress, 'stress', units)}"
 
 
 def handbook_rows(result: CheckResult) -> list[Row]:
@@ -118,7 +133,7 @@ def equilibrium_rows(result: CheckResult) -> list[Row]:
              f"vs statics {quantity_text(applied, 'force', units)}")]
 
 
-KEY_ROWS = (peak_rows, stress_rows, net_section_rows, kt_rows, nominal_rows, competing_rows, handbook_rows,
+KEY_ROWS = (peak_rows, stress_rows, net_section_rows, kt_rows, nominal_rows, pin_rows, competing_rows, handbook_rows,
             equilibrium_rows)
 
 

@@ -2,7 +2,8 @@
 a Kt curve with the handbook curve beside it.
 
 KEY is a dotted key of the part file (geometry/partkeys.py: plate.width, hole.1.diameter, hole.1.center.y,
-mesh.tolerance). VALUES is START:STOP:COUNT (COUNT evenly spaced values, both ends included) or a comma
+mesh.tolerance); a `*` in place of an entry number sets that value in every entry of the array together
+(hole.*.diameter: every hole of a row). VALUES is START:STOP:COUNT (COUNT evenly spaced values, both ends included) or a comma
 list (10,15,20); numbers are in the part file's unit system. Several --vary give every combination; the
 first one is the plot's horizontal axis.
 
@@ -39,19 +40,39 @@ SCHEMA = "stressraiser.sweep/1"
 LOG_NAME, CSV_NAME, JSON_NAME, PLOT_NAME = "rows.jsonl", "sweep.csv", "sweep.json", "kt"
 MAX_POINTS = 1_000_000
 _INTEGER = re.compile(r"^[-+]?\d+$")
-TABLE_FIELDS = (
+TABLE_FIELDS = (  # kt_* / converged: the part's governing peak; case_*: the raiser the handbook case describes
     "status", "kt_net", "kt_error", "converged", "kt_gross", "handbook_case", "handbook_kt_net",
-    "handbook_kt_gross", "handbook_in_range", "handbook_difference", "peak", "average", "gross_average", "peak_fe",
+    "handbook_kt_gross", "handbook_in_range", "case_raiser", "case_kt_net", "case_kt_error", "case_kt_gross",
+    "case_converged", "handbook_difference", "peak", "average", "gross_average", "peak_fe",
     "peak_x", "peak_y", "feature", "equilibrium_error", "levels", "elements", "seconds", "error",
 )
+EVERY_ENTRY = "*"  # in a --vary key: every entry of an array of tables, set together
+
+
+@dataclass(frozen=True)
+class VaryKey:
+    """The key of one --vary as written (`text`) and the part-file keys it sets: one, or one per entry of
+    an array of tables for a key with `*` (geometry.partkeys.KeyPath each)."""
+
+    text: str
+    paths: tuple[Any, ...]
 
 
 @dataclass(frozen=True)
 class Vary:
     """One --vary option: the key and its values (in the part file's units)."""
 
-    key: Any  # geometry.partkeys.KeyPath
+    key: VaryKey
     values: tuple[int | float, ...]
+
+
+def set_vary(part: dict[str, Any], key: VaryKey, value: float) -> dict[str, Any]:
+    """A copy of `part` with every value the --vary key names set to `value`."""
+    from ..geometry.partkeys import set_value
+
+    for path in key.paths:
+        part = set_value(part, path, value)
+    return part
 
 
 @dataclass(frozen=True)
@@ -139,12 +160,38 @@ def parse_vary(text: str, base: dict[str, Any]) -> Vary:
     if not sep or not name.strip() or not spec.strip():
         raise PartError(f"--vary {text}: write KEY=START:STOP:COUNT or KEY=V1,V2,..., e.g. hole.1.diameter=10:60:6")
     try:
-        key = resolve_key(base, name.strip())
+        paths = [resolve_key(base, each) for each in expand_key(base, name.strip())]
         values = parse_values(spec.strip())
-        check_key_known(base, key, values[0], part_from_dict)
+        for path in paths:
+            check_key_known(base, path, values[0], part_from_dict)
     except PartError as exc:
         raise PartError(f"--vary {exc}") from None
-    return Vary(key, values)
+    return Vary(VaryKey(name.strip(), tuple(paths)), values)
+
+
+def expand_key(base: dict[str, Any], text: str) -> list[str]:
+    """The dotted keys a --vary key stands for: itself, or with its one `*` replaced by every entry number
+    (1-based) of the array of tables it stands in, e.g. hole.*.diameter -> hole.1.diameter, hole.2.diameter."""
+    segments = text.split(".")
+    stars = [i for i, seg in enumerate(segments) if seg == EVERY_ENTRY]
+    if not stars:
+        return [text]
+    if len(stars) > 1:
+        raise PartError(f"{text}: a key may hold one {EVERY_ENTRY} (every entry of one array of tables)")
+    prefix = segments[:stars[0]]
+    node: Any = base
+    for seg in prefix:
+        if isinstance(node, dict) and seg in node:
+            node = node[seg]
+        elif isinstance(node, list) and seg.isdigit() and 1 <= int(seg) <= len(node):
+            node = node[int(seg) - 1]
+        else:
+            node = None
+            break
+    if not prefix or not isinstance(node, list) or not node or not all(isinstance(v, dict) for v in node):
+        raise PartError(f"{text}: {EVERY_ENTRY} stands for every entry of an array of tables (e.g. hole.*.diameter "
+                        f"for every [[hole]]); {'.'.join(prefix) or 'the start of the key'} is not one in this part file")
+    return [".".join([*prefix, str(n), *segments[stars[0] + 1:]]) for n in range(1, len(node) + 1)]
 
 
 def parse_values(text: str) -> tuple[int | float, ...]:
@@ -181,7 +228,6 @@ def _value(token: str) -> int | float:
 def sweep_points(base: dict[str, Any], varies: list[Vary]) -> list[Point]:
     """Every combination of the varied values (the first --vary changes slowest), as part dictionaries."""
     from ..compare.suite import part_digest
-    from ..geometry.partkeys import set_value
 
     names = [v.key.text for v in varies]
     if len(set(names)) != len(names):
@@ -193,7 +239,7 @@ def sweep_points(base: dict[str, Any], varies: list[Vary]) -> list[Point]:
     for combo in itertools.product(*(v.values for v in varies)):
         part = base
         for vary, value in zip(varies, combo):
-            part = set_value(part, vary.key, value)
+            part = set_vary(part, vary.key, value)
         inputs = dict(zip(names, combo))
         part["title"] = f"{title} [{', '.join(f'{k} = {v:g}' for k, v in inputs.items())}]"
         points.append(Point(inputs, part, part_digest(part)))
@@ -241,14 +287,16 @@ def finished_rows(path: Path) -> dict[str, dict[str, Any]]:
 # --- tables --------------------------------------------------------------------------------------------
 
 def table_rows(points: list[Point], logged: dict[str, dict[str, Any]]) -> list[dict[str, Any]]:
-    """One row per point, in grid order: the inputs, the logged numbers and the FE/handbook difference."""
+    """One row per point, in grid order: the inputs, the logged numbers and the FE/handbook difference,
+    taken on the Kt of the raiser the handbook case describes (case_kt_net: the part's own Kt unless the
+    case names a raiser, as the middle hole of a row of holes)."""
     from .batch import STATUS_INTERNAL, failed_row
 
     rows = []
     for p in points:
         row = logged.get(p.key) or failed_row(STATUS_INTERNAL, "no result was logged for this case")
         row = {"inputs": p.inputs, **{f: row.get(f) for f in ROW_FIELDS}}
-        net, book = row["kt_net"], row["handbook_kt_net"]
+        net, book = row["case_kt_net"], row["handbook_kt_net"]
         row["handbook_difference"] = net / book - 1.0 if net is not None and book else None
         rows.append(row)
     return rows
@@ -276,7 +324,12 @@ def write_tables(folder: Path, part_path: str, base: dict[str, Any], varies: lis
         "title": base.get("title", "untitled part"),
         "part_units": base.get("units", "mm-N-MPa"),
         "units": {"length": "mm", "force": "N", "stress": "MPa", "kt_error": "relative",
-                  "handbook_difference": "relative (FE Kt net / handbook Kt net - 1)"},
+                  "case_kt_error": "relative",
+                  "handbook_difference": "relative (case_kt_net / handbook Kt net - 1)"},
+        "columns": {"kt_net, kt_gross, kt_error, converged": "the part's governing peak (feature: where it is)",
+                    "case_raiser, case_kt_net, case_kt_gross, case_kt_error, case_converged":
+                        "the raiser the handbook case describes (the middle hole of a row of holes); the "
+                        "governing values when the case describes the part's peak or no case covers the part"},
         "vary": [{"key": v.key.text, "values": list(v.values)} for v in varies],
         "cases": len(rows),
         "ok": len(rows) - failed,
@@ -284,6 +337,19 @@ def write_tables(folder: Path, part_path: str, base: dict[str, Any], varies: lis
         "rows": [{"inputs": r["inputs"], **{f: r.get(f) for f in TABLE_FIELDS}} for r in rows],
         "cautions": list(CAUTIONS),
     })
+
+
+def case_raiser_differs(row: dict[str, Any]) -> bool:
+    """True when the row's handbook case describes a raiser other than the one where the part's peak is."""
+    return row["status"] == STATUS_OK and row.get("case_raiser") not in (None, row.get("feature"))
+
+
+def _kt_text(row: dict[str, Any], key: str) -> str:
+    return f"{row[key]:.3f}" if row.get(key) is not None else "—"
+
+
+def _band(row: dict[str, Any], key: str) -> str:
+    return f"±{row[key]:.2%}" if row.get(key) is not None else "±?"
 
 
 def _csv(value: Any) -> Any:
@@ -304,22 +370,34 @@ def _plot(folder: Path, base: dict[str, Any], varies: list[Vary], rows: list[dic
 
 
 def print_table(console, varies: list[Vary], rows: list[dict[str, Any]]) -> None:
-    """The sweep's table on the terminal: inputs, Kt with band, handbook Kt and the difference, status."""
+    """The sweep's table on the terminal: inputs, Kt with band, handbook Kt and the difference, status.
+
+    When a handbook case describes a raiser other than the one where the part's peak is (the middle hole
+    of a row of holes), the table shows both: the part's governing Kt and where its peak is, and the Kt
+    of the case's raiser, which the handbook difference is taken on."""
     from rich.table import Table
 
+    split = any(case_raiser_differs(r) for r in rows)
     table = Table(box=None, pad_edge=False)
     for v in varies:
         table.add_column(v.key.text, justify="right", no_wrap=True, min_width=len(v.key.text))
-    for name in ("Kt net", "band", "Kt gross", "handbook Kt net", "FE vs handbook", "status"):
-        table.add_column(name, justify="right" if name != "status" else "left")
+    names = (("part Kt net", "band", "Kt gross", "peak at", "case raiser", "its Kt net", "its band")
+             if split else ("Kt net", "band", "Kt gross"))
+    for name in (*names, "handbook Kt net", "its Kt vs handbook" if split else "FE vs handbook", "status"):
+        table.add_column(name, justify="left" if name in ("status", "peak at", "case raiser") else "right")
     for r in rows:
         ok = r["status"] == STATUS_OK
-        band = f"±{r['kt_error']:.2%}" if ok and r["kt_error"] is not None else ("±?" if ok else "")
         book = f"{r['handbook_kt_net']:.3f}" if r["handbook_kt_net"] else "—"
         diff = f"{r['handbook_difference']:+.2%}" if r["handbook_difference"] is not None else "—"
         state = ("ok" if r["converged"] else "NOT converged") if ok else f"failed ({r['status']})"
-        table.add_row(*(f"{r['inputs'][v.key.text]:g}" for v in varies),
-                      f"{r['kt_net']:.3f}" if ok else "—", band, f"{r['kt_gross']:.3f}" if ok else "—",
+        if ok and case_raiser_differs(r) and not r.get("case_converged"):
+            state += f"; {r['case_raiser']} NOT converged"
+        cells = [_kt_text(r, "kt_net") if ok else "—", _band(r, "kt_error") if ok else "",
+                 _kt_text(r, "kt_gross") if ok else "—"]
+        if split:
+            cells += ([r["feature"] or "—", r["case_raiser"] or "—", _kt_text(r, "case_kt_net"),
+                       _band(r, "case_kt_error")] if ok else ["—", "—", "—", ""])
+        table.add_row(*(f"{r['inputs'][v.key.text]:g}" for v in varies), *cells,
                       book if ok else "—", diff if ok else "—", state)
     console.print(table)
     for r in rows:

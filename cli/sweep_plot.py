@@ -2,6 +2,10 @@
 series per combination of the other keys, and the handbook curve of every case that covers the part,
 evaluated densely over the same range (the case's formula at the parameters the part is recognised with).
 
+Where the handbook case describes a raiser other than the one where the part's peak is (the middle hole
+of a row of holes), the FE points beside the curve are that raiser's Kt (case_kt_net, like with like) and
+the part's governing Kt is drawn too, as hollow squares, labelled with where its peak is.
+
 matplotlib is imported here only (it is slow to import) and drawn without pyplot (no global backend).
 """
 
@@ -23,6 +27,7 @@ def plot_sweep(png: Path, svg: Path, base: dict[str, Any], varies: list, rows: l
     from matplotlib.figure import Figure
 
     from .files import write_atomic
+    from .sweep import case_raiser_differs
 
     xkey = varies[0].key.text
     units = base.get("units", "mm-N-MPa")
@@ -38,13 +43,24 @@ def plot_sweep(png: Path, svg: Path, base: dict[str, Any], varies: list, rows: l
         failed += len(members) - len(done)
         if done:
             xs = [r["inputs"][xkey] for r in done]
-            kt = [r["kt_net"] for r in done]
-            band = [r["kt_net"] * (r["kt_error"] if r["kt_error"] is not None else math.nan) for r in done]
-            fe_label = "FE, converged Kt net" + (f" ({label})" if label else "")
+            split = any(case_raiser_differs(r) for r in done)
+            prefix = "case_" if split else ""
+            kt = [_number(r.get(f"{prefix}kt_net")) for r in done]
+            band = [k * _number(r.get(f"{prefix}kt_error")) for k, r in zip(kt, done)]
+            suffix = f" ({label})" if label else ""
+            if split:
+                raisers = ", ".join(dict.fromkeys(str(r["case_raiser"]) for r in done))
+                fe_label = f"FE, converged Kt net of {raisers}, the raiser the handbook case describes{suffix}"
+                peaks_at = ", ".join(dict.fromkeys(str(r["feature"]) for r in done))
+                ax.plot(xs, [r["kt_net"] for r in done], color=colour, ls=":", lw=1.0, marker="s", ms=6, mfc="none",
+                        label=f"FE, the part's peak Kt net (governing, at {peaks_at}){suffix}")
+            else:
+                fe_label = f"FE, converged Kt net{suffix}"
             ax.errorbar(xs, kt, yerr=band, color=colour, marker="o", ms=5, lw=1.4, capsize=3, label=fe_label)
-            loose = [r for r in done if not r["converged"]]
+            loose = [(x, k) for x, k, r in zip(xs, kt, done) if not (r["converged"] and (r.get("case_converged")
+                                                                                       if split else True))]
             if loose:
-                ax.plot([r["inputs"][xkey] for r in loose], [r["kt_net"] for r in loose], ls="none", marker="o",
+                ax.plot([x for x, _ in loose], [k for _, k in loose], ls="none", marker="o",
                         ms=10, mfc="none", mec="#b2182b", label="not converged" if n == 0 else None)
         if n < MAX_CURVE_SERIES:
             for case, (cx, cy) in _handbook_curves(base, varies, members).items():
@@ -69,6 +85,10 @@ def plot_sweep(png: Path, svg: Path, base: dict[str, Any], varies: list, rows: l
         write_atomic(path, buffer.getvalue())
 
 
+def _number(value: float | None) -> float:
+    return float(value) if value is not None else math.nan
+
+
 def _series(varies: list, rows: list[dict[str, Any]]) -> dict[str, list[dict[str, Any]]]:
     """Rows grouped by the values of every varied key but the first (label "" when only one key)."""
     others = [v.key.text for v in varies[1:]]
@@ -86,7 +106,7 @@ def _handbook_curves(base: dict[str, Any], varies: list, members: list[dict[str,
     from ..compare.handbook import handbook_matches
     from ..geometry.errors import PartError
     from ..geometry.partfile import part_from_dict
-    from ..geometry.partkeys import set_value
+    from .sweep import set_vary
 
     xkey = varies[0]
     xs = [r["inputs"][xkey.key.text] for r in members]
@@ -96,12 +116,12 @@ def _handbook_curves(base: dict[str, Any], varies: list, members: list[dict[str,
     fixed = members[0]["inputs"]
     part = base
     for vary in varies[1:]:
-        part = set_value(part, vary.key, fixed[vary.key.text])
+        part = set_vary(part, vary.key, fixed[vary.key.text])
     samples = [lo + (hi - lo) * i / (CURVE_SAMPLES - 1) for i in range(CURVE_SAMPLES)]
     curves: dict[str, dict[float, float]] = {}
     for x in samples:
         try:
-            spec = part_from_dict(set_value(part, xkey.key, x))
+            spec = part_from_dict(set_vary(part, xkey.key, x))
         except PartError:
             continue
         for match in handbook_matches(spec):

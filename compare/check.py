@@ -14,6 +14,7 @@ from ..geometry.spec import PartSpec, SectionSpec
 from .guards import result_warnings
 from .handbook import Match, handbook_matches
 from .method_of_sections import SectionResult, section_result, section_results
+from .notices import Amount, Notice, notice
 from .nominal import NominalSet, critical_cut, nominal_stresses
 from .sections import Cut, ligaments
 from .stress_peaks import StressPeaks, stress_peaks
@@ -84,7 +85,7 @@ class KtResult:
 class RaiserPeak:
     """One raiser's own peak: the largest maximum principal stress on its edge, converged over the mesh
     levels (MPa) with its relative error band, the finest-mesh value, where it is (mm), the net section
-    through that raiser and Kt on that section's nominal stress."""
+    through that raiser and Kt on that section's net and gross nominal stresses."""
 
     feature: str
     stress: float
@@ -93,6 +94,7 @@ class RaiserPeak:
     location: tuple[float, float]
     section: NetSection
     kt_net: float
+    kt_gross: float
 
 
 @dataclass(frozen=True)
@@ -106,7 +108,7 @@ class CheckResult:
     kt: KtResult
     handbook: tuple[Match, ...]
     cautions: tuple[str, ...]
-    warnings: tuple[str, ...]
+    warnings: tuple[Notice, ...]  # numbers in them keep their kind (compare/notices.py)
     design: DesignSignOff | None = None  # when the part file has a [design] table (compare.signoff)
     fatigue: FatigueSignOff | None = None  # when the part file has a [fatigue] table
     nominal: NominalSet | None = None  # every nominal stress of the load and which one each Kt uses
@@ -162,7 +164,11 @@ def _kt(peak: float, nominal: float) -> float:
 
 def _cautions(spec: PartSpec) -> tuple[str, ...]:
     extra = []
-    if spec.load.pin is not None:
+    if spec.load.pin is not None and spec.load.pin.contact == "rigid":
+        extra.append("The pin is idealised as rigid and frictionless, in contact with the hole's edge over the arc "
+                     "the solve finds for the stated clearance; the peak rises with the clearance, and friction, pin "
+                     "bending and the pin's own stiffness change the real contact and the peak.")
+    elif spec.load.pin is not None:
         extra.append("The pin is idealised as rigid and frictionless, bearing on half the hole with a cosine "
                      "pressure (common practice); clearance, friction and pin bending change the real contact "
                      "and the peak.")
@@ -176,9 +182,9 @@ def _cautions(spec: PartSpec) -> tuple[str, ...]:
     return CAUTIONS + tuple(extra)
 
 
-def _section_warnings(cuts: tuple[SectionResult, ...]) -> list[str]:
-    return [f"section {c.label}: the FE resultants differ from statics by up to {c.worst_error:.2%}; "
-            "the mesh may be too coarse there" for c in cuts
+def _section_warnings(cuts: tuple[SectionResult, ...]) -> list[Notice]:
+    return [notice("section ", Amount(c.point, "cut", label=c.label), ": the FE resultants differ from statics "
+                   f"by up to {c.worst_error:.2%}; the mesh may be too coarse there") for c in cuts
             if c.worst_error is not None and c.worst_error > EQUILIBRIUM_WARNING]
 
 
@@ -220,19 +226,19 @@ def raiser_peaks(spec: PartSpec, study: Study, solution: Solution,
     out = []
     for name in chosen:
         section = net_section(spec, solution, sections.get(name, finest[name][1][0]))
-        net = nominal_stresses(spec, value[name], section.result, _gross_width(spec, section)).net.stress
+        nominal = nominal_stresses(spec, value[name], section.result, _gross_width(spec, section))
         error = estimates[name].error if estimates[name] is not None else float("inf")
         out.append(RaiserPeak(name, value[name], error, finest[name][0], finest[name][1], section,
-                              _kt(value[name], net)))
+                              _kt(value[name], nominal.net.stress), _kt(value[name], nominal.gross.stress)))
     return tuple(out)
 
 
-def _warnings(study: Study, section: NetSection) -> list[str]:
+def _warnings(study: Study, section: NetSection) -> list[Notice]:
     out = []
     if not study.converged:
-        out.append(f"the peak did not converge to the requested tolerance ({study.stop_reason}); "
-                   f"estimated error {study.estimate.error:.2%}")
+        out.append(notice(f"the peak did not converge to the requested tolerance ({study.stop_reason}); "
+                          f"estimated error {study.estimate.error:.2%}"))
     if abs(section.equilibrium_error) > EQUILIBRIUM_WARNING:
-        out.append(f"the FE normal force on the net section differs from statics by "
-                   f"{section.equilibrium_error:+.2%}; the mesh may be too coarse")
+        out.append(notice("the FE normal force on the net section differs from statics by "
+                          f"{section.equilibrium_error:+.2%}; the mesh may be too coarse"))
     return out

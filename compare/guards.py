@@ -1,5 +1,6 @@
 """Sanity guards on every check result: numbers that cannot be right earn a warning in the terminal
-summary and in the JSON record's `warnings`, never silence.
+summary and in the JSON record's `warnings`, never silence. Each warning is a Notice (compare/notices.py):
+its numbers keep their kind, so the summary and the report show them in the part file's units.
 
 - A reported number that is not finite (NaN or infinity): peak, net-section average, Kt, equilibrium.
 - A peak of the wrong sign or below the section average under a pure axial end load. Under axial
@@ -20,15 +21,16 @@ import math
 from ..fem.convergence import Study
 from ..fem.analysis import Solution
 from ..geometry.spec import PartSpec
+from .notices import Amount, Notice, notice
 
 KT_SLACK = 0.02  # Kt(net) may fall this far below 1 (plus twice the equilibrium error) before a warning
 REACH_ELEMENTS = 4.0  # a peak within this many edge elements of a raiser's edge belongs to it
 MIN_GROWTH = 1.1  # each level must have at least this many times the elements of the one before
 
 
-def result_warnings(spec: PartSpec, study: Study, solution: Solution, peak, section, kt) -> list[str]:
-    """Warnings about results that cannot be right (see the module docstring). `peak`, `section` and `kt`
-    are the check's Peak, NetSection and KtResult."""
+def result_warnings(spec: PartSpec, study: Study, solution: Solution, peak, section, kt) -> list[Notice]:
+    """Warnings about results that cannot be right (see the module docstring), numbers with their units
+    (compare/notices.py). `peak`, `section` and `kt` are the check's Peak, NetSection and KtResult."""
     out = _non_finite(peak, section, kt)
     out += _impossible_sign(spec, peak, section, kt)
     far = _away_from_raisers(spec, solution, peak.location)
@@ -38,7 +40,7 @@ def result_warnings(spec: PartSpec, study: Study, solution: Solution, peak, sect
     return out
 
 
-def _non_finite(peak, section, kt) -> list[str]:
+def _non_finite(peak, section, kt) -> list[Notice]:
     values = {
         "the peak stress": peak.stress,
         "the finest-mesh peak": peak.fe_stress,
@@ -50,29 +52,29 @@ def _non_finite(peak, section, kt) -> list[str]:
     bad = [name for name, value in values.items() if not math.isfinite(value)]
     if not bad:
         return []
-    return [f"{', '.join(bad)} {'is' if len(bad) == 1 else 'are'} not a finite number (NaN or infinity); the "
-            "result cannot be used: check the part's numbers, supports and loads"]
+    return [notice(f"{', '.join(bad)} {'is' if len(bad) == 1 else 'are'} not a finite number (NaN or infinity); "
+                   "the result cannot be used: check the part's numbers, supports and loads")]
 
 
-def _impossible_sign(spec: PartSpec, peak, section, kt) -> list[str]:
+def _impossible_sign(spec: PartSpec, peak, section, kt) -> list[Notice]:
     load = spec.load
     if getattr(load, "kind", "axial") != "axial" or load.axial == 0.0 or not math.isfinite(peak.stress):
         return []
     sense = "tension" if load.axial > 0 else "compression"
     if peak.stress * load.axial <= 0.0:
-        return [f"under axial {sense} alone the governing peak is {peak.stress:.4g} MPa, of the opposite sign or "
-                "zero; that cannot be: check the supports, the loads and the mesh"]
+        return [notice(f"under axial {sense} alone the governing peak is ", Amount(peak.stress, "stress"),
+                       ", of the opposite sign or zero; that cannot be: check the supports, the loads and the mesh")]
     slack = KT_SLACK + 2.0 * abs(section.equilibrium_error) if math.isfinite(section.equilibrium_error) else KT_SLACK
     if math.isfinite(kt.net) and kt.net < 1.0 - slack:
-        return [f"Kt(net) = {kt.net:.3f} is below 1 under axial {sense} alone; the peak cannot be smaller than "
-                "the net-section average: check the net section, the supports and the mesh"]
+        return [notice(f"Kt(net) = {kt.net:.3f} is below 1 under axial {sense} alone; the peak cannot be smaller "
+                       "than the net-section average: check the net section, the supports and the mesh")]
     return []
 
 
-def _away_from_raisers(spec: PartSpec, solution: Solution, location: tuple[float, float]) -> str:
+def _away_from_raisers(spec: PartSpec, solution: Solution, location: tuple[float, float]) -> Notice | None:
     features = solution.mesh.features
     if not features or not all(math.isfinite(c) for c in location):
-        return ""
+        return None
     from shapely.geometry import Point
 
     from ..geometry.outline import feature_edges
@@ -83,24 +85,24 @@ def _away_from_raisers(spec: PartSpec, solution: Solution, location: tuple[float
     for feature in features:
         edge = edges.get(feature.name)
         if edge is None or edge.is_empty:
-            return ""  # a raiser whose edge the outline cannot give: no basis for the guard
+            return None  # a raiser whose edge the outline cannot give: no basis for the guard
         distance = float(edge.distance(point))
         if distance <= max(feature.radius, REACH_ELEMENTS * feature.edge_size):
-            return ""
+            return None
         if distance < gap:
             nearest, gap = feature.name, distance
-    return (f"the peak at ({location[0]:.4g}, {location[1]:.4g}) mm is {gap:.3g} mm from the nearest raiser "
-            f"({nearest}), away from every feature; check that a load, support or end effect is expected to "
-            "govern there")
+    return notice("the peak at ", Amount(location, "point"), " is ", Amount(gap, "length", 3),
+                  f" from the nearest raiser ({nearest}), away from every feature; check that a load, support or "
+                  "end effect is expected to govern there")
 
 
-def _stalled(study: Study) -> list[str]:
+def _stalled(study: Study) -> list[Notice]:
     levels = study.levels
     for a, b in zip(levels, levels[1:]):
         if b.elements < MIN_GROWTH * a.elements:
-            return [f"mesh refinement stalled: a level has {b.elements} elements after {a.elements}; the "
-                    "convergence estimate is not reliable"]
+            return [notice(f"mesh refinement stalled: a level has {b.elements} elements after {a.elements}; the "
+                           "convergence estimate is not reliable")]
     if len(levels) >= 2 and levels[-1].peak == levels[-2].peak:
-        return ["the last two mesh levels gave exactly the same peak; the refinement may not have changed the "
-                "mesh at the peak, and the convergence estimate is not reliable"]
+        return [notice("the last two mesh levels gave exactly the same peak; the refinement may not have changed "
+                       "the mesh at the peak, and the convergence estimate is not reliable")]
     return []

@@ -111,8 +111,13 @@ from .bending_cases import BENDING_BUILDERS, BENDING_CASES, BENDING_RECOGNISERS 
 
 CASES = CASES + BENDING_CASES
 
+# the pin-loaded lug (a closely fitting pin) lives in compare/pin_cases.py
+from .pin_cases import PIN_CASES, PIN_RECOGNISERS  # noqa: E402
+
+CASES = CASES + PIN_CASES
+
 RECOGNISERS: tuple[Callable[[PartSpec], Recognised | None], ...] = ((recognise_central_hole,) + RAISER_RECOGNISERS
-                                                                   + BENDING_RECOGNISERS)
+                                                                   + BENDING_RECOGNISERS + PIN_RECOGNISERS)
 
 # family -> function building a part-file dictionary that the family's recogniser accepts
 BUILDERS: dict[str, Callable[[dict[str, float]], dict]] = {"central-hole-tension": build_central_hole,

@@ -272,7 +272,9 @@ def recognise_row(spec: PartSpec) -> Recognised | None:
 
 
 def build_row(params: dict[str, float], pitch: float = 20.0) -> dict:
-    n = int(round(params["holes"]))
+    """Part-file dictionary of a row of `holes` (default ROW_MIN_HOLES) equal holes of diameter d/l x pitch
+    across the load at x = 0, the plate a whole number of pitches wide and four widths long."""
+    n = int(round(params.get("holes", ROW_MIN_HOLES)))
     W = n * pitch
     return _base(f"row of {n} holes, d/l = {params['d/l']:g}", W, 4.0 * W,
                  hole=[{"center": [0.0, -0.5 * W + (k + 0.5) * pitch], "diameter": params["d/l"] * pitch} for k in range(n)])
@@ -348,7 +350,7 @@ RAISER_BUILDERS: dict[str, Callable[[dict[str, float]], dict]] = {
     "opposite-semicircular-notches": build_opposite_semicircles,
     "edge-u-notch-semi-infinite": build_edge_notch,
     "stepped-bar-fillets": build_stepped_bar,
+    # sweeps and suites compare this case with the middle hole's own Kt (Recognised.raiser,
+    # compare/case_kt.py), not the part's governing Kt, which is an outer hole's beside a free side
+    "row-of-holes": build_row,
 }
-# The row of holes has a builder (build_row) but is not registered: sweeps and suites compare the part's
-# governing Kt, and in a finite row that is an outer hole beside a free side, not the middle hole the
-# case describes (the check compares the case with the middle hole's own peak: Recognised.raiser).

@@ -8,7 +8,10 @@ external force and moment on the +n side about the point C of the cut:
     N = F . n      V = F . d      M = -Mz
 
 M is positive when it stretches the material on the +d side, as in `Cut.moment`. Applied tractions are
-integrated exactly over the boundary (fem.loads.applied_loads). The held end's reactions are statically
+integrated exactly over the boundary (fem.loads.applied_loads); a rigid pin's contact forces are known
+only from the solve (fem.contact): its nodal forces on the +n side count, half for a node on the cut
+(frictionless, so their resultant passes through the hole's centre: a cut that misses the hole sees the
+pin force there, whatever the contact). The held end's reactions are statically
 known when the whole held end lies on one side: then the free body on the other side is used. When the
 cut crosses the held end the reaction is shared between the sides in a way statics alone does not fix;
 the FE support reactions of the nodes on the +n side are used then, and `basis` says so.
@@ -23,10 +26,12 @@ import scipy.sparse as sp
 import scipy.sparse.linalg as spla
 
 from ..fem.analysis import Solution
-from ..fem.loads import applied_loads, load_resultant
+from ..fem.contact import rigid_pin
+from ..fem.loads import applied_loads, load_resultant, pin_bearing_loads
 from ..geometry.spec import PartSpec
 
 EXACT = "applied loads (exact)"
+ON_CUT = 1e-9  # of the part's larger dimension: a contact node this close to a cut lies on it
 WITH_REACTIONS = "applied loads and the FE support reactions (the cut crosses the held end)"
 
 
@@ -47,13 +52,13 @@ def cut_statics(spec: PartSpec, solution: Solution, point: tuple[float, float], 
     d = np.array([-n[1], n[0]])
     side = _held_end_side(spec, solution, p0, n)
     if side == "minus":  # free body: the +n side, loads only
-        fx, fy, mz = _applied(spec, p0, n, about, positive=True)
+        fx, fy, mz = _applied(spec, solution, p0, n, about, positive=True)
         basis = EXACT
     elif side == "plus":  # free body: the -n side, loads only; the +n side carries the opposite
-        fx, fy, mz = (-v for v in _applied(spec, p0, n, about, positive=False))
+        fx, fy, mz = (-v for v in _applied(spec, solution, p0, n, about, positive=False))
         basis = EXACT
     else:
-        fx, fy, mz = _applied(spec, p0, n, about, positive=True)
+        fx, fy, mz = _applied(spec, solution, p0, n, about, positive=True)
         rx, ry, rm = _reactions(solution, p0, n, about)
         fx, fy, mz = fx + rx, fy + ry, mz + rm
         basis = EXACT if side == "none" else WITH_REACTIONS
@@ -64,9 +69,10 @@ def cut_statics(spec: PartSpec, solution: Solution, point: tuple[float, float], 
 def reference_stress(spec: PartSpec) -> float:
     """The largest mean traction magnitude (MPa) of any applied load: the stress level the part's loads
     carry, for measuring the errors of cuts that carry little (axial P / (W t), a moment 3 M / (W^2 t),
-    a shear V / (W t), a pin (8 / pi^2) P / (d t), a remote state its largest edge traction)."""
+    a shear V / (W t), a pin (8 / pi^2) P / (d t) whatever its contact model, a remote state its largest
+    edge traction)."""
     best = 0.0
-    for bl in applied_loads(spec):
+    for bl in applied_loads(spec) + (pin_bearing_loads(spec) if rigid_pin(spec) else ()):
         for curve in bl.curves:
             p, ds = curve.samples(4000)
             best = max(best, float(np.sum(np.linalg.norm(bl.traction(p), axis=1) * ds) / ds.sum()))
@@ -87,13 +93,28 @@ def _held_end_side(spec: PartSpec, solution: Solution, p0: np.ndarray, n: np.nda
     return "crossed"
 
 
-def _applied(spec: PartSpec, p0: np.ndarray, n: np.ndarray, about, positive: bool) -> tuple[float, float, float]:
-    """Resultant (Fx, Fy, Mz about `about`) of the applied tractions on one side of the cut."""
+def _applied(spec: PartSpec, solution: Solution, p0: np.ndarray, n: np.ndarray, about,
+             positive: bool) -> tuple[float, float, float]:
+    """Resultant (Fx, Fy, Mz about `about`) of the applied tractions, and of a rigid pin's contact forces,
+    on one side of the cut."""
     sign = 1.0 if positive else -1.0
     total = np.zeros(3)
     for bl in applied_loads(spec):
         total += load_resultant(bl, spec.plate.thickness, lambda p: sign * ((p - p0) @ n) > 0.0, about)
+    if solution.contact is not None:
+        total += _contact_resultant(solution, p0, sign * n, about, ON_CUT * max(spec.plate.length, spec.plate.width))
     return float(total[0]), float(total[1]), float(total[2])
+
+
+def _contact_resultant(solution: Solution, p0: np.ndarray, n: np.ndarray, about, tol: float) -> np.ndarray:
+    """(Fx, Fy, Mz) of the contact's nodal forces on the +n side of the cut; a node within `tol` (mm) of
+    the cut counts half (its force is shared by the elements on both sides)."""
+    c = solution.contact
+    side = (c.points - p0) @ n
+    weight = np.where(side > tol, 1.0, np.where(side >= -tol, 0.5, 0.0))
+    f = c.forces * weight[:, None]
+    arm = c.points - np.asarray(about, float)
+    return np.array([f[:, 0].sum(), f[:, 1].sum(), np.sum(arm[:, 0] * f[:, 1] - arm[:, 1] * f[:, 0])])
 
 
 def _reactions(solution: Solution, p0: np.ndarray, n: np.ndarray, about) -> tuple[float, float, float]:

@@ -31,6 +31,12 @@ source of the reference:
 
 A case passes when its check converged and its FE Kt is within the tolerance of the reference.
 
+Which FE Kt: `kt_of = "case"` compares the Kt of the raiser the part's handbook case describes (the middle
+hole of a row of holes; compare/case_kt.py), `kt_of = "part"` the part's governing Kt (its largest peak).
+The two differ only for a case that names a raiser. A row that names a handbook family (and every built-in
+row) compares "case" by default, since its reference is that case's value; a row that names a part file
+compares "part" by default, since an in-house reference is the part's own peak.
+
 The built-in suite takes every handbook case whose family has a part builder and checks it at
 POINT_FRACTIONS of each parameter's validity range. Tolerances follow the handbook's own scatter
 (shared/REFERENCES.md): a tabulated solution (the case's formula text says it comes from a table) 1 %, a
@@ -58,7 +64,9 @@ from . import handbook
 from .handbook import Case, handbook_matches
 
 DEFINITIONS = ("net", "gross")
-CASE_KEYS = {"name", "part", "set", "family", "parameters", "reference", "definition", "tolerance", "source"}
+CASE_KEYS = {"name", "part", "set", "family", "parameters", "reference", "definition", "tolerance", "source",
+             "kt_of"}
+KT_OF = ("case", "part")  # the raiser the handbook case describes, or the part's governing peak
 TOP_KEYS = {"title", "defaults", "case"}
 
 POINT_FRACTIONS = (0.2, 0.5, 0.8)  # where the built-in points sit inside each parameter's range
@@ -76,7 +84,9 @@ BUILTIN_MESH_LIMITS = (0.005, 0.02)  # the built-in cases ask the FE for the cas
 @dataclass(frozen=True)
 class SuiteCase:
     """One row of a suite: a part-file dictionary and its reference Kt (on the `definition` section, net or
-    gross), the relative tolerance, and the source text. `problem` holds why the row cannot run, if so."""
+    gross), the relative tolerance, and the source text. `problem` holds why the row cannot run, if so.
+    kt_of: "case" (compare the Kt of the raiser the part's handbook case describes) or "part" (the part's
+    governing Kt); see the module text."""
 
     name: str
     part: dict[str, Any]
@@ -85,6 +95,7 @@ class SuiteCase:
     tolerance: float
     source: str
     problem: str | None = None
+    kt_of: str = "case"
 
 
 @dataclass(frozen=True)
@@ -96,7 +107,10 @@ class Suite:
 @dataclass(frozen=True)
 class Verdict:
     """A suite case judged: the FE Kt on the case's definition, its relative difference from the
-    reference, and whether it passed, with the reason in words."""
+    reference, and whether it passed, with the reason in words. raiser: whose Kt `kt` is (the raiser the
+    handbook case describes, or the governing feature); governing_kt / governing_feature: the part's own
+    Kt on the same definition and where its peak is (the same as kt / raiser unless the case names a
+    raiser that does not govern)."""
 
     case: SuiteCase
     kt: float | None
@@ -104,6 +118,9 @@ class Verdict:
     converged: bool | None
     passed: bool
     reason: str
+    raiser: str | None = None
+    governing_kt: float | None = None
+    governing_feature: str | None = None
 
 
 def part_digest(part: Mapping[str, Any]) -> str:
@@ -113,22 +130,31 @@ def part_digest(part: Mapping[str, Any]) -> str:
 
 
 def judge(case: SuiteCase, row: Mapping[str, Any]) -> Verdict:
-    """Compare a check's row (cli.batch.run_case: status, error, kt_net, kt_gross, kt_error, converged) with
-    the case's reference."""
+    """Compare a check's row (cli.batch.run_case: status, error, kt_net, kt_gross, kt_error, converged,
+    feature and the case_* keys) with the case's reference, on the Kt `case.kt_of` names."""
     if case.problem:
         return Verdict(case, None, None, None, False, case.problem)
     if row.get("status") != "ok":
         return Verdict(case, None, None, None, False, f"the check failed ({row.get('status')}): {row.get('error')}")
-    kt = float(row[f"kt_{case.definition}"])
+    feature, governing = row.get("feature"), row.get(f"kt_{case.definition}")
+    prefix = "case_" if case.kt_of == "case" else ""
+    raiser = row.get("case_raiser") if case.kt_of == "case" else feature
+    value, band = row.get(f"{prefix}kt_{case.definition}"), row.get(f"{prefix}kt_error")
+    whose = "" if raiser == feature else f" of {raiser}, the raiser the handbook case describes"
+    seen = {"raiser": raiser, "governing_kt": governing, "governing_feature": feature}
+    if value is None:
+        return Verdict(case, None, None, None, False, f"the check gave no Kt{whose or ' for the part'}", **seen)
+    kt = float(value)
     diff = kt / case.reference - 1.0
-    converged = bool(row["converged"])
-    if not converged:
-        band = row.get("kt_error")
+    if not row.get(f"{prefix}converged"):
         band_text = f"{band:.2%}" if band is not None else "unknown"
-        return Verdict(case, kt, diff, False, False, f"the peak did not converge (error band {band_text})")
+        return Verdict(case, kt, diff, False, False, f"the peak{whose}{',' if whose else ''} did not converge (error band {band_text})",
+                       **seen)
+    note = f" (Kt{whose}; the part's peak is at {feature}, Kt {governing:.3f})" if whose and governing else ""
     if abs(diff) > case.tolerance:
-        return Verdict(case, kt, diff, True, False, f"off by {diff:+.2%}; tolerance ±{case.tolerance:.2%}")
-    return Verdict(case, kt, diff, True, True, f"within ±{case.tolerance:.2%}")
+        return Verdict(case, kt, diff, True, False, f"off by {diff:+.2%}; tolerance ±{case.tolerance:.2%}{note}",
+                       **seen)
+    return Verdict(case, kt, diff, True, True, f"within ±{case.tolerance:.2%}{note}", **seen)
 
 
 # --- suite files ---------------------------------------------------------------------------------------
@@ -195,8 +221,13 @@ def _suite_case(row: dict[str, Any], where: str, folder: Path) -> SuiteCase:
     source = row.get("source")
     if not isinstance(source, str) or not source.strip():
         raise PartError(f"{where}: source: a text naming where the reference comes from is required")
+    kt_of = row.get("kt_of", "case" if "family" in row else "part")
+    if kt_of not in KT_OF:
+        raise PartError(f"{where}: kt_of: {kt_of!r} is not allowed; use \"case\" (the Kt of the raiser the part's "
+                        "handbook case describes) or \"part\" (the part's governing Kt)")
     return SuiteCase(name=name, part=part, reference=_number(row, "reference", where, 0.0, math.inf),
-                     definition=definition, tolerance=_number(row, "tolerance", where, 0.0, 1.0), source=source)
+                     definition=definition, tolerance=_number(row, "tolerance", where, 0.0, 1.0), source=source,
+                     kt_of=kt_of)
 
 
 def _row_part(row: dict[str, Any], where: str, folder: Path) -> dict[str, Any]:

@@ -10,6 +10,7 @@ import numpy as np
 from ..geometry.mesh import Mesh
 from ..geometry.spec import PartSpec
 from .assembly import element_stresses, stiffness_matrix
+from .contact import PinContact, contact_pressure, full_part_contact, rigid_pin, solve_pin_contact
 from .elasticity import constitutive_matrix
 from .loads import loaded_edge_names, part_loads, pin_pressure_at_nodes
 from .recovery import free_edge_stress, patch_recovery, principal_stresses, tresca, von_mises
@@ -48,6 +49,7 @@ class Solution:
     reactions: np.ndarray | None = None
     excluded: np.ndarray | None = None  # (n,) bool: nodes left out of the peak search (support singularities)
     solver: SolveReport | None = None  # how the system was solved (fem/solve.py)
+    contact: PinContact | None = None  # a rigid pin's contact, for the full part (fem/contact.py)
 
     def peak_node(self) -> int:
         """Index of the node with the governing principal stress: the largest maximum principal stress,
@@ -73,8 +75,10 @@ class Solution:
         return tension, s1
 
 
-def solve_part(spec: PartSpec, mesh: Mesh) -> Solution:
-    """Assemble, load, support and solve the part on `mesh`; recover nodal stresses."""
+def solve_part(spec: PartSpec, mesh: Mesh, contact_start: tuple[float, float] | None = None) -> Solution:
+    """Assemble, load, support and solve the part on `mesh`; recover nodal stresses. A rigid pin's contact
+    is found by fem.contact, starting from `contact_start` (a coarser mesh's contact arc, degrees from the
+    pin's direction) when given, else from the loaded half of the hole."""
     clock = time.perf_counter()
     seconds = {}
     D = constitutive_matrix(spec.material.E, spec.material.nu, spec.plate.condition)
@@ -84,13 +88,21 @@ def solve_part(spec: PartSpec, mesh: Mesh) -> Solution:
     f = part_loads(spec, mesh)
     seconds["assemble"], clock = time.perf_counter() - clock, time.perf_counter()
     fixed = part_supports(spec, mesh)
-    u, solver = solve_system(K, f, fixed, spec.mesh.solver, mesh.nodes)
+    contact = None
+    if rigid_pin(spec):
+        solved = solve_pin_contact(K, f, fixed, spec, mesh, contact_start)
+        u, solver, applied = solved.displacement, solved.report, f + solved.forces
+        pressure = contact_pressure(mesh, solved, spec)
+        contact = full_part_contact(spec, mesh, solved, pressure)
+    else:
+        u, solver = solve_system(K, f, fixed, spec.mesh.solver, mesh.nodes)
+        applied, pressure = f, pin_pressure_at_nodes(spec, mesh)
     reactions = np.zeros_like(f)
-    reactions[fixed] = (K @ u - f)[fixed]
+    reactions[fixed] = (K @ u - applied)[fixed]
     seconds["solve"], clock = time.perf_counter() - clock, time.perf_counter()
     sigma_e = sub_triangle_stresses(mesh.nodes, mesh.quadratic, D, u) if quadratic else element_stresses(mesh.nodes, mesh.triangles, D, u)
     nodal = recover_nodal(mesh, sigma_e, u, edge_modulus(spec), tuple(loaded_edge_names(spec)),
-                          pin_pressure_at_nodes(spec, mesh), poisson_coupling(spec), held_corners(spec))
+                          pressure, poisson_coupling(spec), held_corners(spec))
     if spec.support.symmetry:
         full = unfold(spec, Fields(mesh, u, sigma_e, nodal, reactions))
         mesh, u, sigma_e, nodal, reactions = full.mesh, full.displacement, full.element_stress, full.nodal_stress, full.reactions
@@ -98,7 +110,7 @@ def solve_part(spec: PartSpec, mesh: Mesh) -> Solution:
     vm = von_mises(nodal, szz)
     seconds["recover"] = time.perf_counter() - clock
     return Solution(mesh, u, sigma_e, nodal, principal_stresses(nodal), vm, seconds, tresca(nodal, szz), reactions,
-                    singular_zone(spec, mesh), solver)
+                    singular_zone(spec, mesh), solver, contact)
 
 
 def edge_modulus(spec: PartSpec) -> float:

@@ -17,14 +17,16 @@ a thousand widths long) before gmsh spends minutes and gigabytes on it; later le
 the growth measured so far (fem/convergence.py).
 
 Memory of a solve (`solve_bytes`), checked in fem/solve.py before factorising, by method:
-- "superlu" / "cholmod" (direct): the factor's non-zeros were measured for SuperLU with a minimum-degree
+- "superlu" / "pardiso" (direct): the factor's non-zeros were measured for SuperLU with a minimum-degree
   ordering on plates with holes (16k to 340k elements): nnz(L+U) per free DOF grows like dof^0.23 (111
   at 18k DOFs, 152 at 69k, 199 at 229k). Each non-zero costs a value and an index with SuperLU's
   supernode overhead (16 bytes counted); assembly and stress recovery add about 1.5 kB per element
   (about one element per DOF). Measured peak resident memory of a whole level (mesh, assemble, solve,
   recover; `benchmarks/budget.py --memory`): SuperLU 0.85 GB at 228k elements and 1.34 GB at 342k
-  (estimated 1.2 and 1.9 GB); CHOLMOD 0.25 GB at 78k, 0.69 GB at 286k, 1.25 GB at 570k (estimated 0.47,
-  1.56 and 3.28 GB). The estimate errs on the safe side by 1.4 to 2.6 times.
+  (estimated 1.2 and 1.9 GB): on the safe side by 1.4 times. PARDISO's Cholesky factor (nested
+  dissection) holds fewer entries than SuperLU's L + U (67 M at 723k DOFs, 93 per DOF) and is counted with
+  the same estimate, further on the safe side (4.2 GB estimated at 723k DOFs; benchmarks/solve.py measures
+  the solve itself).
 - "amg-cg" (iterative): linear in the size: the stiffness, the multigrid hierarchy (about twice the
   stiffness) and the CG vectors, counted as 600 bytes per DOF, plus the same 1.5 kB per element.
 At the default mesh.max_elements (2 million, about 2 million DOFs) the direct estimate is about 13 GB and
@@ -75,7 +77,7 @@ def estimate_elements(spec: PartSpec, scale: float = 1.0, sizing: Sizing = Sizin
 
 def solve_bytes(dofs: int, method: str = "superlu") -> float:
     """Estimated peak memory (bytes) of one level with `dofs` free unknowns solved by `method`
-    ("superlu", "cholmod" or "amg-cg"): assembly, the solve, stress recovery."""
+    ("superlu", "pardiso" or "amg-cg"): assembly, the solve, stress recovery."""
     elements = dofs  # a triangle mesh has about two triangles per node, two DOFs per node
     if method == "amg-cg":
         return BASE_BYTES + (BYTES_PER_ELEMENT + BYTES_PER_ITERATIVE_DOF) * dofs

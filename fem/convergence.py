@@ -43,7 +43,7 @@ class Level:
     location: tuple[float, float]
     seconds: dict[str, float]
     raisers: dict[str, tuple[float, tuple[float, float]]] = field(default_factory=dict)  # fem.raiser_peaks
-    solver: str = ""  # the method that solved this level's system: "cholmod", "superlu" or "amg-cg" (fem.solve)
+    solver: str = ""  # the method that solved this level's system: "pardiso", "superlu" or "amg-cg" (fem.solve)
 
 
 @dataclass(frozen=True)
@@ -106,7 +106,7 @@ def converge(spec: PartSpec, report: Callable[[Level], None] | None = None) -> t
         if stop:
             break
         try:
-            level_solution = solve_part(spec, mesh)
+            level_solution = solve_part(spec, mesh, _contact_start(solution))
         except BudgetError as exc:  # memory: keep the levels solved so far, unless there are none
             if not levels:
                 raise
@@ -141,6 +141,11 @@ def converge(spec: PartSpec, report: Callable[[Level], None] | None = None) -> t
         scale /= LEVEL_RATIO
     estimate = richardson([lv.peak for lv in levels]) if len(levels) >= MIN_LEVELS else _two_level(levels)
     return Study(tuple(levels), estimate, estimate.error <= spec.mesh.tolerance and len(levels) >= MIN_LEVELS, stop), solution
+
+
+def _contact_start(solution: Solution | None) -> tuple[float, float] | None:
+    """A rigid pin's contact arc on the previous level: the next level's first active set (fem.contact)."""
+    return solution.contact.arc if solution is not None and solution.contact is not None else None
 
 
 def _next_elements(levels: list[Level]) -> float:

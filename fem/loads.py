@@ -12,7 +12,9 @@ Sign conventions (mm, N, MPa): tractions are forces per area on the part's bound
 With the held end held in x only, the transverse force of the loads is reacted at the held end by the
 same parabolic traction (the rollers cannot carry it). A remote state (sx, sy, txy) loads every outer
 edge with s.n. A pin presses on the half of its hole facing its direction phi with the cosine pressure
-p = p0 cos(a - phi), p0 = 4 P / (pi d t), pushing the material radially away from the hole centre.
+p = p0 cos(a - phi), p0 = 4 P / (pi d t), pushing the material radially away from the hole centre. A rigid
+pin (load.pin.contact = "rigid") applies no traction known beforehand: its contact forces come out of the
+solve (fem/contact.py), so it is not among the applied loads here.
 """
 
 from __future__ import annotations
@@ -99,7 +101,7 @@ def applied_loads(spec: PartSpec) -> tuple[BoundaryLoad, ...]:
         if "x" in spec.support.symmetry:  # the mirror image loads the other end
             out.append(BoundaryLoad("held", held, lambda p: end(p * [-1.0, 1.0]) * [-1.0, 1.0],
                                     "mirrored end loads on the end x = -L/2"))
-    if load.pin is not None:
+    if load.pin is not None and load.pin.contact == "cosine":
         out += _pin_loads(spec)
     transverse = load.shear + (load.pin.force * math.sin(load.pin.angle) if load.pin is not None else 0.0)
     if transverse != 0.0 and spec.support.held == "x" and "x" not in spec.support.symmetry and straight_held_end(spec):
@@ -133,6 +135,12 @@ def _end_traction(spec: PartSpec) -> Traction:
     return lambda p: np.column_stack([P / area + M * p[:, 1] / inertia, np.zeros(len(p))]) + shear(p)
 
 
+def pin_bearing_loads(spec: PartSpec) -> tuple[BoundaryLoad, ...]:
+    """The cosine bearing pressure of the part's pin (and its mirror image), whatever its contact model:
+    the load level a pin of that force sets (compare.statics.reference_stress); empty without a pin."""
+    return tuple(_pin_loads(spec)) if spec.load.pin is not None else ()
+
+
 def _pin_loads(spec: PartSpec) -> list[BoundaryLoad]:
     pin = spec.load.pin
     loads = [_pin_pressure(spec, pin.hole, pin.force, pin.angle, "pin bearing")]
@@ -161,10 +169,11 @@ def pin_peak_pressure(force: float, diameter: float, thickness: float) -> float:
 
 
 def pin_pressure_at_nodes(spec: PartSpec, mesh: Mesh) -> np.ndarray:
-    """(n,) contact pressure (MPa, >= 0) of the pin at each mesh node of the pin's hole (and its mirror
-    image), zero elsewhere; used for the exact edge state where the pin bears."""
+    """(n,) contact pressure (MPa, >= 0) of the cosine pin at each mesh node of the pin's hole (and its
+    mirror image), zero elsewhere; used for the exact edge state where the pin bears. A rigid pin's
+    pressure comes out of its contact solve instead (fem.contact.contact_pressure): zero here."""
     pressure = np.zeros(mesh.n_nodes)
-    if spec.load.pin is None:
+    if spec.load.pin is None or spec.load.pin.contact != "cosine":
         return pressure
     for bl in _pin_loads(spec):
         if bl.edge not in mesh.edges:

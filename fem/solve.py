@@ -1,15 +1,19 @@
 """Linear solve of K u = f with held DOFs at zero, by the strategy that suits the system's size.
 
 Strategies (`solver`):
-- "direct": a sparse Cholesky factorisation by CHOLMOD when the optional `scikit-sparse` package is
-  installed (`pip install "stressraiser[fast]"`, which needs the SuiteSparse headers to build), else
-  SuperLU in symmetric mode with a minimum-degree ordering on A^T + A, which suits the symmetric
-  positive-definite stiffness of a 2-D mesh far better than scipy's default column ordering.
+- "direct": a sparse direct solve. SuperLU in symmetric mode with a minimum-degree ordering on A^T + A
+  (it suits the symmetric positive-definite stiffness of a 2-D mesh far better than scipy's default
+  column ordering); on large systems, when the optional `fast` extra is installed
+  (`pip install "stressraiser[fast]"`: pypardiso, the binding of Intel oneMKL PARDISO), a supernodal
+  Cholesky factorisation by PARDISO with a METIS nested-dissection ordering and the matrix grouped into
+  its 2 x 2 node blocks, several times faster and leaner than SuperLU there (benchmarks/solve.py).
 - "iterative": conjugate gradients preconditioned by smoothed-aggregation algebraic multigrid (pyamg)
   with the three in-plane rigid-body modes as near-null space and 2 x 2 node blocks, to a relative
   residual of CG_TOLERANCE; time and memory grow about linearly with the size.
-- "auto" (default): CHOLMOD when installed, else SuperLU below ITERATIVE_FROM free DOFs and the
-  iterative solver from there on.
+- "auto" (default): SuperLU below LARGE_FROM free DOFs; from there PARDISO when installed, else the
+  iterative solver.
+Small systems always use SuperLU, which gives the same bits on every machine and in every process
+(PARDISO runs threads whose number a batch worker may limit); large ones use the fastest solver present.
 
 A system that cannot be solved raises SolverError with a message a user can act on: a part that is not
 held against every rigid-body motion (a mechanism), a piece with no stiffness, or a numerical failure.
@@ -25,7 +29,7 @@ import scipy.sparse as sp
 import scipy.sparse.linalg as spla
 
 SOLVERS = ("auto", "direct", "iterative")
-ITERATIVE_FROM = 120_000  # free DOFs from which "auto" without CHOLMOD switches SuperLU -> AMG-CG (benchmarks/solve.py)
+LARGE_FROM = 120_000  # free DOFs from which "auto" leaves SuperLU for PARDISO or AMG-CG (benchmarks/solve.py)
 CG_TOLERANCE = 1e-10  # relative residual ||f - K u|| / ||f|| at which conjugate gradients stops
 MAX_ITERATIONS = 500
 RESIDUAL_LIMIT = 1e-6  # a direct solve whose relative residual exceeds this has failed
@@ -40,7 +44,7 @@ class SolverError(RuntimeError):
 class SolveReport:
     """How one system was solved.
 
-    method: "cholmod", "superlu" or "amg-cg"; dofs: free DOFs; iterations: CG iterations (0 for a
+    method: "pardiso", "superlu" or "amg-cg"; dofs: free DOFs; iterations: CG iterations (0 for a
     direct solve); residual: relative residual ||f - K u|| / ||f|| on the free DOFs; seconds: wall time.
     """
 
@@ -51,11 +55,11 @@ class SolveReport:
     seconds: float
 
 
-def cholmod_available() -> bool:
-    """True when the optional CHOLMOD binding (scikit-sparse) can be imported."""
+def pardiso_available() -> bool:
+    """True when the optional PARDISO binding (pypardiso with oneMKL) can be loaded."""
     try:
-        from sksparse.cholmod import cholesky  # noqa: F401
-    except ImportError:
+        import pypardiso  # noqa: F401  (loads oneMKL's runtime library on import)
+    except (ImportError, OSError):
         return False
     return True
 
@@ -66,11 +70,11 @@ def choose_method(solver: str, dofs: int) -> str:
         raise ValueError(f"unknown solver {solver!r}; use one of {', '.join(SOLVERS)}")
     if solver == "iterative":
         return "amg-cg"
-    if cholmod_available():
-        return "cholmod"
-    if solver == "direct" or dofs < ITERATIVE_FROM:
+    if dofs < LARGE_FROM:
         return "superlu"
-    return "amg-cg"
+    if pardiso_available():
+        return "pardiso"
+    return "superlu" if solver == "direct" else "amg-cg"
 
 
 def solve_system(K: sp.spmatrix, f: np.ndarray, fixed: np.ndarray, solver: str = "auto",
@@ -94,14 +98,14 @@ def solve_system(K: sp.spmatrix, f: np.ndarray, fixed: np.ndarray, solver: str =
     from .budget import check_solve  # budget imports SolverError from here
 
     check_solve(n_free, method)  # refuse, with the figure, a solve that would not fit in memory
+    iterations = 0
     if method == "amg-cg":
         u, iterations = _amg_cg(K, f, free, modes)
+    elif method == "pardiso":
+        u = _pardiso(K, f, free)
     else:
-        Kff = K[free][:, free]
-        uf = _cholmod(Kff, f[free]) if method == "cholmod" else _superlu(Kff, f[free])
         u = np.zeros(K.shape[0])
-        u[free] = uf
-        iterations = 0
+        u[free] = _superlu(K[free][:, free], f[free])
     if not np.all(np.isfinite(u)):
         raise SolverError("the solve returned non-finite displacements; the part may be a mechanism")
     residual = _relative_residual(K, u, f, free)
@@ -162,15 +166,43 @@ def _superlu(Kff: sp.csr_matrix, ff: np.ndarray) -> np.ndarray:
     return lu.solve(ff)
 
 
-def _cholmod(Kff: sp.csr_matrix, ff: np.ndarray) -> np.ndarray:
-    from sksparse.cholmod import CholmodError, cholesky
+# oneMKL PARDISO controls (1-based iparm numbers, as pypardiso's set_iparm takes them; Intel oneMKL
+# Developer Reference, "pardiso iparm Parameter"): iparm 1 = 1 says the others are given; iparm 2 = 2 is
+# METIS nested dissection (sequential, so the ordering and the bits repeat; the parallel variant 3 cannot
+# promise that); iparm 37 = -80 groups the CSR matrix into variable-size blocks (here the 2 x 2 node
+# blocks) wherever 80 % of a block's entries are non-zero, which cut the ordering and factorisation time
+# by about a fifth at 723k DOFs (benchmarks/solve.py). Every other entry 0 keeps its documented default
+# for a real symmetric positive-definite matrix (mtype 2).
+PARDISO_IPARM = {1: 1, 2: 2, 37: -80}
+PARDISO_SPD = 2
 
+
+def _pardiso(K: sp.csr_matrix, f: np.ndarray, free: np.ndarray) -> np.ndarray:
+    """Cholesky solve by oneMKL PARDISO of the whole system with the held DOFs decoupled (rows and
+    columns zeroed, diagonal kept, right-hand side zero), upper triangle only, so the 2 x 2 node blocks
+    stay whole for its block format."""
+    from pypardiso import PyPardisoSolver
+    from pypardiso.pardiso_wrapper import PyPardisoError
+
+    solver = PyPardisoSolver(mtype=PARDISO_SPD)
+    for number, value in PARDISO_IPARM.items():
+        solver.set_iparm(number, value)
     try:
-        factor = cholesky(Kff.tocsc(), ordering_method="metis")
-    except CholmodError as exc:
-        raise SolverError(f"the stiffness matrix is not positive definite ({exc}); is the part supported "
-                          "and in one piece?") from None
-    return factor(ff)
+        return solver.solve(_upper(_decouple(K, free)), np.where(free, f, 0.0))
+    except PyPardisoError as exc:
+        raise SolverError(f"the stiffness matrix is not positive definite (PARDISO: {exc}); is the part "
+                          "supported and in one piece?") from None
+    finally:
+        solver.free_memory(everything=True)
+
+
+def _upper(A: sp.csr_matrix) -> sp.csr_matrix:
+    """The upper triangle (diagonal included) of a CSR matrix with sorted indices, kept in CSR."""
+    rows = np.repeat(np.arange(A.shape[0], dtype=A.indices.dtype), np.diff(A.indptr))
+    keep = A.indices >= rows
+    indptr = np.zeros(A.shape[0] + 1, dtype=A.indptr.dtype)
+    np.cumsum(np.bincount(rows[keep], minlength=A.shape[0]), out=indptr[1:])
+    return sp.csr_matrix((A.data[keep], A.indices[keep], indptr), shape=A.shape)
 
 
 def _amg_cg(K: sp.csr_matrix, f: np.ndarray, free: np.ndarray, modes: np.ndarray) -> tuple[np.ndarray, int]:

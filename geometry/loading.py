@@ -16,6 +16,9 @@ from .shapes import lug_end
 from .spec import PartSpec
 from .symmetry import mirror_holes, symmetry_tolerance
 
+MAX_CLEARANCE = 0.1  # of the pin hole's diameter: the contact gap is measured along the hole's radii, which
+                     # stay within asin(c / (d - c)), 6.4 degrees at this limit, of the true contact normal
+
 
 def validate_loading(spec: PartSpec) -> None:
     """Raise PartError for the first load, support, symmetry plane or section that does not fit."""
@@ -23,6 +26,13 @@ def validate_loading(spec: PartSpec) -> None:
     if load.pin is not None and load.pin.hole > len(spec.holes):
         raise PartError(f"load.pin.hole: {load.pin.hole} names no hole; the part has {len(spec.holes)} "
                         "[[hole]] entries")
+    if load.pin is not None and load.pin.clearance >= MAX_CLEARANCE * spec.holes[load.pin.hole - 1].diameter:
+        from .units import format_quantity
+
+        limit = MAX_CLEARANCE * spec.holes[load.pin.hole - 1].diameter
+        raise PartError(f"load.pin.clearance: {format_quantity(load.pin.clearance, 'length', spec.units)} is not less "
+                        f"than {MAX_CLEARANCE:.0%} of the hole's diameter ({format_quantity(limit, 'length', spec.units)}); "
+                        "the rigid-pin contact model is for close fits")
     if load.remote is not None and support.held != "x":
         raise PartError(f"support.held: {support.held!r} does not apply with [load.remote]: a remote stress "
                         "state loads every edge and the part is only held against rigid-body motion")

@@ -14,7 +14,7 @@ from typing import TYPE_CHECKING, Any
 from .errors import PartError
 from .spec import STRESS_STATES, Hole, Load, Material, MeshControls, PartSpec, Plate
 from .spec import DESIGN_BEHAVIOURS, NEUBER_STEEL_RANGE_MPA, Q_METHODS, DesignSpec, FatigueSpec
-from .spec import HELD_MODES, SYMMETRY_PLANES, Pin, Remote, SectionSpec, Support
+from .spec import HELD_MODES, PIN_CONTACTS, SYMMETRY_PLANES, Pin, Remote, SectionSpec, Support
 from .spec import MESH_SOLVERS
 from .validate import validate_geometry
 
@@ -229,17 +229,29 @@ def _remote(t: Any, units: str) -> Remote:
 
 
 def _pin(t: Any, units: str) -> Pin:
-    """[load.pin]: hole (1-based), force (> 0) and direction (degrees from +x, default 0)."""
+    """[load.pin]: hole (1-based), force (> 0), direction (degrees from +x, default 0), contact ("cosine",
+    default, or "rigid") and clearance (diametral, a length >= 0, default 0; "rigid" only)."""
     if not isinstance(t, dict):
         raise PartError("load.pin: must be a table written [load.pin] with hole, force and direction")
-    _known(t, {"hole", "force", "direction"}, "load.pin")
+    _known(t, {"hole", "force", "direction", "contact", "clearance"}, "load.pin")
     hole = t.get("hole")
     if isinstance(hole, bool) or not isinstance(hole, int) or hole < 1:
         raise PartError(f"load.pin.hole: must be the number of a [[hole]] entry (1 for the first); got {hole!r}")
     direction = _number(t, "direction", "load.pin", required=False, default=0.0)
     if not -360.0 <= direction <= 360.0:
         raise PartError(f"load.pin.direction: {direction} is outside the allowed range -360 to 360 degrees")
-    return Pin(hole=hole, force=_positive(t, "force", "load.pin", "force", units), direction=direction)
+    contact = t.get("contact", Pin.contact)
+    if contact not in PIN_CONTACTS:
+        raise PartError(f"load.pin.contact: {_shown(contact)} is not allowed; use one of {', '.join(PIN_CONTACTS)}")
+    clearance = _number(t, "clearance", "load.pin", "length", units, required=False, default=0.0)
+    if clearance < 0.0:
+        raise PartError(f"load.pin.clearance: must be zero or more (the pin's diametral clearance); got "
+                        f"{_shown(t['clearance'])}")
+    if "clearance" in t and contact != "rigid":
+        raise PartError("load.pin.clearance: applies only with load.pin.contact = \"rigid\" (the cosine pressure "
+                        "has no pin to fit)")
+    return Pin(hole=hole, force=_positive(t, "force", "load.pin", "force", units), direction=direction,
+               contact=contact, clearance=clearance)
 
 
 def _support(t: dict[str, Any]) -> Support:

@@ -123,18 +123,26 @@ class Material:
     source: str | None = None
 
 
+PIN_CONTACTS = ("cosine", "rigid")  # how a pin presses on its hole (see Pin)
+
+
 @dataclass(frozen=True)
 class Pin:
     """A rigid pin through hole `hole` (1-based) pressing on the half of the hole that faces `direction`.
 
     force: the pin's force on the part in N (> 0); direction: its direction in degrees, counter-clockwise
-    from +x. The contact pressure is p(a) = p0 cos(a - direction) on that half (a = angle of the hole-edge
-    point from the hole centre), p0 = 4 force / (pi d t), zero on the other half (common practice).
+    from +x. contact "cosine" (default): the contact pressure is p(a) = p0 cos(a - direction) on that half
+    (a = angle of the hole-edge point from the hole centre), p0 = 4 force / (pi d t), zero on the other
+    half (common practice). contact "rigid": a rigid, frictionless pin of diameter d - clearance (mm,
+    diametral, >= 0) that translates under the force, touching the hole first at the point facing
+    `direction`; the contact arc and pressure come out of the solve (fem/contact.py).
     """
 
     hole: int
     force: float
     direction: float = 0.0
+    contact: str = "cosine"
+    clearance: float = 0.0
 
     @property
     def angle(self) -> float:

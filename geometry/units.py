@@ -161,7 +161,7 @@ def unit_label(quantity: str, system: str = DEFAULT_SYSTEM) -> str:
 
 def format_number(value: float, digits: int = 4) -> str:
     """`value` to `digits` significant figures, trailing zeros dropped; plain decimals from 1e-3 to 1e7
-    (so "30012", not "3.001e+04"), exponent notation outside that range."""
+    (so "30012", not "3.001e+04"), exponent notation outside that range; a zero (-0.0 too) is "0"."""
     if not math.isfinite(value):
         return str(value)
     if value == 0.0:
@@ -176,6 +176,18 @@ def format_number(value: float, digits: int = 4) -> str:
 def format_quantity(value: float, quantity: str, system: str = DEFAULT_SYSTEM, digits: int = 4) -> str:
     """An internal value (mm, N, MPa, mm², N·mm) shown in `system` with its label, e.g. "30012 psi"."""
     return f"{format_number(float(from_internal(value, quantity, system)), digits)} {unit_label(quantity, system)}"
+
+
+def format_point(point: tuple[float, float], system: str = DEFAULT_SYSTEM, digits: int = 4) -> str:
+    """A point (x, y) in mm shown in `system` with the length label, e.g. "(0, 0.25) in". Both coordinates
+    are rounded at the same place, `digits` significant figures of the larger one, so the round-off of a
+    coordinate that is zero (a mesh node on an axis, -1e-15) shows as 0, never as -0 or 1e-15."""
+    x, y = (float(from_internal(c, "length", system)) for c in point[:2])
+    size = max(abs(x), abs(y))
+    if math.isfinite(size) and size > 0.0:
+        place = 10.0 ** (math.floor(math.log10(size)) - digits + 1)
+        x, y = (round(c / place) * place for c in (x, y))
+    return f"({format_number(x, digits)}, {format_number(y, digits)}) {unit_label('length', system)}"
 
 
 def _dimension_name(dimensionality: pint.util.UnitsContainer) -> str:

@@ -204,9 +204,10 @@ MUTATIONS = ["replace", "scale", "negate", "zero", "delete", "unknown", "empty",
 
 @st.composite
 def mutated_examples(draw) -> dict[str, Any]:
-    """A bundled example's dictionary with one to three random mutations."""
+    """A bundled example's dictionary with none to three random mutations (none: the example as bundled,
+    so that accepted parts stay a steady share of the draws whatever mix of examples is bundled)."""
     data = draw(st.sampled_from(EXAMPLE_DICTS))
-    for _ in range(draw(st.integers(1, 3))):
+    for _ in range(draw(st.integers(0, 3))):
         data = mutate(data, draw(st.sampled_from(MUTATIONS)), draw(st.integers(0, 10_000)), draw(hostile),
                       draw(st.text(min_size=1, max_size=10)))
     return data

@@ -91,11 +91,16 @@ def test_inch_summary_numbers_match_the_record(inch_run) -> None:
     assert mm(where) == pytest.approx(ns["x"], abs=REL * INCH)
     # hand check (NIST SP 811): (2 - 0.5) x 0.25 = 0.375 in², 4000 lbf / 0.375 in² = 10667 psi
     assert (area, average) == (pytest.approx(0.375, rel=REL), pytest.approx(4000 / 0.375, rel=REL))
-    assert mpa(_one(rf"gross average {NUMBER} psi", text)[0]) == pytest.approx(r["gross_average"], rel=REL)
-    # the nominal rows
-    for nominal in r["nominal_stresses"]:
-        (value,) = _one(rf"^\s+{re.escape(nominal['label'])}\s+{NUMBER} psi", text)
-        assert mpa(value) == pytest.approx(nominal["stress"], rel=REL)
+    # the Kt rows, each naming the nominal stress it uses and its value
+    kt_net, band, net = _one(rf"^Kt on net section\s+{NUMBER} ± {NUMBER}%\s+nominal N / A_net = {NUMBER} psi\s*$",
+                             text)
+    kt_gross, gross = _one(rf"^Kt on gross section\s+{NUMBER}\s+nominal N / \(W t\) = {NUMBER} psi\s*$", text)
+    assert (kt_net, kt_gross) == (pytest.approx(r["kt"]["net"], abs=5e-4), pytest.approx(r["kt"]["gross"], abs=5e-4))
+    assert band / 100 == pytest.approx(r["kt"]["error"], abs=5e-5)
+    assert mpa(net) == pytest.approx(ns["average"], rel=REL)
+    assert mpa(gross) == pytest.approx(r["gross_average"], rel=REL)
+    assert gross == pytest.approx(4000 / (2.0 * 0.25), rel=REL)  # hand check: 4000 lbf / (2 in x 0.25 in) = 8000 psi
+    assert not re.search(r"^Other nominals", text, flags=re.MULTILINE)  # an axial load has no other nominal
     # equilibrium forces
     fe_force, statics = _one(rf"FE {NUMBER} lbf vs statics {NUMBER} lbf", text)
     assert fe_force * LBF == pytest.approx(ns["fe_force"], rel=REL)
@@ -128,11 +133,15 @@ def test_mm_summary_is_unchanged(mm_run) -> None:
     ns, peak = r["net_section"], r["peak"]
     # the same text as before units were applied to the summary (fixed formats in MPa, mm, N)
     assert f"— peak {peak['stress']:.1f} MPa at" in text
-    assert f"hole 1 at ({peak['location'][0]:.2f}, {peak['location'][1]:.2f}) mm" in text
+    x, y = (round(c, 2) + 0.0 for c in peak["location"])  # + 0.0: a coordinate that rounds to zero has no sign
+    assert f"hole 1 at ({x:.2f}, {y:.2f}) mm" in text
+    assert abs(peak["location"][0]) < 0.005  # the peak is on the axis x = 0 ...
+    assert re.search(r"-0\.0+(?!\d)", text) is None  # ... and no number anywhere is shown as -0.00
     assert re.search(rf"Net-section average\s+{ns['average']:.1f} MPa\s+N / {ns['area']:.1f} mm² at x = "
                      rf"{ns['x']:g} mm", text)
     assert f"FE {ns['fe_force']:.1f} N vs statics {ns['applied_force']:.1f} N" in text
-    assert f"gross average {r['gross_average']:.1f} MPa" in text
+    assert re.search(rf"^Kt on gross section\s+{r['kt']['gross']:.3f}\s+nominal N / \(W t\) = "
+                     rf"{r['gross_average']:.1f} MPa", text, flags=re.MULTILINE)
     cut = r["sections"][0]
     assert re.search(r"^cut\s+N kN\s+V kN\s+M kN·m\s+avg σ MPa\s+avg τ MPa\s+peak σ MPa", text, flags=re.MULTILINE)
     assert re.search(rf"^x = 40\s+{cut['fe']['normal_force'] / 1e3:.3f}\s", text, flags=re.MULTILINE)
@@ -149,9 +158,10 @@ def test_shown_keeps_the_resolution() -> None:
     assert quantity_text(241.935, "area", "in-lbf-psi") == "0.3750 in²"
     assert quantity_text(1000 * LBF, "force", "in-kip-ksi") == "1.00000 kip"
     assert quantity_text(17798.4, "force", "in-lbf-psi", ".3f", resultant=True) == "4001.2 lbf"
-    # in mm-N-MPa the text is the format spec applied to the value, unchanged
-    for value, spec in ((179.2149, ".1f"), (-0.000123, ".2f"), (38.1, "g"), (1234567.0, ".4f")):
+    # in mm-N-MPa the text is the format spec applied to the value, unchanged (but a zero has no sign)
+    for value, spec in ((179.2149, ".1f"), (-0.0123, ".2f"), (38.1, "g"), (1234567.0, ".4f")):
         assert shown(value, "stress", "mm-N-MPa", spec) == format(value, spec)
+    assert shown(-0.000123, "stress", "mm-N-MPa", ".2f") == "0.00"
     assert quantity_text(17798.4, "force", "mm-N-MPa", ".3f", resultant=True) == "17.798 kN"
 
 

@@ -32,7 +32,7 @@ def warnings_of(result, **changes):
     parts = {"spec": result.spec, "study": result.study, "solution": result.solution, "peak": result.peak,
              "section": result.net_section, "kt": result.kt}
     parts.update(changes)
-    return result_warnings(**parts)
+    return [str(w) for w in result_warnings(**parts)]  # the words in mm-N-MPa
 
 
 def test_a_sound_result_has_no_guard_warnings(strap):

@@ -220,3 +220,14 @@ def test_short_citations():
                         "under tension, Phil. Trans. R. Soc. A 229 (1930); tabulated d/W = 0 ... 0.5") == "Howland 1930"
     long = "an unpublished table kept in the drawing office without author or year of any kind"
     assert short_source(long) == long[:39].rstrip() + "…"
+
+
+def test_locations_show_no_negative_zero(report):
+    # the example's peak is on the axis x = 0 (a node at x = -1e-16 or so): "(0.00, -11.00)", never "-0.00"
+    folder, record, printed = report
+    page = html.unescape((folder / "report.html").read_text(encoding="utf-8"))
+    x, y = (round(c, 2) + 0.0 for c in record["peak"]["location"])  # + 0.0: a rounded zero has no sign
+    assert abs(x) < 0.005
+    assert f"hole 1 at ({x:.2f}, {y:.2f}) mm" in page and f"hole 1 at ({x:.2f}, {y:.2f}) mm" in printed
+    for text in (page, printed):
+        assert re.search(r"-0\.0+(?!\d)", text) is None
