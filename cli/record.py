@@ -127,7 +127,7 @@ def _raisers(spec) -> dict[str, Any]:
 def _raiser_peak(p) -> dict[str, Any]:
     """One competing raiser's own peak (see compare.check.raiser_peaks)."""
     return {"feature": p.feature, "stress": p.stress, "error": _finite(p.error), "fe_stress": p.fe_stress,
-            "location": list(p.location), "kt_net": p.kt_net,
+            "location": list(p.location), "kt_net": p.kt_net, "kt_gross": p.kt_gross,
             "net_section": {"x": p.section.x, "width": p.section.width, "area": p.section.area,
                             "average": p.section.average, "equilibrium_error": p.section.equilibrium_error}}
 

@@ -104,12 +104,11 @@ def handbook_rows(result: CheckResult) -> list[Row]:
 
 def fe_kt_for(result: CheckResult, match) -> float:
     """The FE Kt net a handbook match compares with: the part's, or that of the raiser the case describes
-    (e.g. the middle hole of a row)."""
-    if match.recognised.raiser:
-        for p in result.peaks:
-            if p.feature == match.recognised.raiser:
-                return p.kt_net
-    return result.kt.net
+    (e.g. the middle hole of a row; compare/case_kt.py), the part's when that raiser has no peak."""
+    from ..compare.case_kt import case_kt
+
+    kt = case_kt(result, match).kt_net
+    return kt if kt is not None else result.kt.net
 
 
 def competing_rows(result: CheckResult) -> list[Row]:

@@ -180,8 +180,11 @@ def test_no_handbook_case_converges_and_says_so(tmp_path, capsys, raisers, gover
     assert abs(record["net_section"]["equilibrium_error"]) < 0.005
     if governing:
         assert record["peak"]["feature"] == governing
+    W, t = BASE["plate"]["width"], BASE["plate"]["thickness"]
     for peak in record["peaks"]:  # every competing raiser: its own net section also carries the force
         assert abs(peak["net_section"]["equilibrium_error"]) < 0.005
+        # the same peak over the gross P / (W t) and the net P / A_net (definitions): their ratio is A_net / (W t)
+        assert peak["kt_gross"] == pytest.approx(peak["kt_net"] * W * t / peak["net_section"]["area"], rel=1e-9)
 
 
 def test_hole_near_a_notch_reports_both_with_their_own_sections():
