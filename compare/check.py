@@ -26,8 +26,8 @@ COMPETING = 0.8  # raisers whose own peak reaches this fraction of the largest a
 TOP_PEAKS = 3  # most competing raisers reported
 
 CAUTIONS = (
-    "Linear-elastic, small-strain, two-dimensional plane-stress model: no plasticity, buckling, contact, "
-    "residual stress, or through-thickness effects.",
+    "Linear-elastic, small-strain, two-dimensional plane-stress model: no plasticity, buckling, friction, "
+    "contact (other than a rigid pin's, when asked for), residual stress, or through-thickness effects.",
     "Loads and supports are idealised (end tractions by beam theory, an end held in x or clamped, pin and "
     "remote loads as stated); real fasteners, welds and fits load the part differently.",
     "The peak is an elastic stress at a point; whether it matters depends on the material, the loading "

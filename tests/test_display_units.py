@@ -172,3 +172,18 @@ def test_cut_labels() -> None:
         "through (0, -0.5) and (0, 0.5) in"
     assert cut_label("x = 1.5", (38.1, 0.0), "in-lbf-psi") == "x = 1.5"  # a name, not the mm label
     assert cut_label("x = 40", (40.0, 0.0), "mm-N-MPa") == "x = 40"
+
+
+def test_signoff_statements_wrap_to_80_columns(tmp_path) -> None:
+    # The sign-off's statements are sentences: at 80 columns (COLUMNS=80, a terminal's common width) each is
+    # wrapped at words with its continuation lines indented, so no line but the verdict line runs past 80.
+    printed = io.StringIO()
+    with pytest.MonkeyPatch.context() as patch, contextlib.redirect_stdout(printed):
+        patch.setenv("COLUMNS", "80")
+        assert main(["check", str(EXAMPLES / "dock_lift_strap_inch.toml"), "--json", str(tmp_path / "r.json")]) == 0
+    lines = printed.getvalue().splitlines()
+    start = next(i for i, line in enumerate(lines) if line.startswith("Sign-off"))
+    signoff = [line.rstrip() for line in lines[start:]]
+    assert len(signoff) > 20 and max(len(line) for line in signoff) <= 80
+    # a wrapped statement continues under its first word, not at the margin
+    assert any(line.startswith("   ") and not line.startswith("    ") for line in signoff)
