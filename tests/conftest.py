@@ -43,3 +43,20 @@ def plate_with_hole(length=300.0, width=80.0, thickness=10.0, holes=((0.0, 0.0, 
 @pytest.fixture
 def examples() -> Path:
     return EXAMPLES
+
+
+def assert_refused(tmp_path, capsys, text: str, words, *options: str) -> None:
+    """`stressraiser check` of the part-file `text` must refuse it: exit code 2, one error line naming every
+    one of `words`, and no JSON record written (output files whole or not at all)."""
+    from stressraiser.cli.main import main
+
+    part = tmp_path / "part.toml"
+    part.write_text(text, encoding="utf-8")
+    out = tmp_path / "out.json"
+    code = main(["check", str(part), "--json", str(out), *options])
+    err = capsys.readouterr().err.strip()
+    assert code == 2, err
+    assert len(err.splitlines()) == 1, err
+    for word in words:
+        assert word in err, err
+    assert not out.exists()

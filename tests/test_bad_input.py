@@ -7,7 +7,7 @@ import sys
 
 import pytest
 
-from conftest import STRAP_TEXT
+from conftest import STRAP_TEXT, assert_refused
 from stressraiser.cli.main import main
 
 GOOD = 'title = "bad-input base"\n' + STRAP_TEXT
@@ -38,16 +38,7 @@ CASES = [
 
 @pytest.mark.parametrize("what, text, words", CASES, ids=[c[0] for c in CASES])
 def test_bad_part_file_exit_2_one_line(tmp_path, capsys, what, text, words):
-    part = tmp_path / "part.toml"
-    part.write_text(text)
-    out = tmp_path / "out.json"
-    code = main(["check", str(part), "--json", str(out)])
-    err = capsys.readouterr().err.strip()
-    assert code == 2
-    assert len(err.splitlines()) == 1, err
-    for word in words:
-        assert word in err
-    assert not out.exists()
+    assert_refused(tmp_path, capsys, text, words)
 
 
 def test_missing_file_and_bad_option(tmp_path, capsys):

@@ -12,7 +12,7 @@ import pytest
 from stressraiser.cli.main import main
 from stressraiser.compare.check import check_part
 
-from conftest import STRAP_TEXT, EXAMPLES, plate_with_hole
+from conftest import EXAMPLES, STRAP_TEXT, assert_refused, plate_with_hole
 
 BASE = 'title = "hostile input base"\n' + STRAP_TEXT
 
@@ -46,16 +46,7 @@ CASES = [
 
 @pytest.mark.parametrize("what, text, words", CASES, ids=[c[0] for c in CASES])
 def test_hostile_part_file_is_one_line_exit_2(tmp_path, capsys, what, text, words):
-    part = tmp_path / "part.toml"
-    part.write_text(text, encoding="utf-8")
-    out = tmp_path / "out.json"
-    code = main(["check", str(part), "--json", str(out), "--quiet"])
-    err = capsys.readouterr().err.strip()
-    assert code == 2, err
-    assert len(err.splitlines()) == 1, err
-    for word in words:
-        assert word in err, err
-    assert not out.exists()
+    assert_refused(tmp_path, capsys, text, words, "--quiet")
 
 
 def test_oversized_and_endless_part_files(tmp_path, capsys):

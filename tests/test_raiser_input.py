@@ -5,7 +5,8 @@ from __future__ import annotations
 
 import pytest
 
-from stressraiser.cli.main import main
+
+from conftest import assert_refused
 
 PLATE = """
 title = "raiser input base"
@@ -82,14 +83,5 @@ CASES = [
 
 @pytest.mark.parametrize("what, text, words", CASES, ids=[c[0] for c in CASES])
 def test_invalid_raiser_geometry_exit_2_names_the_feature(tmp_path, capsys, what, text, words):
-    path = tmp_path / "part.toml"
-    path.write_text(text)
-    out = tmp_path / "out.json"
-    code = main(["check", str(path), "--json", str(out)])
-    err = capsys.readouterr().err.strip()
-    assert code == 2, err
-    assert len(err.splitlines()) == 1, err
-    for word in words:
-        assert word in err, err
-    assert not out.exists()
+    assert_refused(tmp_path, capsys, text, words)
 

@@ -9,9 +9,10 @@ from __future__ import annotations
 
 import pytest
 
-from stressraiser.cli.main import main
 from stressraiser.geometry.errors import PartError
 from stressraiser.geometry.partfile import parse_part
+
+from conftest import assert_refused
 
 PSI = 4.4482216152605 / 25.4**2  # MPa per psi (NIST SP 811, exact)
 
@@ -161,16 +162,7 @@ CASES = [
 
 @pytest.mark.parametrize("what, text, words", CASES, ids=[c[0] for c in CASES])
 def test_mistake_is_one_line_exit_2(tmp_path, capsys, what, text, words) -> None:
-    part = tmp_path / "part.toml"
-    part.write_text(text)
-    out = tmp_path / "out.json"
-    code = main(["check", str(part), "--json", str(out)])
-    err = capsys.readouterr().err.strip()
-    assert code == 2, err
-    assert len(err.splitlines()) == 1, err
-    for word in words:
-        assert word in err, err
-    assert not out.exists()
+    assert_refused(tmp_path, capsys, text, words)
 
 
 def test_every_case_is_refused_before_any_solve() -> None:
