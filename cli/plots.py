@@ -28,6 +28,7 @@ from ..compare.check import CheckResult
 from ..geometry.outline import part_polygon
 from ..geometry.units import DEFAULT_SYSTEM
 from .citation import short_source
+from .summary import estimate_how
 from .display_units import cut_label, display_unit, label as unit_label, point_text, quantity_text, shown, unsigned_zero
 
 INK = "#222222"
@@ -688,7 +689,7 @@ def convergence_figure(result: CheckResult) -> Figure:
     for lv, x, p in zip(study.levels, h, peaks):
         ax.annotate(f"{2 * lv.nodes:,} DOFs", xy=(x, p), xytext=(6, 5), textcoords="offset points", fontsize=8,
                     color=GROSS_LINE)
-    how = {"richardson": "extrapolated (Richardson)"}.get(est.method, f"finest level ({est.method})")
+    how = estimate_how(est)
     ax.errorbar([0.0], [est.value], yerr=[[band], [band]], fmt="D", color=FE_LINE, ms=7, capsize=4, lw=1.2,
                 label=f"{how}: {quantity_text(est.value, 'stress', units)}")
     ax.set_xlim(-0.04 * h.max(), 1.15 * h.max())

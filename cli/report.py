@@ -31,6 +31,7 @@ from .. import __version__
 from ..compare.check import CheckResult
 from ..geometry.units import DEFAULT_SYSTEM, format_number
 from . import plots
+from .summary import estimate_how
 from .display_units import cut_label, label, point_text, quantity_text, shown, significant, warning_text
 from .fields import CELL_FIELDS, POINT_FIELDS, vtu_bytes
 from .files import write_atomic, write_json
@@ -437,7 +438,7 @@ def _convergence_section(result: CheckResult, figures: list[Rendered]) -> str:
              f"{sum(lv.seconds.values()):.2f}")
             for i, (lv, x) in enumerate(zip(study.levels, h), start=1)]
     order = f", observed order {est.order:.2f}" if est.order else ""
-    text = (f"Estimate by {est.method}{order}: {quantity_text(est.value, 'stress', units, '.2f')} "
+    text = (f"Estimate: {estimate_how(est)}{order}: {quantity_text(est.value, 'stress', units, '.2f')} "
             f"± {est.error:.2%} (target "
             f"{result.spec.mesh.tolerance:.2%}); {'converged' if study.converged else 'NOT converged'}"
             + (f"; stopped because {study.stop_reason}" if study.stop_reason else "") + ".")

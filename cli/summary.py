@@ -160,8 +160,14 @@ def print_levels(result: CheckResult, console: Console) -> None:
     console.print(levels)
     est = result.study.estimate
     order = f", observed order {est.order:.2f}" if est.order else ""
-    console.print(f"estimate by {est.method}{order}; target error {result.spec.mesh.tolerance:.2%}",
+    console.print(f"Estimate: {estimate_how(est)}{order}; target error {result.spec.mesh.tolerance:.2%}",
                   soft_wrap=False)
+
+
+def estimate_how(est) -> str:
+    """How the converged peak was obtained (fem.convergence.Estimate.method), in words for the terminal,
+    the report and its convergence figure."""
+    return {"richardson": "extrapolated (Richardson)"}.get(est.method, f"finest level ({est.method})")
 
 
 def print_cautions(result: CheckResult, console: Console) -> None:
