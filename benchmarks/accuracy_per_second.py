@@ -2,7 +2,7 @@
 graded at the raiser and for uniform meshes, with linear (order 1) and quadratic (order 2) triangles.
 
 Part: the bundled winch strap (central hole, d/W = 0.275, axial load). Published value: the curve fit of
-Pilkey & Pilkey, Peterson's Stress Concentration Factors, 3rd ed. (2008), chart 4.1 (shared/REFERENCES.md):
+Pilkey & Pilkey, Peterson's Stress Concentration Factors, 3rd ed. (2008), chart 4.1 (docs/references.md):
 Ktn = 2 + 0.284 (1 - x) - 0.600 (1 - x)^2 + 1.32 (1 - x)^3, x = d/W. Kt of one mesh is its peak (largest
 maximum principal stress, no extrapolation) over the net-section average. The time of one mesh is meshing
 plus solve_part (assemble, solve, recover), best of n. Then the whole converged check (Richardson over

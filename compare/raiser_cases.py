@@ -110,7 +110,7 @@ _U_NOTCHES_HIGH: Coefficients = ((0.833, 2.069, -0.009), (2.732, -4.157, 0.176),
 
 def roark_opposite_u_notches(p: dict[str, float]) -> float:
     """Young & Budynas, Roark's Formulas for Stress and Strain, 7th ed., table 17.1 (from memory; shared
-    REFERENCES.md section 3): Kt = C1 + C2 x + C3 x^2 + C4 x^3, x = 2h/D, on the net section."""
+    docs/references.md [Roark]): Kt = C1 + C2 x + C3 x^2 + C4 x^3, x = 2h/D, on the net section."""
     return two_range_cubic(p, _U_NOTCHES_LOW, _U_NOTCHES_HIGH)
 
 
@@ -209,7 +209,7 @@ _STEP_HIGH: Coefficients = ((1.042, 0.982, -0.036), (-0.074, -0.156, -0.01), (-3
 
 def roark_stepped_bar(p: dict[str, float]) -> float:
     """Young & Budynas, Roark's Formulas for Stress and Strain, 7th ed., table 17.1 (from memory; shared
-    REFERENCES.md section 4): Kt = C1 + C2 x + C3 x^2 + C4 x^3, x = 2h/D, on the narrow section."""
+    docs/references.md [Roark]): Kt = C1 + C2 x + C3 x^2 + C4 x^3, x = 2h/D, on the narrow section."""
     return two_range_cubic(p, _STEP_LOW, _STEP_HIGH)
 
 
@@ -299,7 +299,7 @@ RAISER_CASES: tuple[Case, ...] = (
     Case(key="opposite-u-notches-roark", family="opposite-u-notches",
          title="Two opposite U-notches in a flat bar, axial tension",
          source="W. C. Young and R. G. Budynas, Roark's Formulas for Stress and Strain, 7th ed. (2002), table 17.1 "
-                "(from memory; coefficients in shared/REFERENCES.md section 3)",
+                "(from memory; coefficients in docs/references.md [Roark])",
          formula="Ktn = C1 + C2 (2h/D) + C3 (2h/D)^2 + C4 (2h/D)^3, C from sqrt(h/r) and h/r",
          nominal="net", nominal_text="P / ((D - 2h) t)",
          ranges={"h/r": (0.1, 50.0), "2h/D": (0.0, 1.0)}, kt=roark_opposite_u_notches,
@@ -323,7 +323,7 @@ RAISER_CASES: tuple[Case, ...] = (
     Case(key="stepped-bar-fillets-roark", family="stepped-bar-fillets",
          title="Stepped flat bar with shoulder fillets, axial tension",
          source="W. C. Young and R. G. Budynas, Roark's Formulas for Stress and Strain, 7th ed. (2002), table 17.1 "
-                "(from memory; coefficients in shared/REFERENCES.md section 4); older photoelastic charts read "
+                "(from memory; coefficients in docs/references.md [Roark]); older photoelastic charts read "
                 "7-10 % lower",
          formula="Ktn = C1 + C2 (2h/D) + C3 (2h/D)^2 + C4 (2h/D)^3, C from sqrt(h/r) and h/r, h = (D - d)/2",
          nominal="net", nominal_text="P / (d t), the narrow section",

@@ -39,7 +39,7 @@ compares "part" by default, since an in-house reference is the part's own peak.
 
 The built-in suite takes every handbook case whose family has a part builder and checks it at
 POINT_FRACTIONS of each parameter's validity range. Tolerances follow the handbook's own scatter
-(shared/REFERENCES.md): a tabulated solution (the case's formula text says it comes from a table) 1 %, a
+(docs/references.md): a tabulated solution (the case's formula text says it comes from a table) 1 %, a
 curve fit to charts 3 %; TOLERANCE_OVERRIDES holds any case whose published scatter warrants another band.
 Each built-in part asks the FE for an error band equal to its tolerance, kept within BUILTIN_MESH_LIMITS
 (so mesh.tolerance 0.01 for a table, 0.02 for a curve fit): fast enough for CI, and the Richardson
@@ -70,8 +70,8 @@ KT_OF = ("case", "part")  # the raiser the handbook case describes, or the part'
 TOP_KEYS = {"title", "defaults", "case"}
 
 POINT_FRACTIONS = (0.2, 0.5, 0.8)  # where the built-in points sit inside each parameter's range
-TABLE_TOLERANCE = 0.01  # tabulated solutions (Howland's table): 1 % (shared/REFERENCES.md)
-CURVE_FIT_TOLERANCE = 0.03  # curve fits to handbook charts: 3 % (shared/REFERENCES.md)
+TABLE_TOLERANCE = 0.01  # tabulated solutions (Howland's table): 1 % (docs/references.md)
+CURVE_FIT_TOLERANCE = 0.03  # curve fits to handbook charts: 3 % (docs/references.md)
 TOLERANCE_OVERRIDES: dict[str, float] = {  # case key -> tolerance, where a case's scatter warrants another
     # in-plane bending fits (compare/bending_cases.py, from memory): this project's FE lies -4.0 ... +3.8 %
     # from them at the checked points (tests/test_bending_handbook.py), as it lies ~3 % from the tension fits

@@ -10,7 +10,7 @@ def kirsch_stress(points: np.ndarray, a: float, s: float = 1.0) -> np.ndarray:
     under remote uniaxial stress s along x.
 
     G. Kirsch, Z. VDI 42 (1898); polar components as in S. P. Timoshenko and J. N. Goodier, Theory of
-    Elasticity, 3rd ed. (from memory; transcribed in shared/REFERENCES.md section 1).
+    Elasticity, 3rd ed. (from memory; transcribed in docs/references.md [Kirsch]).
     """
     x, y = points[:, 0], points[:, 1]
     r, t = np.hypot(x, y), np.arctan2(y, x)

@@ -30,7 +30,7 @@ def schulz_row(x: float) -> float:
 
 def peterson_chart_4_1(x: float) -> float:
     """Ktn of a central hole, x = d/W: Pilkey & Pilkey, Peterson's SCF, 3rd ed. (2008), chart 4.1 curve fit
-    (from memory; shared/REFERENCES.md 2)."""
+    (from memory; docs/references.md [Howland], [Peterson])."""
     return 2 + 0.284 * (1 - x) - 0.600 * (1 - x) ** 2 + 1.32 * (1 - x) ** 3
 
 

@@ -1,7 +1,7 @@
 """Static design check: hand-computed cases from the definitions (common practice).
 
 Definitions used for every expected value below (facts of the trade, common practice, see
-REFERENCES.md section 6): allowable stress = failure stress / factor of safety; average normal stress =
+docs/references.md [Practice]): allowable stress = failure stress / factor of safety; average normal stress =
 force / area; margin of safety = allowable / actual - 1; factor of safety = failure load / allowable load
 (so achieved factor = failure stress / actual stress); required area = load / allowable stress.
 Tolerance: rel 1e-12 (exact arithmetic on small decimals).

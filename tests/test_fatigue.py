@@ -1,6 +1,6 @@
 """Fatigue screen: notch sensitivity, Kf, endurance estimate and modified Goodman.
 
-Check points for q and Kf are from /work/shared/REFERENCES.md section 5: Peterson (R. E. Peterson in
+Check points for q and Kf are from docs/references.md [Peterson-q], [Shigley]: Peterson (R. E. Peterson in
 Sines & Waisman, Metal Fatigue, 1959, from memory) and Neuber's steel fit (Budynas & Nisbett, Shigley's
 Mechanical Engineering Design, 9th ed., eq. 6-35, from memory). Tolerance there: 1 %.
 Goodman and endurance cases are hand-computed from the definitions (common practice), rel 1e-12.
@@ -30,21 +30,21 @@ from stressraiser.compare.fatigue import (
 from stressraiser.geometry.errors import PartError
 
 REL = 1e-12
-REF = 0.01  # 1 % on the REFERENCES.md section 5 check points
+REF = 0.01  # 1 % on the docs/references.md [Peterson-q], [Shigley] check points
 
 
 def test_peterson_q_check_point() -> None:
-    # REFERENCES.md s.5, Peterson in Sines & Waisman (1959), from memory: Su 700 MPa, r 1 mm -> q 0.848
+    # docs/references.md [Peterson-q], [Shigley], Peterson in Sines & Waisman (1959), from memory: Su 700 MPa, r 1 mm -> q 0.848
     assert peterson_q(1.0, peterson_a_steel(700.0)) == pytest.approx(0.848, rel=REF)
 
 
 def test_neuber_q_check_point() -> None:
-    # REFERENCES.md s.5, Shigley 9th ed. eq. 6-35, from memory: Su 700 MPa, r 1 mm -> q 0.765
+    # docs/references.md [Peterson-q], [Shigley], Shigley 9th ed. eq. 6-35, from memory: Su 700 MPa, r 1 mm -> q 0.765
     assert neuber_q(1.0, neuber_sqrt_rho_steel(700.0)) == pytest.approx(0.765, rel=REF)
 
 
 def test_kf_check_points() -> None:
-    # REFERENCES.md s.5 (from memory): Kt 2.5 -> Kf 2.273 (Peterson) and 2.147 (Neuber)
+    # docs/references.md [Peterson-q], [Shigley] (from memory): Kt 2.5 -> Kf 2.273 (Peterson) and 2.147 (Neuber)
     q_p = steel_notch_sensitivity(1.0, 700.0, "peterson")
     q_n = steel_notch_sensitivity(1.0, 700.0, "neuber")
     assert fatigue_notch_factor(2.5, q_p) == pytest.approx(2.273, rel=REF)
@@ -59,7 +59,7 @@ def test_kf_limits() -> None:
 
 @pytest.mark.parametrize("su", [339.9, 1700.1, 200.0, 2000.0, math.nan])
 def test_neuber_steel_fit_refuses_outside_its_range(su: float) -> None:
-    # validity Su 340-1700 MPa: REFERENCES.md s.5 (Shigley 9th ed. eq. 6-35, from memory)
+    # validity Su 340-1700 MPa: docs/references.md [Peterson-q], [Shigley] (Shigley 9th ed. eq. 6-35, from memory)
     with pytest.raises(PartError, match="340-1700 MPa"):
         neuber_sqrt_rho_steel(su)
 
@@ -96,7 +96,7 @@ def test_goodman_hand_case() -> None:
 
 def test_screen_on_steel_hand_case() -> None:
     # 0 -> 20 kN on 100 mm² net: sa = sm = 100 MPa nominal. Su 700 MPa -> Se' = 350 MPa (common practice).
-    # With Kf = 2.273 (REFERENCES.md s.5, from memory) on both: n = 1 / (227.3/350 + 227.3/700) = 1.0267
+    # With Kf = 2.273 (docs/references.md [Peterson-q], [Shigley], from memory) on both: n = 1 / (227.3/350 + 227.3/700) = 1.0267
     s = fatigue_screen(cycle_from_range(0.0, 20_000.0), 100.0, 2.5, 1.0, 700.0, "steel", 1.0)
     assert s.method == "peterson" and s.se_basis == "estimate" and s.life_cycles is None
     assert s.se_mpa == pytest.approx(350.0, rel=REL)
@@ -116,7 +116,7 @@ def test_screen_on_steel_hand_case() -> None:
 def test_screen_neuber_method() -> None:
     s = fatigue_screen(cycle_from_alternating(5_000.0, 0.0), 100.0, 2.5, 1.0, 700.0, "steel", 1.0,
                        method="neuber")
-    # REFERENCES.md s.5 (from memory): Kf 2.147; fully reversed hand case n = 350 / (2.147 x 50)
+    # docs/references.md [Peterson-q], [Shigley] (from memory): Kf 2.147; fully reversed hand case n = 350 / (2.147 x 50)
     assert s.method == "neuber" and s.kf == pytest.approx(2.147, rel=REF)
     assert s.n_f == pytest.approx(350.0 / (2.147 * 50.0), rel=REF)
 
@@ -170,7 +170,7 @@ def test_q_and_kf_bounds(r: float, su: float, kt: float) -> None:
 
 @given(r=st.floats(0.05, 50.0), su=st.floats(340.0, 1700.0))
 def test_q_grows_with_radius_and_strength(r: float, su: float) -> None:
-    # Peterson and Neuber (REFERENCES.md s.5): blunter notches and stronger steels are more sensitive
+    # Peterson and Neuber (docs/references.md [Peterson-q], [Shigley]): blunter notches and stronger steels are more sensitive
     for method in ("peterson", "neuber"):
         q = steel_notch_sensitivity(r, su, method)
         assert steel_notch_sensitivity(r * 1.1, su, method) > q

@@ -80,7 +80,7 @@ def test_markup_in_the_title_is_printed_as_text(tmp_path, capsys):
 def test_small_hole_is_refined_not_frozen():
     # A 0.5 mm hole in an 80 mm strap (d/W = 0.00625) once stopped refining at the mesher's size floor and
     # reported Kt(gross) 2.71 "converged". Howland's table, Phil. Trans. R. Soc. A 229 (1930): Ktg = 3.00
-    # at d/W = 0 and 3.03 at 0.1, so 3.00 here to within its 1 % tolerance (shared/REFERENCES.md).
+    # at d/W = 0 and 3.03 at 0.1, so 3.00 here to within its 1 % tolerance (docs/references.md).
     spec = plate_with_hole(holes=((0.0, 0.0, 0.5),), tolerance=0.01)
     result = check_part(spec)
     assert result.kt.converged

@@ -49,7 +49,7 @@ def _solve_kirsch_square(scale):
 
 
 def test_reference_formula_check_points():
-    # Check points of shared/REFERENCES.md section 1 (Kirsch, from memory): s = 1, a = 1.
+    # Check points of docs/references.md [Kirsch] (Kirsch, from memory): s = 1, a = 1.
     srr, stt, _ = kirsch_polar(2.0, np.pi / 2)
     assert (srr, stt) == pytest.approx((0.28125, 1.21875), abs=5e-6)
     assert kirsch_polar(1.5, np.pi / 3) == pytest.approx((0.32407, 1.12037, -0.56131), abs=5e-6)

@@ -15,7 +15,7 @@ from stressraiser.geometry.partfile import part_from_dict
 @pytest.mark.parametrize("h_r, x, expected", [(1.0, 0.2, 2.422), (2.0, 0.3, 2.780), (10.0, 0.4, 4.436)])
 def test_roark_opposite_u_notches_check_points(h_r, x, expected):
     # Young & Budynas, Roark's Formulas for Stress and Strain, 7th ed., table 17.1 (from memory); check points
-    # transcribed in shared/REFERENCES.md section 3.
+    # transcribed in docs/references.md [Roark].
     assert evaluate("opposite-u-notches-roark", {"h/r": h_r, "2h/D": x}) == pytest.approx(expected, abs=5e-4)
 
 
@@ -23,7 +23,7 @@ def test_roark_opposite_u_notches_check_points(h_r, x, expected):
                                               (100.0, 50.0, 10.0, 1.999)])
 def test_roark_stepped_bar_check_points(D, d, r, expected):
     # Young & Budynas, Roark's Formulas for Stress and Strain, 7th ed., table 17.1 (from memory); check points
-    # (D, d, r -> Kt) transcribed in shared/REFERENCES.md section 4.
+    # (D, d, r -> Kt) transcribed in docs/references.md [Roark].
     h = 0.5 * (D - d)
     assert evaluate("stepped-bar-fillets-roark", {"h/r": h / r, "2h/D": 2 * h / D}) == pytest.approx(expected, abs=5e-4)
 
@@ -40,13 +40,13 @@ def test_inglis_inclined_form_reduces_to_the_closed_forms(a_b):
 
 
 def test_inglis_circle_is_kirsch():
-    # A circular hole (a = b): Kirsch, Kt = 3 (shared/REFERENCES.md section 1).
+    # A circular hole (a = b): Kirsch, Kt = 3 (docs/references.md [Kirsch]).
     assert inglis_kt(1.0, 37.0) == 3.0
 
 
 def test_semicircular_fit_agrees_with_roark_at_h_equal_r():
     # Two sources for opposite semicircular notches: Peterson's chart 2.3 fit (from memory) and Roark's
-    # U-notch fit at h/r = 1 (REFERENCES.md section 3). Both are fits to the same data; they agree within
+    # U-notch fit at h/r = 1 (docs/references.md [Roark]). Both are fits to the same data; they agree within
     # 0.5 % for 2r/D up to 0.5 (checked here), and both start from the single-notch 3.065.
     for x in (0.0, 0.1, 0.2, 0.3, 0.4, 0.5):
         peterson = evaluate("opposite-semicircular-notches-peterson", {"2r/D": x})
@@ -57,7 +57,7 @@ def test_semicircular_fit_agrees_with_roark_at_h_equal_r():
 
 def test_row_fit_limits():
     # Schulz's row (from memory): tiny holes are Kirsch's single hole (Kt 3); as the holes meet the net
-    # ligament carries the load uniformly (Ktn -> 1), as Howland's fit does at d/W -> 1 (REFERENCES.md 2).
+    # ligament carries the load uniformly (Ktn -> 1), as Howland's fit does at d/W -> 1 (docs/references.md [Howland], [Peterson]).
     assert evaluate("row-of-holes-schulz", {"d/l": 0.0, "holes": 7}) == pytest.approx(3.0)
     assert evaluate("row-of-holes-schulz", {"d/l": 1.0, "holes": 7}) == pytest.approx(1.0, abs=1e-9)
 

@@ -59,13 +59,13 @@ def test_elliptical_hole_matches_inglis(a_b, angle, expected):
 # --- edge notches --------------------------------------------------------------------------------------
 
 @pytest.mark.parametrize("h_r, x, expected", [
-    (1.0, 0.2, 2.422),   # shared/REFERENCES.md section 3 check point
-    (2.0, 0.3, 2.780),   # shared/REFERENCES.md section 3 check point
+    (1.0, 0.2, 2.422),   # docs/references.md [Roark] check point
+    (2.0, 0.3, 2.780),   # docs/references.md [Roark] check point
     (0.5, 0.2, 1.9309),  # the same formula at h/r = 0.5
 ])
 def test_opposite_u_notches_match_roark(h_r, x, expected):
     # Young & Budynas, Roark's Formulas for Stress and Strain, 7th ed., table 17.1 (from memory; coefficients
-    # and check points in shared/REFERENCES.md section 3), net section; curve fit: 3 %.
+    # and check points in docs/references.md [Roark]), net section; curve fit: 3 %.
     result = check(BUILDERS["opposite-u-notches"]({"h/r": h_r, "2h/D": x}))
     assert_sound(result)
     match = next(m for m in result.handbook if m.case.key == "opposite-u-notches-roark")
@@ -112,16 +112,16 @@ def test_single_edge_u_notch_matches_semi_infinite_fit(h_r, h_w):
 # --- stepped flat bar -----------------------------------------------------------------------------------
 
 @pytest.mark.parametrize("D, d, r, expected, tolerance", [
-    (100.0, 50.0, 10.0, 1.999, 0.03),  # shared/REFERENCES.md section 4 check point
+    (100.0, 50.0, 10.0, 1.999, 0.03),  # docs/references.md [Roark] check point
     (75.0, 50.0, 12.5, 1.7501, 0.03),  # the same formula at h/r = 1
     (60.0, 50.0, 10.0, 1.6215, 0.03),  # the same formula at h/r = 0.5
-    (75.0, 50.0, 5.0, 2.235, 0.05),    # shared/REFERENCES.md section 4 check point; see below
+    (75.0, 50.0, 5.0, 2.235, 0.05),    # docs/references.md [Roark] check point; see below
 ])
 def test_stepped_bar_matches_roark(D, d, r, expected, tolerance):
     # Young & Budynas, Roark's Formulas for Stress and Strain, 7th ed., table 17.1 (from memory; coefficients
-    # and check points in shared/REFERENCES.md section 4), nominal P / (d t); curve fit: 3 %. The wide
+    # and check points in docs/references.md [Roark]), nominal P / (d t); curve fit: 3 %. The wide
     # part is three wide widths long. At the sharper fillet (h/r = 2.5, r/d = 0.1) the FE sits 2.8-3.4 %
-    # above the fit (measured); REFERENCES.md warns that the chart data of this family differ by 7-10 %,
+    # above the fit (measured); docs/references.md warns that the chart data of this family differ by 7-10 %,
     # so that point is held to 5 %.
     part = {"title": "stepped bar", "plate": {"length": 6 * D, "width": D, "thickness": 10.0},
             "material": {"E": 210000.0, "nu": 0.3}, "load": {"axial": 100000.0},

@@ -58,7 +58,7 @@ def test_builtin_suite_covers_every_family_with_a_builder(monkeypatch):
 
 
 def test_tolerances_follow_the_kind_of_source():
-    # shared/REFERENCES.md: Howland's table 1 %, handbook curve fits 3 % (tolerances that have served)
+    # docs/references.md: Howland's table 1 %, handbook curve fits 3 % (tolerances that have served)
     by_key = {c.key: c for c in handbook.CASES}
     assert case_tolerance(by_key["central-hole-tension-howland"]) == TABLE_TOLERANCE == 0.01
     assert case_tolerance(by_key["central-hole-tension-peterson"]) == CURVE_FIT_TOLERANCE == 0.03

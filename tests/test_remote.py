@@ -23,7 +23,7 @@ def _plate(remote, symmetry=()):
 
 
 # Kirsch superposed (G. Kirsch, Z. VDI 42, 1898; S. P. Timoshenko and J. N. Goodier, Theory of Elasticity,
-# 3rd ed. (from memory); shared/REFERENCES.md section 1): on the hole edge
+# 3rd ed. (from memory); docs/references.md [Kirsch]): on the hole edge
 # s_tt = (sx + sy) - 2 (sx - sy) cos 2t - 4 txy sin 2t, so the peak is 2 x remote for an equibiaxial
 # state and 4 x for pure shear. The plate is 20 holes wide, so its finite size shifts these by well
 # under the 2 % allowed.

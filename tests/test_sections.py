@@ -40,8 +40,7 @@ def test_five_cuts_satisfy_statics(load, holes, support):
     assert len(result.sections) == 5
     for cut in result.sections:
         # The free body on one side of any cut is in equilibrium: the FE N, V and M on the cut equal the
-        # resultant of the loads on that side (method of sections; common practice, shared/REFERENCES.md
-        # section 6). Errors are relative to the cut's largest force scale (compare.method_of_sections).
+        # resultant of the loads on that side (method of sections; common practice, docs/references.md [Practice]). Errors are relative to the cut's largest force scale (compare.method_of_sections).
         assert cut.worst_error is not None and cut.worst_error < 0.005, (cut.label, cut.normal_error,
                                                                          cut.shear_error, cut.moment_error)
     across = result.sections[0]
@@ -60,7 +59,7 @@ def test_quarter_model_reports_the_full_part():
                            "support": {"symmetry": ["x", "y"]}, "section": [{"x": 0.0}, {"x": 150.0}]})
     result = check_part(spec)
     # Howland's table, d/W = 0.3: Ktg = 3.36 (R. C. J. Howland, Phil. Trans. R. Soc. A 229, 1930;
-    # shared/REFERENCES.md section 2), 1 % as for the full model
+    # docs/references.md [Howland], [Peterson]), 1 % as for the full model
     assert result.kt.gross == pytest.approx(3.36, rel=0.01)
     # forces are those of the full part (statics: the whole 100 kN crosses every cut)
     for cut in result.sections:

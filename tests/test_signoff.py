@@ -1,14 +1,14 @@
 """The sign-off end to end: part file -> converged FE -> design check and fatigue screen -> report.
 
 Sources of the expected values:
-- Definitions (common practice; REFERENCES.md section 6): allowable stress = failure stress / factor of
+- Definitions (common practice; docs/references.md [Practice]): allowable stress = failure stress / factor of
   safety; average = force / area; margin = allowable / actual - 1; factor of safety = failure load /
   allowable load, so achieved factor = failure stress / actual stress; required area = load / allowable.
 - Kt of a central hole in a finite-width strip: Pilkey & Pilkey, Peterson's Stress Concentration
-  Factors, 3rd ed. (2008), chart 4.1 curve fit (REFERENCES.md section 2; validity range from memory).
+  Factors, 3rd ed. (2008), chart 4.1 curve fit (docs/references.md [Howland], [Peterson]; validity range from memory).
   The FE is known to agree with it within 0.4 % (tests/test_central_hole.py), so 1 % is used here for
   every figure that carries Kt.
-- Notch sensitivity: REFERENCES.md section 5 check points, Peterson (R. E. Peterson in Sines & Waisman,
+- Notch sensitivity: docs/references.md [Peterson-q], [Shigley] check points, Peterson (R. E. Peterson in Sines & Waisman,
   Metal Fatigue, 1959, from memory) and Neuber's steel fit (Budynas & Nisbett, Shigley's Mechanical
   Engineering Design, 9th ed., eq. 6-35, from memory): Su 700 MPa, r 1 mm -> q 0.848 / 0.765, 1 %.
 - Steel endurance estimate Se' = 0.5 Su (common practice).
@@ -41,7 +41,7 @@ PSI = LBF / INCH**2  # MPa per psi, by definition psi = lbf / in²
 
 
 def peterson_chart_4_1(x: float) -> float:
-    """Ktn of a central hole, d/W = x: Pilkey & Pilkey 3rd ed. chart 4.1 fit (REFERENCES.md s.2)."""
+    """Ktn of a central hole, d/W = x: Pilkey & Pilkey 3rd ed. chart 4.1 fit (docs/references.md [Howland], [Peterson])."""
     return 2.0 + 0.284 * (1 - x) - 0.600 * (1 - x) ** 2 + 1.32 * (1 - x) ** 3
 
 
@@ -161,10 +161,10 @@ def test_peterson_q_from_the_hole_radius(link_record) -> None:
     f = link_record["fatigue"]
     # the root radius is the radius of hole 1, the raiser carrying the peak: 2 mm / 2
     assert f["feature"] == "hole 1" and f["root_radius"] == pytest.approx(1.0, rel=1e-12)
-    # REFERENCES.md s.5, Peterson (Sines & Waisman 1959, from memory): Su 700 MPa, r 1 mm -> q 0.848
+    # docs/references.md [Peterson-q], [Shigley], Peterson (Sines & Waisman 1959, from memory): Su 700 MPa, r 1 mm -> q 0.848
     assert f["notch_sensitivity"]["method"] == "peterson"
     assert f["notch_sensitivity"]["q"] == pytest.approx(0.848, rel=0.01)
-    # Kf = 1 + q (Kt - 1) with Kt from chart 4.1 (d/W = 0.2 -> 2.519, REFERENCES.md s.2): 2.288
+    # Kf = 1 + q (Kt - 1) with Kt from chart 4.1 (d/W = 0.2 -> 2.519, docs/references.md [Howland], [Peterson]): 2.288
     kf = 1.0 + 0.848 * (peterson_chart_4_1(0.2) - 1.0)
     assert f["kf"] == pytest.approx(kf, rel=KT_REL)
     # fully reversed: n_f = Se' / (Kf sa), Se' = 0.5 x 700 (common practice), sa = 1000 N / 16 mm²
@@ -179,7 +179,7 @@ def test_peterson_q_from_the_hole_radius(link_record) -> None:
 def test_neuber_q_from_the_hole_radius() -> None:
     result = check_part(parse_part(LINK + 'notch_sensitivity = "neuber"\n'))
     s = result.fatigue.screen
-    # REFERENCES.md s.5, Shigley 9th ed. eq. 6-35 (from memory): Su 700 MPa, r 1 mm -> q 0.765
+    # docs/references.md [Peterson-q], [Shigley], Shigley 9th ed. eq. 6-35 (from memory): Su 700 MPa, r 1 mm -> q 0.765
     assert s.root_radius_mm == pytest.approx(1.0, rel=1e-12) and s.method == "neuber"
     assert s.q == pytest.approx(0.765, rel=0.01)
     # Kf with chart 4.1's Kt (2.519 at d/W = 0.2): 1 + 0.765 x 1.519 = 2.162

@@ -37,7 +37,7 @@ tolerance = {tolerance}
 
 def peterson_chart_4_1(x: float) -> float:
     """Ktn of a central hole in a finite-width plate, x = d/W: W. D. Pilkey and D. F. Pilkey, Peterson's
-    Stress Concentration Factors, 3rd ed. (2008), chart 4.1 curve fit (from memory; shared/REFERENCES.md 2)."""
+    Stress Concentration Factors, 3rd ed. (2008), chart 4.1 curve fit (from memory; docs/references.md [Howland], [Peterson])."""
     return 2 + 0.284 * (1 - x) - 0.600 * (1 - x) ** 2 + 1.32 * (1 - x) ** 3
 
 
