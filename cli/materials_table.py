@@ -29,7 +29,7 @@ def run(args: argparse.Namespace) -> int:
                   title_justify="left", box=None)
     for column, justify in (("grade", "left"), ("family", "left"), ("E", "right"), ("nu", "right"),
                             ("yield", "right"), ("ultimate", "right"), ("fatigue strength", "right"),
-                            ("at cycles", "right")):
+                            ("at cycles", "right"), ("K'", "right"), ("n'", "right")):
         table.add_column(column, justify=justify)
 
     def number(value: float) -> str:
@@ -38,15 +38,20 @@ def run(args: argparse.Namespace) -> int:
     for row in MATERIALS:
         fatigue = "—" if row.fatigue_strength_mpa is None else number(row.fatigue_strength_mpa)
         life = "—" if row.fatigue_life_cycles is None else f"{row.fatigue_life_cycles:.0e}"
+        cyclic = (("—", "—") if row.cyclic_strength_mpa is None
+                  else (number(row.cyclic_strength_mpa), f"{row.cyclic_exponent:g}"))
         table.add_row(row.key, row.family, number(row.youngs_modulus_mpa), f"{row.poisson_ratio:g}",
-                      number(row.yield_mpa), number(row.ultimate_mpa), fatigue, life)
+                      number(row.yield_mpa), number(row.ultimate_mpa), fatigue, life, *cyclic)
     out.print(table)
     out.print("[bold]Sources[/bold]")
     for row in MATERIALS:
-        out.print(f" {row.key}: {escape(row.name)}. {escape(row.source)}.")
+        cyclic = f" {row.cyclic_source}." if row.cyclic_source else ""
+        out.print(f" {row.key}: {escape(row.name)}. {escape(row.source)}.{escape(cyclic)}")
     out.print("Strengths are specified minimums recalled from the named standards (from memory); fatigue "
               "strengths are typical polished-specimen values, not design values. Check every value against "
               "the governing specification and the mill certificate. Steels without a listed fatigue strength "
               "get the common estimate Se' = 0.5 Su in the fatigue screen; aluminium and titanium need a "
-              "fatigue strength at a stated life.")
+              "fatigue strength at a stated life. K' and n' are the cyclic Ramberg-Osgood stress-strain curve "
+              "where published (the local strain at a yielding notch); give fatigue.cyclic_strength and "
+              "fatigue.cyclic_exponent for the others.")
     return 0

@@ -765,44 +765,40 @@ def handbook_figure(result: CheckResult) -> Figure | None:
 # --- design and fatigue (present when the part file asks for them) ------------------------------------
 
 def design_figure(design: Any, units: str = DEFAULT_SYSTEM) -> Figure | None:
-    """Net-section average and peak against the allowable stress, with margins, in the unit system
-    `units` (the record is in MPa). None when the design record lacks those numbers."""
-    names = ("net_average_mpa", "peak_mpa", "allowable_mpa")
-    if design is None or not all(isinstance(getattr(design, n, None), (int, float)) for n in names):
+    """Every stress of the design check (the hand check, a pin's bearing, the peak by both criteria) as a bar
+    against its own allowable (a dashed mark on its row), with margins, in the unit system `units` (the record
+    is in MPa). None when the design record has no checks."""
+    checks = getattr(design, "checks", None)
+    if not checks:
         return None
-    fig = _figure(height=2.9)
-    ax = fig.add_subplot()
-    bars = [("net-section average", design.net_average_mpa, getattr(design, "net_margin", None),
-             getattr(design, "net_passes", None)),
-            ("peak", design.peak_mpa, getattr(design, "peak_margin", None), getattr(design, "peak_passes", None))]
-    rows = np.arange(len(bars))[::-1]
+    names = {"net-section": "hand check", "remote-stress": "hand check", "bearing": "pin bearing",
+             "peak-von-mises": "peak, von Mises", "peak-principal": "peak, max principal"}
     governing = getattr(design, "governing_check", "")
-    for row, (label, value, margin, passes) in zip(rows, bars):
-        colour = PASS_FILL if passes else FAIL_FILL if passes is not None else GROSS_LINE
-        ax.barh(row, value, color=colour, height=0.55)
-        text = quantity_text(value, "stress", units)
-        if margin is not None and math.isfinite(margin):
-            text += f", margin {margin:+.2f}"
-        if passes is not None:
-            text += ", passes" if passes else ", FAILS"
-        ax.annotate(text, xy=(value, row), xytext=(6, 0), textcoords="offset points", va="center", ha="left",
-                    fontsize=9, color=INK, zorder=4,
+    governs = getattr(design, "peak", None) if governing == "peak" else getattr(design, "hand", None)
+    fig = _figure(height=1.2 + 0.55 * len(checks))
+    ax = fig.add_subplot()
+    rows = np.arange(len(checks))[::-1]
+    for row, line in zip(rows, checks):
+        colour = PASS_FILL if line.passes else FAIL_FILL
+        ax.barh(row, line.actual_mpa, color=colour, height=0.55)
+        ax.plot([line.allowable_mpa] * 2, [row - 0.38, row + 0.38], color=INK, lw=1.5, ls="--")
+        text = quantity_text(line.actual_mpa, "stress", units)
+        if math.isfinite(line.margin):
+            text += f", margin {line.margin:+.2f}"
+        text += ", passes" if line.passes else ", FAILS"
+        ax.annotate(text, xy=(line.actual_mpa, row), xytext=(6, 0), textcoords="offset points", va="center",
+                    ha="left", fontsize=9, color=INK, zorder=4,
                     bbox=dict(boxstyle="round,pad=0.2", facecolor="white", edgecolor="none", alpha=0.9))
-    ax.axvline(design.allowable_mpa, color=INK, lw=1.5, ls="--")
-    ax.text(design.allowable_mpa, len(bars) - 0.45,
-            f"allowable {quantity_text(design.allowable_mpa, 'stress', units)} ",
-            ha="right", va="center", fontsize=9)
     yield_mpa = getattr(design, "yield_mpa", None)
     if isinstance(yield_mpa, (int, float)):
         ax.axvline(yield_mpa, color=GROSS_LINE, lw=1.0, ls=":")
         ax.text(yield_mpa, -0.62, f" yield {quantity_text(yield_mpa, 'stress', units, '.0f')}", ha="left",
-                va="center", fontsize=8,
-                color=GROSS_LINE)
-    labels = [f"{b[0]}{' (governs)' if governing and b[0].startswith(governing.split('-')[0]) else ''}" for b in bars]
-    ax.set_yticks(rows, labels)
-    top = max(design.peak_mpa, design.net_average_mpa, design.allowable_mpa, yield_mpa or 0.0)
+                va="center", fontsize=8, color=GROSS_LINE)
+    ax.set_yticks(rows, [names.get(c.key, c.key) + (" (governs)" if c is governs else "") for c in checks])
+    top = max([c.actual_mpa for c in checks] + [c.allowable_mpa for c in checks] + [yield_mpa or 0.0])
     ax.set_xlim(0, 1.6 * top)
-    ax.set_ylim(-0.9, len(bars) - 0.2)
+    ax.set_ylim(-0.9, len(checks) - 0.4)
+    ax.set_title("dashed: each check's allowable", fontsize=8, loc="left", color=GROSS_LINE)
     unit_axis(ax.xaxis, "stress", units, "stress")
     ax.grid(True, axis="x", color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)

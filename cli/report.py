@@ -120,7 +120,7 @@ def render_figures(result: CheckResult) -> list[Rendered]:
     wanted.append(("handbook", "handbook", "This part's Kt beside the published cases that match its geometry.",
                    plots.handbook_figure))
     design, fatigue = signoff_records(result)
-    wanted.append(("design", "design", "Net-section average and peak against the allowable stress.",
+    wanted.append(("design", "design", "Each stress of the design check against its own allowable (dashed).",
                    lambda r: plots.design_figure(design, units)))
     wanted.append(("fatigue", "fatigue", "Fatigue screen on a modified Goodman diagram (notched stresses).",
                    lambda r: plots.fatigue_figure(fatigue, units)))
@@ -494,8 +494,16 @@ def _design_section(result: CheckResult, figures: list[Rendered]) -> str:
     if design is None:
         return _section("design", heading, _p("No design check was requested for this part: add a [design] "
                                                "table to the part file to compare with an allowable stress."))
-    lines = _signoff_lines(design, getattr(result, "design", None), "design", getattr(result.spec, "units", ""))
-    return _section("design", heading, _list(lines), _figures(figures),
+    envelope = getattr(result, "design", None)
+    lines = _signoff_lines(design, envelope, "design", getattr(result.spec, "units", ""))
+    checks = ""
+    if getattr(design, "checks", None) is not None and envelope is not None:
+        from .signoff_summary import CHECK_HEADER, check_caption, check_rows
+
+        units = result.spec.units
+        checks = (_table(check_rows(envelope, units), header=CHECK_HEADER, numeric=range(1, 7))
+                  + _p(check_caption(units), "small"))
+    return _section("design", heading, checks, _list(lines), _figures(figures),
                     _p(f"All the numbers of the check (in {result.spec.units}):", "small"),
                     _record_table(design, result.spec.units))
 

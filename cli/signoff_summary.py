@@ -7,12 +7,15 @@ edge; the sentences come from compare.design.design_statements and compare.fatig
 from __future__ import annotations
 
 from rich.console import Console
+from rich.table import Table
+from rich.text import Text
 
 from ..compare.check import CheckResult
-from ..compare.design import design_statements
+from ..compare.design import CheckLine, design_statements
 from ..compare.fatigue import screen_statements
 from ..compare.signoff import DesignSignOff, FatigueSignOff, material_basis
 from ..geometry.units import format_quantity
+from .display_units import label, shown
 
 
 def _verdict(passes: bool) -> str:
@@ -37,39 +40,71 @@ def print_signoff(result: CheckResult, console: Console) -> None:
         _print_fatigue(result.fatigue, units, console)
 
 
+def check_rows(design: DesignSignOff, units: str) -> list[tuple[str, ...]]:
+    """One row per check of the design: what, stress, allowable, margin, factor of safety achieved on yield
+    (bearing strength for bearing) and ultimate, required thickness, verdict; in `units`, no markup."""
+    c = design.check
+
+    def stress(value: float) -> str:
+        return shown(value, "stress", units, ".1f")
+
+    governs = {c.hand.key: c.hand, "peak": c.peak}[c.governing_check]
+
+    def row(line: CheckLine) -> tuple[str, ...]:
+        thickness = "—" if line.required_thickness_mm is None else shown(line.required_thickness_mm, "length", units, ".2f")
+        verdict = ("passes" if line.passes else "FAILS") + ("*" if line is governs else "")
+        return (CHECK_NAMES.get(line.key, line.key), stress(line.actual_mpa), stress(line.allowable_mpa),
+                f"{line.margin:+.3f}", _factor(line.achieved_fos_yield), _factor(line.achieved_fos_ultimate),
+                thickness, verdict)
+
+    return [row(line) for line in c.checks]
+
+
+CHECK_NAMES = {"net-section": "hand check", "remote-stress": "hand check", "bearing": "pin bearing",
+               "peak-von-mises": "peak von Mises", "peak-principal": "peak principal"}
+CHECK_HEADER = ("check", "stress", "allowable", "margin", "FoS y", "FoS u", "t req", "")
+
+
+def check_caption(units: str) -> str:
+    """What the columns of `check_rows` hold, in `units`."""
+    return (f"* governs. Stresses in {label('stress', units)}, required thickness (t req) in {label('length', units)}; "
+            "FoS y and FoS u: factor of safety achieved on yield (bearing: on the bearing strength) and on ultimate.")
+
+
 def _print_design(design: DesignSignOff, units: str, console: Console) -> None:
     c = design.check
-    margin = c.net_margin if c.governing_check == "net-section" else c.peak_margin
-    console.print(f"Design check: {_verdict(c.passes)} — {c.governing_check} check governs, margin {margin:+.3f}",
-                  soft_wrap=False)
+    governing = c.hand if c.governing_check == c.hand.key else c.peak
+    console.print(f"Design check: {_verdict(c.passes)} — {c.load_kind} load, {c.governing_check} check governs, "
+                  f"margin {governing.margin:+.3f}", soft_wrap=False)
+    table = Table(box=None, pad_edge=False, padding=(0, 1), show_edge=False)
+    for n, name in enumerate(CHECK_HEADER):
+        table.add_column(name, justify="left" if n in (0, len(CHECK_HEADER) - 1) else "right", no_wrap=True)
+    for row in check_rows(design, units):
+        table.add_row(*row)
+    console.print(table)
+    _item(console, "", check_caption(units), "dim")
     for line in design_statements(c, units):
         _item(console, " • ", line)
-    ultimate = ""
-    if c.achieved_fos_net_ultimate is not None:
-        ultimate = (f"; on ultimate {_factor(c.achieved_fos_net_ultimate)} (net section), "
-                    f"{_factor(c.achieved_fos_peak_ultimate)} (peak)")
-    _item(console, " • ", f"Factor of safety achieved on yield {_factor(c.achieved_fos_net_yield)} (net section), "
-          f"{_factor(c.achieved_fos_peak_yield)} (peak){ultimate}; required "
-          f"{c.fos_yield:g} on yield" + (f", {c.fos_ultimate:g} on ultimate." if c.fos_ultimate else "."))
     for line in design.basis:
         _item(console, "   ", line, "dim")
 
 
 def _print_fatigue(fatigue: FatigueSignOff, units: str, console: Console) -> None:
-    s, cycle = fatigue.screen, fatigue.cycle
-
-    def force(value: float) -> str:
-        return format_quantity(value, "force", units)
+    s = fatigue.screen
 
     def stress(value: float) -> str:
         return format_quantity(value, "stress", units)
 
+    yield_flag = " — FIRST-CYCLE YIELD at the notch" if s.first_cycle_yield else ""
     console.print(f"Fatigue screen: {_verdict(s.passes)} — n_f {s.n_f:.3g} against {s.required_factor:g} "
-                  "required (a screen, not a life prediction)", soft_wrap=False)
-    low, high = cycle.mean - cycle.alternating, cycle.mean + cycle.alternating
-    _item(console, " • ", f"Load cycle {force(low)} to {force(high)}: "
-          f"alternating {force(cycle.alternating)}, mean {force(cycle.mean)}; on the net section "
-          f"sa = {stress(s.sa_nominal_mpa)}, sm = {stress(s.sm_nominal_mpa)} (nominal).")
+                  f"required (a screen, not a life prediction){yield_flag}", soft_wrap=False)
+    cycle = f"Load cycle {fatigue.min_fraction:.4g} to {fatigue.max_fraction:.4g} x the [load]"
+    if fatigue.forces is not None:
+        low, high = (format_quantity(v, "force", units) for v in fatigue.forces)
+        cycle += f" ({low} to {high})"
+    _item(console, " • ", f"{cycle}; at the notch the nominal stress runs {stress(s.cycle.low.nominal_mpa)} to "
+          f"{stress(s.cycle.high.nominal_mpa)} (sa = {stress(s.sa_nominal_mpa)}, sm = {stress(s.sm_nominal_mpa)}) and "
+          f"the elastic peak {stress(s.cycle.low.peak_mpa)} to {stress(s.cycle.high.peak_mpa)}.")
     for line in screen_statements(s, units):
         _item(console, " • ", line)
     for line in fatigue.basis:
@@ -79,9 +114,6 @@ def _print_fatigue(fatigue: FatigueSignOff, units: str, console: Console) -> Non
 def _item(console: Console, lead: str, text: str, style: str = "") -> None:
     """One statement wrapped at words to the console's width (80 columns when not a terminal), its
     continuation lines indented under its first word; the text is printed as it is (no markup)."""
-    from rich.table import Table
-    from rich.text import Text
-
     grid = Table.grid()
     if lead:
         grid.add_column(width=len(lead), no_wrap=True)

@@ -1,14 +1,24 @@
-"""Static design check of a plate's net section and peak stress (mm, N, MPa).
+"""Static design check of a plate: the hand check on the load's own nominal, the peak check by the
+failure criterion that fits the material, and a pin's bearing (mm, N, MPa).
 
-Definitions (facts of the trade, common practice):
+Definitions (facts of the trade, common practice; docs/references.md [Practice]):
 
     allowable stress          = failure stress / factor of safety
-    net-section average       = force / net area
     margin of safety          = allowable / actual - 1          (>= 0 passes)
     achieved factor of safety = failure stress / actual stress
     required net area         = force / allowable               (without concentration)
                               = Kt_net * force / allowable      (with concentration)
     required thickness        = required net area / net width
+
+Every stress of a plate loaded by forces and moments (not by a remote stress) is inversely proportional
+to its thickness, so the thickness that brings a stress to its allowable is t x actual / allowable: for
+an axial load that is the required net area over the net width, and it holds alike for a bending
+nominal, an extreme-fibre stress, a peak and a bearing stress. A remote stress state is given as a
+stress and does not change with the thickness: it has no required thickness.
+
+Failure criteria (docs/references.md [Criteria]): a ductile metal's peak is checked by its von Mises
+stress, a brittle material's by its largest principal stress; both are computed and shown, the governing
+one named. On a traction-free edge in plane stress the two coincide (one stress acts there).
 
 Stresses and forces are magnitudes (>= 0): a compressive part is checked on |force|, and buckling is
 not considered here. A zero actual stress gives an infinite margin and factor of safety.
@@ -44,12 +54,6 @@ def allowable_stress(failure_stress_mpa: float, factor_of_safety: float) -> floa
     return failure_stress_mpa / factor_of_safety
 
 
-def net_section_average(force_n: float, net_area_mm2: float) -> float:
-    """Average normal stress on the net section in MPa = |force| (N) / net area (mm²)."""
-    _positive("net_area_mm2", net_area_mm2)
-    return abs(force_n) / net_area_mm2
-
-
 def margin_of_safety(allowable_mpa: float, actual_mpa: float) -> float:
     """Margin of safety = allowable / actual - 1 (both MPa, actual >= 0); inf when actual is 0."""
     _positive("allowable_mpa", allowable_mpa)
@@ -64,67 +68,92 @@ def achieved_factor_of_safety(failure_stress_mpa: float, actual_mpa: float) -> f
     return math.inf if actual_mpa == 0.0 else failure_stress_mpa / actual_mpa
 
 
-def required_net_area(force_n: float, allowable_mpa: float, kt: float = 1.0) -> float:
-    """Net area in mm² needed to keep kt * |force| / area at the allowable (MPa).
-
-    kt = 1 gives the hand (net-section average) sizing; kt = Kt_net sizes on the peak.
-    """
+def scaled_thickness(thickness_mm: float, actual_mpa: float, allowable_mpa: float) -> float:
+    """Thickness in mm at which a stress inversely proportional to the thickness (any stress of a plate
+    loaded by forces and moments) reaches the allowable: thickness x actual / allowable."""
+    _positive("thickness_mm", thickness_mm)
+    _non_negative("actual_mpa", actual_mpa)
     _positive("allowable_mpa", allowable_mpa)
-    if not (math.isfinite(kt) and kt >= 1.0):
-        raise ValueError(f"kt must be a finite number >= 1; got {kt!r}")
-    return kt * abs(force_n) / allowable_mpa
-
-
-def required_thickness(required_area_mm2: float, net_width_mm: float) -> float:
-    """Thickness in mm giving `required_area_mm2` over the net width (mm) of the section."""
-    _non_negative("required_area_mm2", required_area_mm2)
-    _positive("net_width_mm", net_width_mm)
-    return required_area_mm2 / net_width_mm
+    return thickness_mm * actual_mpa / allowable_mpa
 
 
 @dataclass(frozen=True)
-class StressCheck:
-    """One stress (MPa) compared with one allowable (MPa): margin = allowable/actual - 1."""
+class HandStress:
+    """The stress a hand calculation checks (MPa, magnitude): the load's own nominal on the critical
+    section (N / A_net, |M| c / I_net, the extreme-fibre N / A + M s / I, a pin's net tension) or a remote
+    state's equivalent stress. `key`, `label` and `formula` say which; `per_thickness` is False for a
+    remote stress (given as a stress: no required thickness)."""
 
+    key: str
     label: str
+    formula: str
+    stress_mpa: float
+    per_thickness: bool = True
+
+
+@dataclass(frozen=True)
+class CheckLine:
+    """One stress (MPa, magnitude) against its allowable.
+
+    key:        "net-section" or "remote-stress" (the hand check), "peak-von-mises", "peak-principal", "bearing".
+    label, formula: what the stress is and how it was obtained, in words.
+    strength_mpa: the failure stress the allowable divides (the governing one of yield and ultimate, or
+                the bearing strength).
+    achieved_fos_yield / achieved_fos_ultimate: yield (bearing strength for bearing) / actual, and
+                ultimate / actual (None without an ultimate, and for bearing).
+    required_thickness_mm: the thickness that brings the stress to its allowable (None for a remote
+                stress).
+    """
+
+    key: str
+    label: str
+    formula: str
     actual_mpa: float
     allowable_mpa: float
+    strength_mpa: float
     margin: float
     passes: bool
+    achieved_fos_yield: float
+    achieved_fos_ultimate: float | None
+    required_thickness_mm: float | None
 
 
-def stress_check(label: str, actual_mpa: float, allowable_mpa: float) -> StressCheck:
-    """Compare an actual stress magnitude with an allowable (MPa); passes when actual <= allowable."""
+def check_line(key: str, label: str, formula: str, actual_mpa: float, allowable_mpa: float, strength_mpa: float,
+               yield_like_mpa: float, ultimate_mpa: float | None, thickness_mm: float | None) -> CheckLine:
+    """A CheckLine for the magnitude of `actual_mpa`: margin and verdict against `allowable_mpa` (passes
+    when actual <= allowable), achieved factors against `yield_like_mpa` and `ultimate_mpa`, and the
+    required thickness from `thickness_mm` (None: no required thickness)."""
     actual = abs(actual_mpa)
-    margin = margin_of_safety(allowable_mpa, actual)
-    return StressCheck(label, actual, allowable_mpa, margin, actual <= allowable_mpa)
+    return CheckLine(
+        key=key, label=label, formula=formula, actual_mpa=actual, allowable_mpa=allowable_mpa,
+        strength_mpa=strength_mpa, margin=margin_of_safety(allowable_mpa, actual), passes=actual <= allowable_mpa,
+        achieved_fos_yield=achieved_factor_of_safety(yield_like_mpa, actual),
+        achieved_fos_ultimate=None if ultimate_mpa is None else achieved_factor_of_safety(ultimate_mpa, actual),
+        required_thickness_mm=None if thickness_mm is None else scaled_thickness(thickness_mm, actual, allowable_mpa),
+    )
 
 
-def hand_check(force_n: float, net_area_mm2: float, allowable_mpa: float) -> StressCheck:
-    """Net-section average |force| / net area (N, mm² -> MPa) against the allowable (MPa)."""
-    return stress_check("net-section average", net_section_average(force_n, net_area_mm2), allowable_mpa)
-
-
-def peak_check(peak_mpa: float, allowable_mpa: float) -> StressCheck:
-    """Peak stress (MPa) against the allowable (MPa)."""
-    return stress_check("peak", peak_mpa, allowable_mpa)
+CRITERION_DUCTILE = "von Mises"
+CRITERION_BRITTLE = "maximum principal"
 
 
 @dataclass(frozen=True)
 class DesignCheck:
-    """Static sign-off numbers for one net section (mm, N, MPa) and what they mean.
+    """Static sign-off numbers of one part (mm, N, MPa) and what they mean.
 
     The governing allowable is the smaller of yield / fos_yield and ultimate / fos_ultimate;
-    `governing_criterion` says which ("yield" or "ultimate"). `governing_check` is "net-section" for a
-    ductile part (local yielding redistributes the peak) and "peak" for a brittle one; `passes` is the
-    result of that check. Both checks are always reported. Achieved factors of safety against ultimate
-    are None when no ultimate strength is given.
+    `governing_criterion` says which ("yield" or "ultimate"). `hand` checks the load's own nominal on the
+    critical section (or a remote state's equivalent stress); `peak_von_mises` and `peak_principal` the
+    converged peaks by both criteria, `peak_criterion` naming the one that fits the material (von Mises
+    for a ductile metal, maximum principal for a brittle one). `governing_check` is the hand check's key
+    for a ductile part (local yielding redistributes the peak) and "peak" for a brittle one. A pin's
+    `bearing` (F / (d t) against bearing_strength / fos_yield) must pass as well. `passes` is the
+    governing check's verdict and, under a pin, the bearing's. Every line is always reported.
     """
 
-    force_n: float
-    net_area_mm2: float
-    net_width_mm: float
+    load_kind: str
     thickness_mm: float
+    net_width_mm: float | None
     kt_net: float
     ductile: bool
     yield_mpa: float
@@ -135,23 +164,65 @@ class DesignCheck:
     allowable_ultimate_mpa: float | None
     allowable_mpa: float
     governing_criterion: str
-    net_average_mpa: float
-    peak_mpa: float
-    net_margin: float
-    peak_margin: float
-    net_passes: bool
-    peak_passes: bool
-    achieved_fos_net_yield: float
-    achieved_fos_peak_yield: float
-    achieved_fos_net_ultimate: float | None
-    achieved_fos_peak_ultimate: float | None
-    required_net_area_mm2: float
-    required_net_area_kt_mm2: float
-    required_thickness_mm: float
-    required_thickness_kt_mm: float
+    peak_criterion: str
     governing_check: str
+    hand: CheckLine
+    peak_von_mises: CheckLine
+    peak_principal: CheckLine
+    bearing: CheckLine | None
+    bearing_strength_mpa: float | None
     passes: bool
     statements: tuple[str, ...]
+
+    @property
+    def peak(self) -> CheckLine:
+        """The peak check by the criterion that fits the material."""
+        return self.peak_von_mises if self.peak_criterion == CRITERION_DUCTILE else self.peak_principal
+
+    @property
+    def checks(self) -> tuple[CheckLine, ...]:
+        """Every line: the hand check, the bearing (a pin), the governing peak, then the other peak."""
+        other = self.peak_principal if self.peak is self.peak_von_mises else self.peak_von_mises
+        return (self.hand, *((self.bearing,) if self.bearing is not None else ()), self.peak, other)
+
+    # the numbers of the first, axial-only design check, kept under their names
+    @property
+    def net_average_mpa(self) -> float:
+        return self.hand.actual_mpa
+
+    @property
+    def net_margin(self) -> float:
+        return self.hand.margin
+
+    @property
+    def net_passes(self) -> bool:
+        return self.hand.passes
+
+    @property
+    def peak_mpa(self) -> float:
+        return self.peak.actual_mpa
+
+    @property
+    def peak_margin(self) -> float:
+        return self.peak.margin
+
+    @property
+    def peak_passes(self) -> bool:
+        return self.peak.passes
+
+    @property
+    def required_net_area_mm2(self) -> float | None:
+        """Net area at the hand check's required thickness (None without a net section)."""
+        return _area(self.hand.required_thickness_mm, self.net_width_mm)
+
+    @property
+    def required_net_area_kt_mm2(self) -> float | None:
+        """Net area at the peak check's required thickness: with the concentration."""
+        return _area(self.peak.required_thickness_mm, self.net_width_mm)
+
+
+def _area(thickness_mm: float | None, width_mm: float | None) -> float | None:
+    return None if thickness_mm is None or width_mm is None else thickness_mm * width_mm
 
 
 def _governing_allowable(
@@ -176,14 +247,11 @@ def _verdict(passes: bool) -> str:
 
 
 def design_statements(c: DesignCheck, system: str = DEFAULT_SYSTEM) -> tuple[str, ...]:
-    """Plain-language reading of a DesignCheck, governing check first, its stresses, areas and
-    lengths shown in `system` (a geometry.units system name; the default gives mm, mm² and MPa)."""
+    """Plain-language reading of a DesignCheck, governing check first, its stresses and lengths shown in
+    `system` (a geometry.units system name; the default gives mm, mm² and MPa)."""
 
     def stress(value: float) -> str:
         return format_quantity(value, "stress", system)
-
-    def area(value: float) -> str:
-        return format_quantity(value, "area", system)
 
     def length(value: float) -> str:
         return format_quantity(value, "length", system)
@@ -193,83 +261,132 @@ def design_statements(c: DesignCheck, system: str = DEFAULT_SYSTEM) -> tuple[str
         if c.governing_criterion == "yield"
         else f"ultimate {stress(c.ultimate_mpa)} / {c.fos_ultimate:.4g}"
     )
-    net = (
-        f"Net-section average {stress(c.net_average_mpa)} vs allowable {stress(c.allowable_mpa)} "
-        f"({criterion}): margin {c.net_margin:+.3f}, {_verdict(c.net_passes)}."
-    )
-    peak = (
-        f"Peak {stress(c.peak_mpa)} (Kt_net {c.kt_net:.3g}) vs allowable {stress(c.allowable_mpa)}: "
-        f"margin {c.peak_margin:+.3f}, {_verdict(c.peak_passes)}."
-    )
+
+    def line(ln: CheckLine, what: str, basis: str) -> str:
+        return (f"{what} {stress(ln.actual_mpa)} vs allowable {stress(ln.allowable_mpa)} ({basis}): margin "
+                f"{ln.margin:+.3f}, {_verdict(ln.passes)}.")
+
+    hand = line(c.hand, f"{c.hand.label[0].upper()}{c.hand.label[1:]} ({c.hand.formula})", criterion)
+    peak = line(c.peak, f"Peak by {c.peak_criterion} (converged, Kt_net {c.kt_net:.3g})", criterion)
+    other_line = c.peak_principal if c.peak is c.peak_von_mises else c.peak_von_mises
+    other_name = CRITERION_BRITTLE if other_line is c.peak_principal else CRITERION_DUCTILE
+    other = (f"By {other_name} the peak is {stress(other_line.actual_mpa)}: margin {other_line.margin:+.3f}, "
+             f"{_verdict(other_line.passes)} (shown, not governing).")
     out: list[str] = []
     if c.ductile:
         out += [
-            "Ductile material under static load: local yielding at the peak redistributes stress across "
-            "the net section, so the net-section average check governs (common practice).",
-            net,
-            peak + " The peak is reported, not hidden: it governs fatigue and any brittle fracture.",
+            "Ductile material under static load: local yielding at the peak redistributes stress across the "
+            f"section, so the {c.hand.label} check governs (common practice); the peak is judged by von Mises, "
+            "the criterion for ductile metals.",
+            hand,
+            peak + " Reported, not hidden: the peak governs fatigue and any brittle fracture.",
         ]
     else:
         out += [
-            "Brittle material: there is no local yielding to relieve the peak, so the peak check governs.",
+            "Brittle material: there is no local yielding to relieve the peak, so the peak check governs, judged "
+            "by the maximum principal stress, the criterion for brittle materials.",
             peak,
-            net,
+            hand,
         ]
-    if c.peak_mpa > c.yield_mpa:
+    out.append(other)
+    if c.bearing is not None:
+        out.append(line(c.bearing, f"Pin bearing ({c.bearing.formula})",
+                        f"bearing strength {stress(c.bearing_strength_mpa)} / {c.fos_yield:.4g}")
+                   + " It must pass as well.")
+    if max(c.peak_von_mises.actual_mpa, c.peak_principal.actual_mpa) > c.yield_mpa:
         out.append(
             f"The linear-elastic peak exceeds the yield strength {stress(c.yield_mpa)}: the material "
             "yields locally and the true peak stress is lower than the elastic figure."
         )
-    out.append(
-        f"Required net area {area(c.required_net_area_mm2)} without concentration, "
-        f"{area(c.required_net_area_kt_mm2)} with Kt_net; at the net width {length(c.net_width_mm)} that "
-        f"is a thickness of {length(c.required_thickness_mm)} or {length(c.required_thickness_kt_mm)} "
-        f"(actual {length(c.thickness_mm)})."
-    )
-    out.append(f"Overall ({c.governing_check} check governs): {_verdict(c.passes)}.")
+    out.append(_required_text(c, system))
+    with_bearing = " with the bearing check" if c.bearing is not None else ""
+    out.append(f"Overall ({c.governing_check} check governs{with_bearing}): {_verdict(c.passes)}.")
     return tuple(out)
 
 
+def _required_text(c: DesignCheck, system: str) -> str:
+    """The required thickness of every line that has one, and the required net area where there is one."""
+
+    def length(value: float) -> str:
+        return format_quantity(value, "length", system)
+
+    def area(value: float) -> str:
+        return format_quantity(value, "area", system)
+
+    if c.hand.required_thickness_mm is None:
+        return ("No required thickness: the remote stress is given as a stress and does not change with the "
+                f"thickness (actual {length(c.thickness_mm)}).")
+    parts = [f"{length(c.hand.required_thickness_mm)} for the {c.hand.label}",
+             f"{length(c.peak.required_thickness_mm)} for the peak ({c.peak_criterion}, with Kt_net)"]
+    if c.bearing is not None:
+        parts.append(f"{length(c.bearing.required_thickness_mm)} for bearing")
+    text = f"Required thickness {', '.join(parts)} (actual {length(c.thickness_mm)})"
+    if c.net_width_mm is not None:
+        text += (f"; at the net width {length(c.net_width_mm)} a net area of {area(c.required_net_area_mm2)} "
+                 f"without concentration, {area(c.required_net_area_kt_mm2)} with Kt_net")
+    return text + "."
+
+
 def design_check(
-    force_n: float,
-    net_area_mm2: float,
-    net_width_mm: float,
-    thickness_mm: float,
-    peak_mpa: float,
+    hand: HandStress,
+    peak_von_mises_mpa: float,
+    peak_principal_mpa: float,
     kt_net: float,
+    thickness_mm: float,
+    net_width_mm: float | None,
     yield_mpa: float,
     ultimate_mpa: float | None,
     fos_yield: float,
     fos_ultimate: float | None,
     ductile: bool,
+    load_kind: str = "axial",
+    bearing_mpa: float | None = None,
+    bearing_strength_mpa: float | None = None,
 ) -> DesignCheck:
-    """Build the static DesignCheck for one net section.
+    """Build the static DesignCheck of one part.
 
-    force_n:        axial force in N (sign ignored; magnitude is checked).
-    net_area_mm2:   net (minimum) section area in mm².
-    net_width_mm:   net width of that section in mm (used to turn areas into thicknesses).
-    thickness_mm:   plate thickness in mm (reported beside the required thickness).
-    peak_mpa:       peak stress magnitude in MPa from the FE solution.
-    kt_net:         Kt on the net-section nominal stress (>= 1), used for the area with concentration.
+    hand:               the stress the hand check uses (the load's nominal, or a remote equivalent).
+    peak_von_mises_mpa, peak_principal_mpa: the converged peaks (magnitudes, MPa) by both criteria.
+    kt_net:             Kt on the net-section nominal stress (>= 1), for the statements.
+    thickness_mm:       plate thickness (mm); net_width_mm the critical section's net width (None: none).
     yield_mpa, ultimate_mpa: material strengths in MPa (ultimate may be None).
     fos_yield, fos_ultimate: factors of safety (>= 1) on yield and ultimate (None with ultimate).
-    ductile:        True if local yielding can redistribute the peak under static load.
+    ductile:            True if local yielding can redistribute the peak under static load.
+    load_kind:          geometry.spec.LOAD_KINDS, for the record.
+    bearing_mpa, bearing_strength_mpa: a pin's bearing stress F / (d t) and the bearing strength it is
+                        checked against (allowable = strength / fos_yield); both or neither.
     """
-    _positive("net_width_mm", net_width_mm)
     _positive("thickness_mm", thickness_mm)
+    if net_width_mm is not None:
+        _positive("net_width_mm", net_width_mm)
+    if (bearing_mpa is None) != (bearing_strength_mpa is None):
+        raise ValueError("bearing_mpa and bearing_strength_mpa must be given together or both be None")
     on_yield, on_ultimate, allowable, criterion = _governing_allowable(
         yield_mpa, ultimate_mpa, fos_yield, fos_ultimate
     )
-    net = hand_check(force_n, net_area_mm2, allowable)
-    peak = peak_check(peak_mpa, allowable)
-    area = required_net_area(force_n, allowable)
-    area_kt = required_net_area(force_n, allowable, kt_net)
-    governing = "net-section" if ductile else "peak"
+    strength = yield_mpa if criterion == "yield" else ultimate_mpa
+    per_t = thickness_mm if hand.per_thickness else None
+
+    def line(key: str, label: str, formula: str, actual: float) -> CheckLine:
+        return check_line(key, label, formula, actual, allowable, strength, yield_mpa, ultimate_mpa, per_t)
+
+    hand_line = line(hand.key, hand.label, hand.formula, hand.stress_mpa)
+    von_mises = line("peak-von-mises", "peak von Mises stress", "converged over the mesh levels", peak_von_mises_mpa)
+    principal = line("peak-principal", "peak principal stress", "converged over the mesh levels, magnitude",
+                     peak_principal_mpa)
+    bearing = None
+    if bearing_mpa is not None:
+        _positive("bearing_strength_mpa", bearing_strength_mpa)
+        bearing = check_line("bearing", "pin bearing stress", "F / (d t)", bearing_mpa,
+                             allowable_stress(bearing_strength_mpa, fos_yield), bearing_strength_mpa,
+                             bearing_strength_mpa, None, thickness_mm)
+    peak_criterion = CRITERION_DUCTILE if ductile else CRITERION_BRITTLE
+    governing = hand.key if ductile else "peak"
+    main = hand_line if ductile else (von_mises if peak_criterion == CRITERION_DUCTILE else principal)
     check = DesignCheck(
-        force_n=force_n,
-        net_area_mm2=net_area_mm2,
-        net_width_mm=net_width_mm,
+        load_kind=load_kind,
         thickness_mm=thickness_mm,
+        net_width_mm=net_width_mm,
         kt_net=kt_net,
         ductile=ductile,
         yield_mpa=yield_mpa,
@@ -280,26 +397,14 @@ def design_check(
         allowable_ultimate_mpa=on_ultimate,
         allowable_mpa=allowable,
         governing_criterion=criterion,
-        net_average_mpa=net.actual_mpa,
-        peak_mpa=peak.actual_mpa,
-        net_margin=net.margin,
-        peak_margin=peak.margin,
-        net_passes=net.passes,
-        peak_passes=peak.passes,
-        achieved_fos_net_yield=achieved_factor_of_safety(yield_mpa, net.actual_mpa),
-        achieved_fos_peak_yield=achieved_factor_of_safety(yield_mpa, peak.actual_mpa),
-        achieved_fos_net_ultimate=(
-            None if ultimate_mpa is None else achieved_factor_of_safety(ultimate_mpa, net.actual_mpa)
-        ),
-        achieved_fos_peak_ultimate=(
-            None if ultimate_mpa is None else achieved_factor_of_safety(ultimate_mpa, peak.actual_mpa)
-        ),
-        required_net_area_mm2=area,
-        required_net_area_kt_mm2=area_kt,
-        required_thickness_mm=required_thickness(area, net_width_mm),
-        required_thickness_kt_mm=required_thickness(area_kt, net_width_mm),
+        peak_criterion=peak_criterion,
         governing_check=governing,
-        passes=net.passes if ductile else peak.passes,
+        hand=hand_line,
+        peak_von_mises=von_mises,
+        peak_principal=principal,
+        bearing=bearing,
+        bearing_strength_mpa=bearing_strength_mpa,
+        passes=main.passes and (bearing is None or bearing.passes),
         statements=(),
     )
     return replace(check, statements=design_statements(check))

@@ -11,7 +11,11 @@ Conventions:
   r is the notch root radius (for a hole, its radius).
 - Kf = 1 + q (Kt - 1), with Kt on the net-section nominal stress.
 - Kf is applied to BOTH the alternating and the mean nominal stress (the simple, conservative
-  convention for ductile metals that do not yield at the notch on the first cycle).
+  convention for ductile metals that do not yield at the notch on the first cycle). With two notch states
+  (min and max of the cycle) each state's notched stress is nominal + q (peak - nominal) = Kf x nominal.
+- First-cycle yield: flagged when the elastic notch stress Kt x nominal (the FE peak) passes the yield
+  strength at either extreme of the cycle; then the root's local stress and strain are estimated by
+  Neuber's rule on a cyclic Ramberg-Osgood curve (compare.local_strain) when one is known.
 - Modified Goodman: n_f = 1 / (sa/Se + sm/Su) for sm >= 0; for a compressive mean the line is taken
   as flat, n_f = Se / sa (common practice: compressive mean stress is not credited).
 """
@@ -25,6 +29,7 @@ from ..geometry.errors import PartError
 from ..geometry.materials import FAMILIES, STEEL_FAMILIES
 from ..geometry.spec import NEUBER_STEEL_RANGE_MPA, Q_METHODS
 from ..geometry.units import DEFAULT_SYSTEM, format_quantity
+from .local_strain import CyclicCurve, NotchResponse, notch_response
 
 STEEL_KNEE_MPA = 1400.0  # above this Su the steel endurance estimate stops rising (common practice)
 SCREEN_NOT_PREDICTION = (
@@ -108,30 +113,60 @@ def endurance_limit_steel(ultimate_mpa: float) -> float:
 
 
 @dataclass(frozen=True)
-class LoadCycle:
-    """A constant-amplitude cycle: alternating (>= 0) and mean values, in N (or MPa for stresses)."""
+class NotchState:
+    """The notch at one extreme of a load cycle: the nominal stress on the notch's net section and the
+    elastic peak stress at its root (MPa, signed, tension positive; the nominal carries the peak's sign).
+    `label` says where it comes from ("0.1 x [load]", or a named load case)."""
 
-    alternating: float
-    mean: float
-
-
-def cycle_from_alternating(alternating: float, mean: float) -> LoadCycle:
-    """LoadCycle from an alternating value (its magnitude is used) and a signed mean."""
-    if not (math.isfinite(alternating) and math.isfinite(mean)):
-        raise ValueError(f"alternating and mean must be finite; got {alternating!r}, {mean!r}")
-    return LoadCycle(abs(alternating), mean)
+    nominal_mpa: float
+    peak_mpa: float
+    label: str = ""
 
 
-def cycle_from_range(minimum: float, maximum: float) -> LoadCycle:
-    """LoadCycle from the signed minimum and maximum of the cycle.
+@dataclass(frozen=True)
+class NotchCycle:
+    """A constant-amplitude cycle at the notch between two solved states: `low` at the cycle's minimum
+    load, `high` at its maximum. Two states of one solution scaled by load fractions (`scaled_cycle`), or
+    the solutions of two load cases, alike."""
 
-    alternating = (max - min) / 2, mean = (max + min) / 2. Requires minimum <= maximum.
-    """
-    if not (math.isfinite(minimum) and math.isfinite(maximum)):
-        raise ValueError(f"minimum and maximum must be finite; got {minimum!r}, {maximum!r}")
-    if minimum > maximum:
-        raise ValueError(f"minimum {minimum!r} is above maximum {maximum!r}")
-    return LoadCycle(0.5 * (maximum - minimum), 0.5 * (maximum + minimum))
+    low: NotchState
+    high: NotchState
+
+    @property
+    def nominal_alternating(self) -> float:
+        return 0.5 * abs(self.high.nominal_mpa - self.low.nominal_mpa)
+
+    @property
+    def nominal_mean(self) -> float:
+        return 0.5 * (self.high.nominal_mpa + self.low.nominal_mpa)
+
+    @property
+    def kt(self) -> float:
+        """|peak / nominal| of the state with the larger nominal stress (the cycle's Kt); infinite when the
+        nominal vanishes under a peak."""
+        state = self.high if abs(self.high.nominal_mpa) >= abs(self.low.nominal_mpa) else self.low
+        if state.nominal_mpa == 0.0:
+            return math.inf if state.peak_mpa != 0.0 else 1.0
+        return abs(state.peak_mpa / state.nominal_mpa)
+
+
+def scaled_cycle(nominal_mpa: float, peak_mpa: float, low_fraction: float, high_fraction: float,
+                 what: str = "[load]") -> NotchCycle:
+    """The cycle between `low_fraction` and `high_fraction` of one solved load (low < high), whose notch
+    has the nominal and peak stresses given (MPa, signed): linear elasticity scales both with the load."""
+    if not (math.isfinite(low_fraction) and math.isfinite(high_fraction) and low_fraction < high_fraction):
+        raise ValueError(f"need finite fractions with low < high; got {low_fraction!r}, {high_fraction!r}")
+
+    def state(f: float) -> NotchState:
+        return NotchState(f * nominal_mpa, f * peak_mpa, f"{f:g} x {what}")
+
+    return NotchCycle(state(low_fraction), state(high_fraction))
+
+
+def notched_stress(state: NotchState, q: float) -> float:
+    """The fatigue-effective notch stress of a state: nominal + q (peak - nominal), i.e. Kf x nominal with
+    Kf = 1 + q (Kt - 1) (MPa, signed)."""
+    return state.nominal_mpa + q * (state.peak_mpa - state.nominal_mpa)
 
 
 def goodman_factor(sa_mpa: float, sm_mpa: float, se_mpa: float, su_mpa: float) -> float:
@@ -152,10 +187,11 @@ def goodman_factor(sa_mpa: float, sm_mpa: float, se_mpa: float, su_mpa: float) -
 class FatigueScreen:
     """Result of the fatigue screen at one raiser (MPa, mm, cycles).
 
+    cycle:            the two notch states screened (compare.fatigue.NotchCycle).
     q, method:        notch sensitivity and how it was obtained ("peterson", "neuber", "given",
                       or "unity" when no fit exists for the family and q = 1 is assumed).
     family:           the material family screened (one of FAMILIES).
-    kf:               fatigue notch factor 1 + q (Kt - 1).
+    kt_net:           the cycle's Kt on the net-section nominal; kf: fatigue notch factor 1 + q (Kt - 1).
     se_mpa:           fatigue strength used in the Goodman line.
     se_basis:         where se_mpa came from.
     life_cycles:      the life se_mpa applies to, or None for an endurance limit (steels).
@@ -163,8 +199,17 @@ class FatigueScreen:
     sa_mpa, sm_mpa:   notched stresses, Kf times the nominal ones (both).
     n_f:              modified Goodman factor of safety on the notched stresses.
     required_factor:  the factor n_f must reach; passes = n_f >= required_factor.
+    yield_mpa:        the monotonic yield strength the first cycle is compared with (None: not known).
+    elastic_peak_mpa: the largest elastic notch stress of the cycle in magnitude (Kt x nominal).
+    first_cycle_yield: True when elastic_peak_mpa passes yield_mpa: the notch root yields on the first cycle.
+    reversed_yield:   True when the elastic notch stress range passes twice the yield strength (the root
+                      yields again on every reversal, common practice).
+    local:            the Neuber / Ramberg-Osgood estimate of the notch root's stress and strain
+                      (compare.local_strain.NotchResponse) when the root yields and a cyclic curve is known.
+    curve:            that cyclic curve (compare.local_strain.CyclicCurve), or None.
     """
 
+    cycle: NotchCycle
     q: float
     method: str
     family: str
@@ -182,6 +227,12 @@ class FatigueScreen:
     n_f: float
     required_factor: float
     passes: bool
+    yield_mpa: float | None
+    elastic_peak_mpa: float
+    first_cycle_yield: bool
+    reversed_yield: bool
+    local: NotchResponse | None
+    curve: CyclicCurve | None
     statements: tuple[str, ...]
 
 
@@ -225,9 +276,7 @@ def _fatigue_strength(
 
 
 def fatigue_screen(
-    cycle_n: LoadCycle,
-    net_area_mm2: float,
-    kt_net: float,
+    cycle: NotchCycle,
     root_radius_mm: float | None,
     ultimate_mpa: float,
     family: str,
@@ -236,12 +285,12 @@ def fatigue_screen(
     fatigue_strength_mpa: float | None = None,
     fatigue_life_cycles: float | None = None,
     q: float | None = None,
+    yield_mpa: float | None = None,
+    curve: CyclicCurve | None = None,
 ) -> FatigueScreen:
-    """Screen one raiser for fatigue under a constant-amplitude axial load cycle.
+    """Screen one raiser for fatigue under a constant-amplitude cycle between two notch states.
 
-    cycle_n:         alternating and mean axial force in N.
-    net_area_mm2:    net-section area in mm² (nominal stress = force / net area).
-    kt_net:          Kt on the net-section nominal stress (>= 1).
+    cycle:           the nominal and elastic peak stresses at the cycle's two extremes (MPa, signed).
     root_radius_mm:  notch root radius in mm (hole radius for a hole), or None when the peak is at no
                      curved raiser: then q = 1 is assumed (Kf = Kt, conservative).
     ultimate_mpa:    ultimate tensile strength Su in MPa.
@@ -251,41 +300,56 @@ def fatigue_screen(
     fatigue_strength_mpa, fatigue_life_cycles: published/test fatigue strength and its life; required
                      for aluminium and titanium, optional for steels (else Se' is estimated).
     q:               notch sensitivity to use instead of a fit (0..1).
+    yield_mpa:       monotonic yield strength for the first-cycle yield flag (None: not flagged).
+    curve:           cyclic Ramberg-Osgood curve for the local stress and strain when the root yields.
     """
     if family not in FAMILIES:
         raise PartError(f"material family {family!r} is not known; use one of {', '.join(FAMILIES)}")
     if not (math.isfinite(required_factor) and required_factor >= 1.0):
         raise PartError(f"required fatigue factor must be >= 1; got {required_factor!r}")
     _check_method(method)
-    _positive("net_area_mm2", net_area_mm2)
     if root_radius_mm is not None:
         _positive("root_radius_mm", root_radius_mm)
     _positive("ultimate_mpa", ultimate_mpa)
     q_value, q_method = _notch_sensitivity(family, root_radius_mm, ultimate_mpa, method, q)
-    kf = fatigue_notch_factor(kt_net, q_value)
+    kt = max(cycle.kt, 1.0)
+    kf = fatigue_notch_factor(kt, q_value) if math.isfinite(kt) else math.inf
     se, se_basis, life = _fatigue_strength(family, ultimate_mpa, fatigue_strength_mpa, fatigue_life_cycles)
-    sa_nom = cycle_n.alternating / net_area_mm2
-    sm_nom = cycle_n.mean / net_area_mm2
-    sa, sm = kf * sa_nom, kf * sm_nom
+    low, high = notched_stress(cycle.low, q_value), notched_stress(cycle.high, q_value)
+    sa, sm = 0.5 * abs(high - low), 0.5 * (high + low)
     n_f = goodman_factor(sa, sm, se, ultimate_mpa)
+    elastic_peak = max(abs(cycle.high.peak_mpa), abs(cycle.low.peak_mpa))
+    elastic_range = abs(cycle.high.peak_mpa - cycle.low.peak_mpa)
+    yields = yield_mpa is not None and elastic_peak > yield_mpa
+    local = None
+    if yields and curve is not None:
+        top, bottom = sorted((cycle.high.peak_mpa, cycle.low.peak_mpa), reverse=True)
+        local = notch_response(curve, top, bottom)
     screen = FatigueScreen(
+        cycle=cycle,
         q=q_value,
         method=q_method,
         family=family,
-        kt_net=kt_net,
+        kt_net=kt,
         kf=kf,
         root_radius_mm=root_radius_mm,
         ultimate_mpa=ultimate_mpa,
         se_mpa=se,
         se_basis=se_basis,
         life_cycles=life,
-        sa_nominal_mpa=sa_nom,
-        sm_nominal_mpa=sm_nom,
+        sa_nominal_mpa=cycle.nominal_alternating,
+        sm_nominal_mpa=cycle.nominal_mean,
         sa_mpa=sa,
         sm_mpa=sm,
         n_f=n_f,
         required_factor=required_factor,
         passes=n_f >= required_factor,
+        yield_mpa=yield_mpa,
+        elastic_peak_mpa=elastic_peak,
+        first_cycle_yield=yields,
+        reversed_yield=yield_mpa is not None and elastic_range > 2.0 * yield_mpa,
+        local=local,
+        curve=curve,
         statements=(),
     )
     return replace(screen, statements=screen_statements(screen))
@@ -334,9 +398,49 @@ def screen_statements(s: FatigueScreen, system: str = DEFAULT_SYSTEM) -> tuple[s
     ]
     if s.sm_mpa < 0.0:
         out.append("The mean stress is compressive and is not credited: n_f = Se / sa.")
+    out += _yield_statements(s, stress)
     if s.family == "stainless" and (s.method != "given" or s.se_basis != "given"):
         out.append(
             "The steel fits were developed for carbon and alloy steels; they are applied to stainless "
             "steel here as common practice. Confirm with data for the grade."
         )
     return tuple(out)
+
+
+def _strain(value: float) -> str:
+    return f"{100.0 * value:.3g} %"
+
+
+def _yield_statements(s: FatigueScreen, stress) -> list[str]:
+    """First-cycle and reversed yield at the notch root, and the local stress and strain estimate."""
+    if s.yield_mpa is None:
+        return ["First-cycle yield at the notch is not checked: the material has no yield strength."]
+    if not s.first_cycle_yield:
+        return [f"No first-cycle yield at the notch: the largest elastic notch stress (Kt x nominal) "
+                f"{stress(s.elastic_peak_mpa)} is below the yield strength {stress(s.yield_mpa)}."]
+    out = [f"FIRST-CYCLE YIELD at the notch: the elastic notch stress Kt x nominal reaches "
+           f"{stress(s.elastic_peak_mpa)}, above the yield strength {stress(s.yield_mpa)}. The root yields on the "
+           "first cycle: the elastic notch stresses above overstate the local ones, and the local mean stress "
+           "shifts (the Goodman screen keeps the elastic, conservative mean)."]
+    if s.reversed_yield:
+        out.append(f"The elastic notch stress range passes twice the yield strength ({stress(2.0 * s.yield_mpa)}): "
+                   "the root yields again on every reversal (low-cycle fatigue, common practice); a stress screen "
+                   "does not cover this, a strain-life assessment is needed.")
+    if s.local is None or s.curve is None:
+        out.append("No cyclic stress-strain curve is known for this material: give fatigue.cyclic_strength (K') "
+                   "and fatigue.cyclic_exponent (n') for the local stress and strain by Neuber's rule.")
+        return out
+    r, c = s.local, s.curve
+    first = ("high", r.high_stress_mpa, r.high_strain) if r.first == "high" else ("low", r.low_stress_mpa, r.low_strain)
+    then = ("low", r.low_stress_mpa, r.low_strain) if r.first == "high" else ("high", r.high_stress_mpa, r.high_strain)
+    out.append(
+        f"Local stress and strain at the notch root by Neuber's rule on the cyclic Ramberg-Osgood curve "
+        f"(E {stress(c.E)}, K' {stress(c.K)}, n' {c.n:.4g}; {c.source}): first loading to the cycle's {first[0]} "
+        f"extreme, {stress(first[1])} at {_strain(first[2])} strain; reversal to the {then[0]}, {stress(then[1])} "
+        f"at {_strain(then[2])}. Loop: stress range {stress(r.stress_range_mpa)}, strain amplitude "
+        f"{_strain(r.strain_amplitude)} (plastic {_strain(r.plastic_strain_amplitude)}), local mean stress "
+        f"{stress(r.mean_stress_mpa)}.")
+    out.append("This local strain is the notch-root estimate of strain-life practice, a screen and not a fatigue "
+               "life: it assumes a uniaxial stress at the root, an elastic net section, a cyclically stable "
+               "material and Masing loops; a life needs the material's strain-life curve and is not computed here.")
+    return out

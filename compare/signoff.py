@@ -1,14 +1,21 @@
-"""The sign-off of one checked part: the static design check and the fatigue screen.
+"""The sign-off of one checked part: the static design check and the fatigue screen, for every load kind.
 
 Wires the part file's [design] and [fatigue] tables (geometry.spec.DesignSpec, FatigueSpec) to the
 converged FE numbers of a CheckResult (mm, N, MPa):
 
-- the hand check uses the net-section average (applied axial force / net area of the critical section);
-- the peak check uses the converged peak (Richardson estimate of the largest maximum principal stress);
-- required net area and thickness are given without and with the concentration (Kt_net);
-- the fatigue screen takes the notch root radius from the mesh feature that carries the peak (its
-  smallest radius of curvature; a hole's radius), so new raiser families work as soon as the mesher
-  names them and records their radius.
+- the hand check uses the load's own nominal on the critical section (compare.nominal: axial N / A_net,
+  bending |M| c / I_net, combined the extreme-fibre N / A + M s / I, a pin's net tension P / A_net beside
+  its hole) or, under a remote stress, the remote state's equivalent stress by the material's criterion;
+- the peak check uses the converged peaks by both criteria: the largest principal stress (the check's own
+  peak, `CheckResult.peak`) and the von Mises peak, extrapolated over the same mesh levels
+  (fem.equivalent_peak records it on every level); a ductile part is judged by von Mises, a brittle one
+  by the principal stress; under a pin both are free-edge peaks and the contact is the bearing check's;
+- a pin's bearing F / (d t) is checked against the bearing strength over the factor on yield;
+- the required thickness of each check comes from t x actual / allowable (compare.design);
+- the fatigue screen takes the notch's nominal and elastic peak at the [load], scales them to the
+  cycle's two extremes (linear elasticity; `scaled_cycle`) and screens the two states: a cycle between
+  two solved load cases is the same call with two solutions' states. The notch root radius comes from the
+  mesh feature that carries the peak (its smallest radius of curvature; a hole's radius).
 
 Each result carries a `basis`: the assumptions and where every input came from, in words without
 numbers that depend on units, so the same lines serve the terminal, the JSON and the HTML report;
@@ -21,9 +28,14 @@ import math
 from dataclasses import dataclass, replace
 from typing import TYPE_CHECKING
 
-from ..geometry.spec import PartSpec
-from .design import DesignCheck, design_check
-from .fatigue import FatigueScreen, LoadCycle, cycle_from_alternating, fatigue_screen
+import numpy as np
+
+from ..fem.convergence import Estimate, sequence_estimate
+from ..fem.recovery import von_mises
+from ..geometry.spec import BEARING_FACTOR, PartSpec
+from .design import HandStress, DesignCheck, design_check
+from .fatigue import FatigueScreen, fatigue_screen, scaled_cycle
+from .local_strain import CyclicCurve
 
 if TYPE_CHECKING:
     from .check import CheckResult
@@ -39,20 +51,42 @@ FATIGUE_CODE_CAUTION = (
     "governs; this screen does not replace it or review and approval by a qualified, licensed engineer."
 )
 NOT_CHECKED = (
-    "Not checked here: buckling, bearing at fastener holes, shear tear-out, block shear, welds, "
-    "fastener load sharing and combined loads other than the axial [load]."
+    "Not checked here: buckling, shear tear-out and block shear, welds, bolted joints and fastener load "
+    "sharing, and bearing at any hole other than a [load.pin]'s."
 )
 TABLE_VALUES = (
     "The built-in table gives recalled specified minimums (from memory, see `stressraiser materials`); "
     "check them against the governing specification and the mill certificate."
 )
+HAND_BASIS = {
+    "axial": "Hand check: the axial force over the net area of the critical section through the raiser carrying "
+             "the peak, taken as uniform, as a hand calculation does.",
+    "bending": "Hand check: the bending stress |M| c / I of the critical net section about its own centroid, M the "
+               "statics moment there (beam theory: plane sections, stress linear across the section).",
+    "combined": "Hand check: the larger extreme-fibre stress N / A + M s / I of the critical net section (beam "
+                "theory, axial and bending superposed); the shear force's own stress is not included.",
+    "pin": "Hand check: the pin's force over the net area of the cut through its hole across its line of action "
+           "(net tension beside the hole, taken as uniform); the bearing check takes the force over the pin's "
+           "projected area d t. Shear tear-out, hoop tension and dishing of a lug end are not checked.",
+    "remote": "Hand check: the remote (far-field) stress state as given, by the material's criterion (von Mises of "
+              "sx, sy, txy for a ductile metal, the largest principal stress in magnitude for a brittle one): the "
+              "plate away from its raisers.",
+}
+HAND_LABELS = {"axial": "net-section average", "bending": "net-section bending stress",
+               "combined": "net-section extreme-fibre stress", "pin": "net-section average beside the pin"}
 
 
 @dataclass(frozen=True)
 class DesignSignOff:
-    """The static design check of one part and the assumptions behind it."""
+    """The static design check of one part and the assumptions behind it.
+
+    von_mises:          the converged von Mises peak's estimate (value MPa, relative band, method).
+    von_mises_location: where the finest level's von Mises peak is (mm).
+    """
 
     check: DesignCheck
+    von_mises: Estimate
+    von_mises_location: tuple[float, float]
     basis: tuple[str, ...]
 
 
@@ -60,13 +94,16 @@ class DesignSignOff:
 class FatigueSignOff:
     """The fatigue screen of one part.
 
-    cycle:   alternating and mean axial force in N.
+    min_fraction, max_fraction: the cycle's extremes as multiples of the [load].
+    forces:  the cycle's (min, max) force in N when the [load] is one force (axial, or a pin), else None.
     feature: the raiser carrying the peak, whose radius is the notch root radius ("plate" if none).
     basis:   the assumptions and where the inputs came from.
     """
 
     screen: FatigueScreen
-    cycle: LoadCycle
+    min_fraction: float
+    max_fraction: float
+    forces: tuple[float, float] | None
     feature: str
     basis: tuple[str, ...]
 
@@ -89,7 +126,7 @@ def _band(result: CheckResult) -> str:
     if not math.isfinite(error):
         return "The peak has no error band (too few mesh levels): treat small margins with care."
     state = "converged" if result.kt.converged else "NOT converged"
-    return (f"The peak is the FE estimate extrapolated over the mesh levels ({state}, error band "
+    return (f"The peak (largest principal stress) is the FE estimate extrapolated over the mesh levels ({state}, error band "
             f"±{error:.2%}); a margin smaller than the band is not resolved.")
 
 
@@ -107,40 +144,106 @@ def material_basis(spec: PartSpec) -> tuple[str, ...]:
     return tuple(lines)
 
 
+def hand_stress(result: CheckResult) -> HandStress:
+    """The stress the hand check uses: the load's own net-section nominal (magnitude, MPa), or under a
+    remote load the remote state's equivalent stress by the material's criterion (compare.design)."""
+    spec = result.spec
+    kind = spec.load.kind
+    if kind == "remote":
+        r = spec.load.remote
+        if spec.design is not None and spec.design.behaviour == "brittle":
+            value = max(abs(v) for v in r.principal)
+            return HandStress("remote-stress", "remote stress", "largest remote principal stress in magnitude", value, False)
+        szz = spec.material.nu * (r.sx + r.sy) if spec.plate.condition == "plane-strain" else 0.0
+        value = float(von_mises(np.array([[r.sx, r.sy, r.txy]]), szz)[0])
+        return HandStress("remote-stress", "remote stress", "von Mises of the remote sx, sy, txy", value, False)
+    nominal = result.nominal.net
+    return HandStress("net-section", HAND_LABELS[kind], nominal.formula, abs(nominal.stress))
+
+
+def von_mises_peak(result: CheckResult) -> tuple[Estimate, tuple[float, float]]:
+    """The von Mises peak extrapolated over the study's levels the way the principal peak is
+    (fem.convergence.sequence_estimate), and where the finest level has it (mm)."""
+    levels = [lv.von_mises for lv in result.study.levels if lv.von_mises is not None]
+    if not levels:
+        finest = result.stresses.von_mises
+        return Estimate(finest.value, math.inf, None, "single level"), finest.location
+    return sequence_estimate([v for v, _ in levels]), levels[-1][1]
+
+
+def bearing_stress(result: CheckResult) -> float | None:
+    """A pin's bearing stress F / (d t) in MPa (compare.nominal's "bearing"), or None without a pin."""
+    return next((n.stress for n in result.nominal.all if n.key == "bearing"), None) if result.spec.load.pin else None
+
+
 def design_signoff(result: CheckResult) -> DesignSignOff | None:
     """The static design check, or None when the part file has no [design] table."""
     spec, design = result.spec, result.spec.design
     if design is None:
         return None
-    m, section = spec.material, result.net_section
+    m, kind = spec.material, spec.load.kind
     kt, kt_note = _kt_for_signoff(result)
+    vm, vm_location = von_mises_peak(result)
+    bearing = bearing_stress(result)
+    bearing_strength = None
+    if bearing is not None:
+        bearing_strength = design.bearing_strength or BEARING_FACTOR * m.yield_strength
     check = design_check(
-        force_n=spec.load.axial,
-        net_area_mm2=section.area,
-        net_width_mm=section.width,
-        thickness_mm=spec.plate.thickness,
-        peak_mpa=result.peak.stress,
+        hand=hand_stress(result),
+        peak_von_mises_mpa=abs(vm.value),
+        peak_principal_mpa=abs(result.peak.stress),
         kt_net=kt,
+        thickness_mm=spec.plate.thickness,
+        net_width_mm=None if kind == "remote" else result.net_section.width,
         yield_mpa=m.yield_strength,
         ultimate_mpa=m.ultimate if design.ultimate_factor is not None else None,
         fos_yield=design.yield_factor,
         fos_ultimate=design.ultimate_factor,
         ductile=design.behaviour == "ductile",
+        load_kind=kind,
+        bearing_mpa=bearing,
+        bearing_strength_mpa=bearing_strength,
     )
     ultimate = ("not checked (no design.ultimate_factor)" if design.ultimate_factor is None
                 else f"{design.ultimate_factor:g} on ultimate (as given)")
-    basis = (
+    basis = [
         f"Factor of safety {design.yield_factor:g} on yield ({_stated('yield_factor', design.defaults)}); "
         f"{ultimate}.",
-        f"Behaviour: {design.behaviour} ({design.behaviour_basis}).",
-        f"Static axial load on the critical net section through {_where(result.peak.feature)}; the hand check "
-        "uses its average stress, the peak check the converged peak, both as magnitudes.",
+        f"Behaviour: {design.behaviour} ({design.behaviour_basis}); the peak is judged by the "
+        f"{check.peak_criterion} criterion.",
+        f"Static {kind} load; critical section through {_where(result.peak.feature)}. {HAND_BASIS[kind]}",
+        _peak_basis(result, vm),
         _band(result),
         *kt_note,
-        NOT_CHECKED,
-        CODE_CAUTION,
-    )
-    return DesignSignOff(check, basis)
+    ]
+    if bearing is not None:
+        basis.append(_bearing_basis(design))
+    if spec.load.pin is not None and spec.load.pin.contact == "rigid" and spec.load.pin.clearance > 0.0:
+        basis.append("With a clearance the rigid pin's contact depends on the load level and the plate's stiffness: "
+                     "the required thicknesses, which take every stress as inversely proportional to the thickness, "
+                     "are estimates; check the chosen thickness again.")
+    basis += [NOT_CHECKED, CODE_CAUTION]
+    return DesignSignOff(check, vm, vm_location, tuple(basis))
+
+
+def _peak_basis(result: CheckResult, vm: Estimate) -> str:
+    band = f"band ±{vm.error:.2%}" if math.isfinite(vm.error) else "no band"
+    pin = (" Under a pin both are free-edge peaks: the contact's own stresses are the bearing check's."
+           if result.spec.load.pin is not None else "")
+    return ("Peak check: the converged largest principal stress (in magnitude) and the von Mises peak, extrapolated "
+            f"over the same mesh levels ({vm.method}, {band}); von Mises is the criterion for ductile metals, the "
+            "largest principal stress for brittle materials (docs/references.md [Criteria])." + pin)
+
+
+def _bearing_basis(design) -> str:
+    if design.bearing_strength is not None:
+        strength = "the bearing strength as given in [design]"
+    else:
+        strength = (f"the default bearing strength {BEARING_FACTOR:g} x yield (common practice for a pin in a "
+                    "close-fitting hole; docs/references.md [Pin-bearing]: give design.bearing_strength from "
+                    "the governing code)")
+    return (f"Bearing: the pin's force over its projected area d t, against {strength} over the factor of "
+            "safety on yield; the real contact pressure peaks above this average (the report's pin rows).")
 
 
 def _where(feature: str) -> str:
@@ -163,6 +266,15 @@ def _root_radius(result: CheckResult, q_given: bool) -> tuple[float | None, str]
     return radius, note
 
 
+def load_force(spec: PartSpec) -> float | None:
+    """The [load]'s one force in N (load.axial alone, or the pin's force), or None."""
+    if spec.load.kind == "axial":
+        return spec.load.axial
+    if spec.load.kind == "pin":
+        return spec.load.pin.force
+    return None
+
+
 def fatigue_signoff(result: CheckResult) -> FatigueSignOff | None:
     """The fatigue screen, or None when the part file has no [fatigue] table."""
     spec, fatigue = result.spec, result.spec.fatigue
@@ -171,11 +283,14 @@ def fatigue_signoff(result: CheckResult) -> FatigueSignOff | None:
     m = spec.material
     kt, kt_note = _kt_for_signoff(result)
     radius, radius_note = _root_radius(result, fatigue.q is not None)
-    cycle = cycle_from_alternating(fatigue.alternating_force, fatigue.mean_force)
+    peak = result.peak.stress
+    nominal = math.copysign(abs(result.nominal.net.stress), peak)  # the nominal at the notch carries its sign
+    cycle = scaled_cycle(nominal, kt * nominal if nominal else peak, fatigue.min_fraction, fatigue.max_fraction)
+    curve = None
+    if fatigue.cyclic_strength is not None:
+        curve = CyclicCurve(m.E, fatigue.cyclic_strength, fatigue.cyclic_exponent, fatigue.cyclic_source)
     screen = fatigue_screen(
-        cycle_n=cycle,
-        net_area_mm2=result.net_section.area,
-        kt_net=kt,
+        cycle=cycle,
         root_radius_mm=radius,
         ultimate_mpa=m.ultimate,
         family=m.family,
@@ -184,6 +299,8 @@ def fatigue_signoff(result: CheckResult) -> FatigueSignOff | None:
         fatigue_strength_mpa=m.fatigue_strength,
         fatigue_life_cycles=m.fatigue_life,
         q=fatigue.q,
+        yield_mpa=m.yield_strength,
+        curve=curve,
     )
     if screen.method == "given":
         method = "Notch sensitivity q as given"
@@ -192,15 +309,50 @@ def fatigue_signoff(result: CheckResult) -> FatigueSignOff | None:
     else:
         method = (f"Notch sensitivity by {fatigue.notch_sensitivity.capitalize()}'s steel fit "
                   f"({_stated('notch_sensitivity', fatigue.defaults)})")
+    force = load_force(spec)
+    forces = None if force is None else (fatigue.min_fraction * force, fatigue.max_fraction * force)
     basis = (
-        "Constant-amplitude axial load cycle; Kt_net from the static [load] case applies to the cycle by "
-        "linearity. No variable-amplitude loading, cumulative damage, fretting at fastener holes, "
-        "corrosion or temperature effects.",
+        _cycle_basis(spec),
         radius_note,
         f"{method}; required fatigue factor {fatigue.required_factor:g} "
         f"({_stated('required_factor', fatigue.defaults)}).",
+        _curve_basis(fatigue, m.yield_strength),
         _band(result),
         *kt_note,
         FATIGUE_CODE_CAUTION,
     )
-    return FatigueSignOff(screen, cycle, result.peak.feature, basis)
+    return FatigueSignOff(screen, fatigue.min_fraction, fatigue.max_fraction, forces, result.peak.feature, basis)
+
+
+CYCLE_FORM_WORDS = {"fractions": "given as multiples of the [load]",
+                    "forces": "given as forces, divided by the [load]'s force",
+                    "amplitude": "given as alternating and mean forces, divided by the [load]'s force"}
+
+
+def _cycle_basis(spec: PartSpec) -> str:
+    """How the cycle is built from the [load], and what that assumes for this load."""
+    f, pin = spec.fatigue, spec.load.pin
+    text = (f"Constant-amplitude cycle from {f.min_fraction:.4g} to {f.max_fraction:.4g} x the [load] "
+            f"({CYCLE_FORM_WORDS[f.cycle_form]}): every stress scales with the load (linear elasticity), so the "
+            "notch's nominal and elastic peak at each extreme are the [load]'s times the fraction. No "
+            "variable-amplitude loading, cumulative damage, fretting at fastener holes, corrosion or "
+            "temperature effects.")
+    if pin is not None and pin.contact == "rigid" and pin.clearance > 0.0:
+        text += (" The rigid pin's clearance makes its contact depend on the load level: the cycle runs from zero "
+                 "to the [load] itself, the two states that are solved exactly.")
+    elif pin is not None and pin.contact == "rigid":
+        text += " A neat-fit rigid pin's contact arc does not change with the load level, so its stresses scale."
+    if f.min_fraction < 0.0 and spec.load.kind in ("axial", "combined"):
+        text += " The cycle reaches compression: buckling is not checked."
+    return text
+
+
+def _curve_basis(fatigue, yield_mpa: float | None) -> str:
+    if yield_mpa is None:
+        return "First-cycle yield at the notch is not checked: the material has no yield strength."
+    if fatigue.cyclic_strength is None:
+        return ("First-cycle yield: the elastic notch stress Kt x nominal against the yield strength; no cyclic "
+                "stress-strain curve is known, so a yielding notch gets no local strain estimate.")
+    return ("First-cycle yield: the elastic notch stress Kt x nominal against the yield strength; a yielding "
+            "notch's local stress and strain by Neuber's rule on the cyclic Ramberg-Osgood curve (K' and n' "
+            f"{fatigue.cyclic_source}; E of [material]; docs/references.md [Neuber], [Ramberg-Osgood], [Masing]).")

@@ -21,6 +21,7 @@ from ..geometry.meshing import mesh_part
 from ..geometry.spec import PartSpec
 from .analysis import Solution, solve_part
 from .budget import BudgetError, check_first_level, level_over_budget
+from .equivalent_peak import von_mises_peak
 from .guards import check_fields
 from .raiser_peaks import raiser_peaks
 
@@ -44,6 +45,7 @@ class Level:
     seconds: dict[str, float]
     raisers: dict[str, tuple[float, tuple[float, float]]] = field(default_factory=dict)  # fem.raiser_peaks
     solver: str = ""  # the method that solved this level's system: "pardiso", "superlu" or "amg-cg" (fem.solve)
+    von_mises: tuple[float, tuple[float, float]] | None = None  # von Mises peak and where (fem.equivalent_peak)
 
 
 @dataclass(frozen=True)
@@ -124,6 +126,7 @@ def converge(spec: PartSpec, report: Callable[[Level], None] | None = None) -> t
             seconds={"mesh": meshed, **solution.seconds},
             raisers=raiser_peaks(solution),
             solver=solution.solver.method if solution.solver is not None else "",
+            von_mises=von_mises_peak(spec, solution),
         )
         levels.append(level)
         if report is not None:
@@ -139,7 +142,7 @@ def converge(spec: PartSpec, report: Callable[[Level], None] | None = None) -> t
             stop = f"the next level would exceed mesh.max_elements = {spec.mesh.max_elements}"
             break
         scale /= LEVEL_RATIO
-    estimate = richardson([lv.peak for lv in levels]) if len(levels) >= MIN_LEVELS else _two_level(levels)
+    estimate = sequence_estimate([lv.peak for lv in levels])
     return Study(tuple(levels), estimate, estimate.error <= spec.mesh.tolerance and len(levels) >= MIN_LEVELS, stop), solution
 
 
@@ -155,9 +158,12 @@ def _next_elements(levels: list[Level]) -> float:
     return levels[-1].elements * levels[-1].elements / levels[-2].elements
 
 
-def _two_level(levels: list[Level]) -> Estimate:
-    """Fewer than three levels: finest value, band from the last change (or unknown)."""
-    if len(levels) < 2:
-        return Estimate(levels[-1].peak, math.inf, None, "single level")
-    f2, f3 = levels[-2].peak, levels[-1].peak
+def sequence_estimate(values: list[float]) -> Estimate:
+    """The converged estimate of a value recorded on every level (coarse to fine): Richardson's from three
+    or more levels, else the finest value with a band from the last change (or unknown from one level)."""
+    if len(values) >= MIN_LEVELS:
+        return richardson(values)
+    if len(values) < 2:
+        return Estimate(values[-1], math.inf, None, "single level")
+    f2, f3 = values[-2], values[-1]
     return Estimate(f3, SAFETY_UNSURE * abs(f3 - f2) / max(abs(f3), 1e-300), None, "bounded")

@@ -347,12 +347,13 @@ def _cli_value(text: str) -> float | str:
 
 
 def _design(data: dict[str, Any], spec: PartSpec) -> DesignSpec | None:
-    """[design]: factors of safety and ductile/brittle behaviour; needs the yield strength."""
+    """[design]: factors of safety, ductile/brittle behaviour and a pin's bearing strength; needs the yield
+    strength. Every load kind is checked on its own nominal (compare.signoff)."""
     if "design" not in data:
         return None
     t = _table(data, "design")
-    _known(t, {"yield_factor", "ultimate_factor", "behaviour"}, "design")
-    _tension_only(spec, "[design] check")
+    _known(t, {"yield_factor", "ultimate_factor", "behaviour", "bearing_strength"}, "design")
+    _no_compression(spec, "[design] check")
     m = spec.material
     if m.yield_strength is None:
         raise PartError("material.yield: missing; the [design] check needs the yield strength "
@@ -361,9 +362,14 @@ def _design(data: dict[str, Any], spec: PartSpec) -> DesignSpec | None:
     ultimate_factor = _safety_factor(t, "ultimate_factor", "design", None)
     if ultimate_factor is not None and m.ultimate is None:
         raise PartError("material.ultimate: missing; design.ultimate_factor needs the ultimate strength")
+    bearing = _positive(t, "bearing_strength", "design", "stress", spec.units, required=False)
+    if bearing is not None and spec.load.pin is None:
+        raise PartError(f"design.bearing_strength: applies to a pin's hole ([load.pin]) only; this part's load is "
+                        f"{spec.load.kind}")
     behaviour, basis = _behaviour(t, m, "ductile" in data.get("material", {}))
+    defaults = ("yield_factor", "behaviour") + (("bearing_strength",) if spec.load.pin is not None else ())
     return DesignSpec(yield_factor=yield_factor, ultimate_factor=ultimate_factor, behaviour=behaviour,
-                      behaviour_basis=basis, defaults=_left_out(t, ("yield_factor", "behaviour")))
+                      behaviour_basis=basis, bearing_strength=bearing, defaults=_left_out(t, defaults))
 
 
 def _behaviour(t: dict[str, Any], m: Material, ductile_given: bool) -> tuple[str, str]:
@@ -384,17 +390,23 @@ def _behaviour(t: dict[str, Any], m: Material, ductile_given: bool) -> tuple[str
     return behaviour, f"from the material family {m.family}"
 
 
+FATIGUE_KEYS = {"min_fraction", "max_fraction", "min_force", "max_force", "alternating_force", "mean_force",
+                "notch_sensitivity", "q", "required_factor", "cyclic_strength", "cyclic_exponent"}
+CYCLE_KEYS = {"fractions": ("min_fraction", "max_fraction"), "forces": ("min_force", "max_force"),
+              "amplitude": ("alternating_force", "mean_force")}  # FatigueSpec.cycle_form: the keys of each
+
+
 def _fatigue(data: dict[str, Any], spec: PartSpec) -> FatigueSpec | None:
-    """[fatigue]: the axial load cycle (min/max or alternating/mean force) and how to screen it."""
+    """[fatigue]: the load cycle (as multiples of the [load], or in forces for a load of one force), how
+    to screen it, and the cyclic stress-strain curve for a yielding notch."""
     if "fatigue" not in data:
         return None
-    t, units = _table(data, "fatigue"), spec.units
-    _known(t, {"min_force", "max_force", "alternating_force", "mean_force", "notch_sensitivity", "q",
-               "required_factor"}, "fatigue")
-    _tension_only(spec, "[fatigue] screen (Kt comes from the [load] case; the cycle itself may reach compression)")
-    alternating, mean = _cycle(t, units)
+    t = _table(data, "fatigue")
+    _known(t, FATIGUE_KEYS, "fatigue")
+    _no_compression(spec, "[fatigue] screen (Kt comes from the [load] case; the cycle itself may reach compression)")
+    low, high, form = _cycle(t, spec)
     m = spec.material
-    _fatigue_material(m, units)
+    _fatigue_material(m, spec.units)
     method = t.get("notch_sensitivity", FatigueSpec.notch_sensitivity)
     if method not in Q_METHODS:
         raise PartError(f"fatigue.notch_sensitivity: {method!r} is not allowed; use one of {', '.join(Q_METHODS)}")
@@ -405,32 +417,101 @@ def _fatigue(data: dict[str, Any], spec: PartSpec) -> FatigueSpec | None:
         raise PartError("fatigue.q: give either q or notch_sensitivity, not both")
     if q is None:
         _method_fits(t, method, m)
+    strength, exponent, source = _cyclic_curve(t, m, spec.units)
     return FatigueSpec(
-        alternating_force=alternating, mean_force=mean, notch_sensitivity=method, q=q,
+        min_fraction=low, max_fraction=high, cycle_form=form, notch_sensitivity=method, q=q,
         required_factor=_safety_factor(t, "required_factor", "fatigue", FatigueSpec.required_factor),
+        cyclic_strength=strength, cyclic_exponent=exponent, cyclic_source=source,
         defaults=_left_out(t, ("notch_sensitivity", "required_factor") if q is None else ("required_factor",)),
     )
 
 
-def _cycle(t: dict[str, Any], units: str) -> tuple[float, float]:
-    """(alternating, mean) force in N from min_force/max_force or alternating_force/mean_force."""
-    by_range = {"min_force", "max_force"} & t.keys()
-    by_amplitude = {"alternating_force", "mean_force"} & t.keys()
-    if by_range and by_amplitude:
-        raise PartError(f"fatigue.{sorted(by_amplitude)[0]}: give either min_force and max_force, or "
-                        "alternating_force (and mean_force), not both")
-    if by_range:
-        low = _number(t, "min_force", "fatigue", "force", units)
-        high = _number(t, "max_force", "fatigue", "force", units)
-        if not low < high:
-            raise PartError(f"fatigue.min_force: must be below fatigue.max_force; got {t['min_force']!r} and "
-                            f"{t['max_force']!r}")
-        return 0.5 * (high - low), 0.5 * (high + low)
-    if not by_amplitude:
-        raise PartError("fatigue: give the load cycle as min_force and max_force, or alternating_force "
-                        "(and mean_force, default 0)")
-    alternating = _positive(t, "alternating_force", "fatigue", "force", units)
-    return alternating, _number(t, "mean_force", "fatigue", "force", units, required=False, default=0.0)
+def _cycle(t: dict[str, Any], spec: PartSpec) -> tuple[float, float, str]:
+    """(min, max as multiples of the [load], form): from min_fraction/max_fraction, or for a load of one
+    force from min_force/max_force or alternating_force/mean_force (divided by that force)."""
+    given = [form for form, keys in CYCLE_KEYS.items() if set(keys) & t.keys()]
+    if len(given) > 1:
+        key = sorted(set(CYCLE_KEYS[given[1]]) & t.keys())[0]
+        raise PartError(f"fatigue.{key}: give the cycle one way only: min_fraction and max_fraction, or "
+                        "min_force and max_force, or alternating_force (and mean_force)")
+    if not given:
+        raise PartError("fatigue: give the load cycle as min_fraction and max_fraction (multiples of the [load]), "
+                        "or for a load of one force as min_force and max_force, or alternating_force (and "
+                        "mean_force, default 0)")
+    form = given[0]
+    if form == "fractions":
+        for key in CYCLE_KEYS[form]:
+            if key not in t:
+                raise PartError(f"fatigue.{key}: missing; give min_fraction and max_fraction together")
+        low, high = (_number(t, key, "fatigue") for key in CYCLE_KEYS[form])
+        _cycle_order(low, high, "min_fraction", "max_fraction", t)
+    else:
+        force = _load_force(spec, sorted(set(CYCLE_KEYS[form]) & t.keys())[0])
+        if form == "forces":
+            low = _number(t, "min_force", "fatigue", "force", spec.units)
+            high = _number(t, "max_force", "fatigue", "force", spec.units)
+            _cycle_order(low, high, "min_force", "max_force", t)
+        else:
+            alternating = _positive(t, "alternating_force", "fatigue", "force", spec.units)
+            mean = _number(t, "mean_force", "fatigue", "force", spec.units, required=False, default=0.0)
+            low, high = mean - alternating, mean + alternating
+        low, high = low / force, high / force
+    _cycle_fits_load(spec, low, high, CYCLE_KEYS[form][0] if form != "amplitude" else "alternating_force")
+    return low, high, form
+
+
+def _cycle_order(low: float, high: float, low_key: str, high_key: str, t: dict[str, Any]) -> None:
+    if not low < high:
+        raise PartError(f"fatigue.{low_key}: must be below fatigue.{high_key}; got {t[low_key]!r} and {t[high_key]!r}")
+
+
+def _load_force(spec: PartSpec, key: str) -> float:
+    """The one force of the [load] a cycle in forces is divided by: load.axial alone, or the pin's force."""
+    if spec.load.kind == "axial":
+        return spec.load.axial
+    if spec.load.kind == "pin":
+        return spec.load.pin.force
+    raise PartError(f"fatigue.{key}: a cycle in forces needs a load of one force (load.axial alone, or a "
+                    f"[load.pin]); this part's load is {spec.load.kind}: give fatigue.min_fraction and "
+                    "fatigue.max_fraction, the cycle's extremes as multiples of the [load]")
+
+
+def _cycle_fits_load(spec: PartSpec, low: float, high: float, key: str) -> None:
+    """A pin only pushes; a rigid pin with clearance does not scale with its load."""
+    pin = spec.load.pin
+    if pin is None:
+        return
+    if low < 0.0:
+        raise PartError(f"fatigue.{key}: a pin only pushes, so its cycle cannot go below zero (that would put it "
+                        "on the other side of the hole, another load case); give a minimum of 0 or more")
+    if pin.contact == "rigid" and pin.clearance > 0.0 and (low, high) != (0.0, 1.0):
+        raise PartError(f"fatigue.{key}: with a clearance the rigid pin's contact depends on the load level, so "
+                        "its stresses do not scale with the load; give the cycle from 0 to 1 x the [load] "
+                        "(min_fraction = 0, max_fraction = 1, the [load.pin] force being the cycle's maximum)")
+
+
+def _cyclic_curve(t: dict[str, Any], m: Material, units: str) -> tuple[float | None, float | None, str]:
+    """(K' MPa, n', where they came from) of the cyclic stress-strain curve: from [fatigue], else from the
+    material table's row where it publishes one, else (None, None, "")."""
+    keys = ("cyclic_strength", "cyclic_exponent")
+    given = [k for k in keys if k in t]
+    if len(given) == 1:
+        other = keys[1 - keys.index(given[0])]
+        raise PartError(f"fatigue.{other}: missing; give cyclic_strength (K') and cyclic_exponent (n') together")
+    if given:
+        strength = _positive(t, "cyclic_strength", "fatigue", "stress", units)
+        exponent = _number(t, "cyclic_exponent", "fatigue")
+        if not 0.0 < exponent < 1.0:
+            raise PartError(f"fatigue.cyclic_exponent: {exponent} is outside the allowed range 0 to 1 (exclusive); "
+                            "metals have n' of about 0.05 to 0.3")
+        return strength, exponent, "given in [fatigue]"
+    if m.grade is not None:
+        from .materials import lookup_material
+
+        row = lookup_material(m.grade)
+        if row.cyclic_strength_mpa is not None:
+            return row.cyclic_strength_mpa, row.cyclic_exponent, f"material table {row.key}: {row.cyclic_source}"
+    return None, None, ""
 
 
 def _fatigue_material(m: Material, units: str) -> None:
@@ -468,13 +549,11 @@ def _method_fits(t: dict[str, Any], method: str, m: Material) -> None:
                         "or give fatigue.q")
 
 
-def _tension_only(spec: PartSpec, what: str) -> None:
-    """The sign-off covers an axial tensile end load: the case its net-section definitions are for."""
-    if spec.load.kind != "axial":
-        raise PartError(f"load: the {what} covers an axial end load (load.axial) only; this part's load is "
-                        f"{spec.load.kind}")
-    if spec.load.axial < 0.0:
-        raise PartError(f"load.axial: the {what} needs a tensile load (load.axial > 0); a compressive part "
+def _no_compression(spec: PartSpec, what: str) -> None:
+    """The sign-off needs a tensile axial force where the load has one: a compressed part also needs a buckling
+    check this tool does not make."""
+    if spec.load.kind in ("axial", "combined") and spec.load.axial < 0.0:
+        raise PartError(f"load.axial: the {what} needs a tensile axial force (load.axial > 0); a compressive part "
                         "also needs a buckling check this tool does not make")
 
 

@@ -265,46 +265,56 @@ NEUBER_STEEL_RANGE_MPA = (340.0, 1700.0)  # Su range of Neuber's steel fit (Shig
 class DesignSpec:
     """What the static sign-off asks for (the part file's [design] table).
 
-    yield_factor:    factor of safety on the yield strength (>= 1).
-    ultimate_factor: factor of safety on the ultimate strength (>= 1), or None to check yield only.
-    behaviour:       "ductile" (the net-section average governs) or "brittle" (the peak governs).
-    behaviour_basis: where the behaviour came from, in words (the material, or the part file).
-    defaults:        the keys left at their defaults, for the report's statement of assumptions.
+    yield_factor:     factor of safety on the yield strength (>= 1).
+    ultimate_factor:  factor of safety on the ultimate strength (>= 1), or None to check yield only.
+    behaviour:        "ductile" (the hand check governs, the peak by von Mises) or "brittle" (the peak
+                      governs, by the maximum principal stress).
+    behaviour_basis:  where the behaviour came from, in words (the material, or the part file).
+    bearing_strength: a pin hole's bearing strength in MPa (the allowable bearing stress is it over
+                      yield_factor), or None for the default, BEARING_FACTOR x yield (common practice).
+    defaults:         the keys left at their defaults, for the report's statement of assumptions.
     """
 
     yield_factor: float = 1.5
     ultimate_factor: float | None = None
     behaviour: str = "ductile"
     behaviour_basis: str = "default"
+    bearing_strength: float | None = None
     defaults: tuple[str, ...] = ()
+
+
+# A pin's bearing strength on its projected area d t, as a multiple of the plate's yield strength, when the
+# part file gives none (common practice; docs/references.md [Pin-bearing]).
+BEARING_FACTOR = 1.5
 
 
 @dataclass(frozen=True)
 class FatigueSpec:
-    """The constant-amplitude axial load cycle and screen settings (the part file's [fatigue] table).
+    """The constant-amplitude load cycle and screen settings (the part file's [fatigue] table).
 
-    alternating_force: half the force range in N (> 0); mean_force: the mean force in N, positive in
-                       tension. min_force/max_force: the cycle's extremes in N (derived if not given).
+    min_fraction, max_fraction: the cycle's extremes as multiples of the part's [load] (linear elasticity
+                       scales every stress with the load); min < max.
+    cycle_form:        how the file gave them: "fractions" of the [load], "forces"
+                       (min_force/max_force) or "amplitude" (alternating_force/mean_force), the last two
+                       divided by the [load]'s force.
     notch_sensitivity: "peterson" or "neuber" (the fits for steels); q: a given notch sensitivity
                        (0..1) used instead, or None.
     required_factor:   the modified Goodman factor of safety the screen must reach (>= 1).
+    cyclic_strength, cyclic_exponent: K' (MPa) and n' of the cyclic Ramberg-Osgood curve for the local
+                       strain at a yielding notch, or None; cyclic_source says where they came from.
     defaults:          the keys left at their defaults, for the report's statement of assumptions.
     """
 
-    alternating_force: float
-    mean_force: float
+    min_fraction: float
+    max_fraction: float
+    cycle_form: str = "fractions"
     notch_sensitivity: str = "peterson"
     q: float | None = None
     required_factor: float = 1.5
+    cyclic_strength: float | None = None
+    cyclic_exponent: float | None = None
+    cyclic_source: str = ""
     defaults: tuple[str, ...] = ()
-
-    @property
-    def min_force(self) -> float:
-        return self.mean_force - self.alternating_force
-
-    @property
-    def max_force(self) -> float:
-        return self.mean_force + self.alternating_force
 
 
 @dataclass(frozen=True)

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import json
+import tomllib
 
 import jsonschema
 import pytest
@@ -33,6 +34,20 @@ def test_example_runs_and_records(example, tmp_path, capsys):
     jsonschema.Draft202012Validator(check_schema()).validate(record)  # the documented schema, cli/check.schema.json
     printed = capsys.readouterr().out
     assert "Kt(net)" in printed and "Cautions" in printed
+    tables = tomllib.loads(example.read_text())
+    if "design" in tables:  # every example with a [design] table signs off, whatever its load
+        assert record["design"]["checks"] and record["design"]["load_kind"] == record["part"]["load"]["kind"]
+        assert "Design check:" in printed
+    if "fatigue" in tables:
+        assert record["fatigue"]["notch"] and "Fatigue screen:" in printed
+
+
+def test_examples_sign_off_every_kind_of_load():
+    # the [design] check is no longer refused for a load kind: the examples carry it for each kind they have
+    from stressraiser.geometry.partfile import load_part
+
+    specs = [load_part(p) for p in EXAMPLES.glob("*.toml")]
+    assert {s.load.kind for s in specs if s.design is not None} == {s.load.kind for s in specs}
 
 
 def test_quiet_prints_verdict_only(capsys):

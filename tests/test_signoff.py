@@ -65,8 +65,9 @@ def strap_result():
 def test_design_follows_the_definitions(strap_result) -> None:
     c = strap_result.design.check
     # hand-computed: net area (80 - 22) x 10 = 580 mm²; average 120 000 / 580 = 206.897 MPa
-    assert c.net_area_mm2 == pytest.approx(580.0, rel=EXACT)
+    assert strap_result.net_section.area == pytest.approx(580.0, rel=EXACT)
     assert c.net_average_mpa == pytest.approx(120_000.0 / 580.0, rel=EXACT)
+    assert c.load_kind == "axial" and c.hand.formula == "N / A_net"
     # common practice: allowables 355 / 1.5 = 236.67 and 470 / 2 = 235 MPa (S355, EN 10025-2, from memory);
     # the smaller, on ultimate, governs
     assert c.allowable_yield_mpa == pytest.approx(355.0 / 1.5, rel=EXACT)
@@ -74,13 +75,13 @@ def test_design_follows_the_definitions(strap_result) -> None:
     assert c.allowable_mpa == pytest.approx(235.0, rel=EXACT) and c.governing_criterion == "ultimate"
     # common practice: margin 235 / 206.897 - 1; achieved factors 355 / 206.897 and 470 / 206.897
     assert c.net_margin == pytest.approx(235.0 * 580.0 / 120_000.0 - 1.0, rel=EXACT)
-    assert c.achieved_fos_net_yield == pytest.approx(355.0 * 580.0 / 120_000.0, rel=EXACT)
-    assert c.achieved_fos_net_ultimate == pytest.approx(470.0 * 580.0 / 120_000.0, rel=EXACT)
+    assert c.hand.achieved_fos_yield == pytest.approx(355.0 * 580.0 / 120_000.0, rel=EXACT)
+    assert c.hand.achieved_fos_ultimate == pytest.approx(470.0 * 580.0 / 120_000.0, rel=EXACT)
     # the same factor as failure load / applied load (common practice): 355 MPa x 580 mm² / 120 kN
-    assert c.achieved_fos_net_yield == pytest.approx((355.0 * 580.0) / 120_000.0, rel=EXACT)
+    assert c.hand.achieved_fos_yield == pytest.approx((355.0 * 580.0) / 120_000.0, rel=EXACT)
     # common practice: required area 120 000 / 235 = 510.64 mm², thickness over the 58 mm net width
     assert c.required_net_area_mm2 == pytest.approx(120_000.0 / 235.0, rel=EXACT)
-    assert c.required_thickness_mm == pytest.approx(120_000.0 / 235.0 / 58.0, rel=EXACT)
+    assert c.hand.required_thickness_mm == pytest.approx(120_000.0 / 235.0 / 58.0, rel=EXACT)
     assert c.net_passes and c.passes and c.governing_check == "net-section"
 
 
@@ -90,14 +91,18 @@ def test_design_with_the_concentration(strap_result) -> None:
     average = 120_000.0 / 580.0
     # required area with Kt = Kt x load / allowable; peak = Kt x average (definitions, common practice)
     assert c.required_net_area_kt_mm2 == pytest.approx(kt * 120_000.0 / 235.0, rel=KT_REL)
-    assert c.required_thickness_kt_mm == pytest.approx(kt * 120_000.0 / 235.0 / 58.0, rel=KT_REL)
-    assert c.peak_mpa == pytest.approx(kt * average, rel=KT_REL)
+    assert c.peak.required_thickness_mm == pytest.approx(kt * 120_000.0 / 235.0 / 58.0, rel=KT_REL)
+    # the peak sits on the hole's free edge, where von Mises is the tangential stress ([Criteria]): both
+    # criteria give Kt x average, each converged over the levels
+    assert c.peak_criterion == "von Mises"
+    for line in (c.peak_von_mises, c.peak_principal):
+        assert line.actual_mpa == pytest.approx(kt * average, rel=KT_REL)
     assert 1.0 + c.peak_margin == pytest.approx(235.0 / (kt * average), rel=KT_REL)
-    assert c.achieved_fos_peak_yield == pytest.approx(355.0 / (kt * average), rel=KT_REL)
+    assert c.peak.achieved_fos_yield == pytest.approx(355.0 / (kt * average), rel=KT_REL)
     assert not c.peak_passes  # the peak (about 495 MPa) is above the allowable and is still reported
     text = " ".join(c.statements)
     assert "net-section average check governs (common practice)" in text
-    assert "The peak is reported, not hidden" in text and "FAILS" in text
+    assert "Reported, not hidden" in text and "FAILS" in text
 
 
 def test_brittle_behaviour_makes_the_peak_govern(strap_result) -> None:
@@ -248,9 +253,9 @@ def test_each_report_is_in_its_own_units(unit_twins) -> None:
     assert "MPa" not in inch and " mm" not in inch and " N," not in inch
     assert "MPa" in mm and "mm²" in mm and " N " in mm and "psi" not in mm
     # the net-section average 4000 lbf / 0.375 in² = 10667 psi (hand-computed), printed as such
-    assert "Net-section average 10667 psi" in inch
+    assert "Net-section average (N / A_net) 10667 psi" in inch
     # and in the mm report the same stress in MPa: 10666.67 psi x 0.006894757 MPa/psi = 73.54 MPa
-    assert "Net-section average 73.54 MPa" in mm
+    assert "Net-section average (N / A_net) 73.54 MPa" in mm
     assert unit_twins["inch"][0]["net_section"]["average"] == pytest.approx(4000 / 0.375 * PSI, rel=EXACT)
 
 
@@ -287,9 +292,9 @@ def test_peak_at_no_raiser_takes_q_1() -> None:
     # no root radius (the peak is at no curved raiser): q = 1, so Kf = Kt (conservative, common practice).
     # hand-computed: Kt 2 -> Kf 2; Se' = 0.5 x 600 = 300 MPa (common practice); sa = 5000 N / 100 mm² = 50 MPa;
     # fully reversed n_f = 300 / (2 x 50) = 3
-    from stressraiser.compare.fatigue import cycle_from_alternating, fatigue_screen
+    from stressraiser.compare.fatigue import fatigue_screen, scaled_cycle
 
-    s = fatigue_screen(cycle_from_alternating(5_000.0, 0.0), 100.0, 2.0, None, 600.0, "steel", 1.5)
+    s = fatigue_screen(scaled_cycle(50.0, 100.0, -1.0, 1.0), None, 600.0, "steel", 1.5)
     assert (s.q, s.method, s.kf) == (1.0, "unity", 2.0)
     assert s.n_f == pytest.approx(3.0, rel=1e-12)
     assert "no root radius" in s.statements[1]
