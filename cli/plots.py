@@ -786,7 +786,8 @@ def design_figure(design: Any, units: str = DEFAULT_SYSTEM) -> Figure | None:
         if math.isfinite(line.margin):
             text += f", margin {line.margin:+.2f}"
         text += ", passes" if line.passes else ", FAILS"
-        ax.annotate(text, xy=(line.actual_mpa, row), xytext=(6, 0), textcoords="offset points", va="center",
+        ax.annotate(text, xy=(max(line.actual_mpa, line.allowable_mpa), row), xytext=(6, 0), textcoords="offset points",
+                    va="center",
                     ha="left", fontsize=9, color=INK, zorder=4,
                     bbox=dict(boxstyle="round,pad=0.2", facecolor="white", edgecolor="none", alpha=0.9))
     yield_mpa = getattr(design, "yield_mpa", None)
@@ -796,7 +797,7 @@ def design_figure(design: Any, units: str = DEFAULT_SYSTEM) -> Figure | None:
                 va="center", fontsize=8, color=GROSS_LINE)
     ax.set_yticks(rows, [names.get(c.key, c.key) + (" (governs)" if c is governs else "") for c in checks])
     top = max([c.actual_mpa for c in checks] + [c.allowable_mpa for c in checks] + [yield_mpa or 0.0])
-    ax.set_xlim(0, 1.6 * top)
+    ax.set_xlim(0, 1.75 * top)
     ax.set_ylim(-0.9, len(checks) - 0.4)
     ax.set_title("dashed: each check's allowable", fontsize=8, loc="left", color=GROSS_LINE)
     unit_axis(ax.xaxis, "stress", units, "stress")

@@ -185,31 +185,6 @@ class DesignCheck:
         other = self.peak_principal if self.peak is self.peak_von_mises else self.peak_von_mises
         return (self.hand, *((self.bearing,) if self.bearing is not None else ()), self.peak, other)
 
-    # the numbers of the first, axial-only design check, kept under their names
-    @property
-    def net_average_mpa(self) -> float:
-        return self.hand.actual_mpa
-
-    @property
-    def net_margin(self) -> float:
-        return self.hand.margin
-
-    @property
-    def net_passes(self) -> bool:
-        return self.hand.passes
-
-    @property
-    def peak_mpa(self) -> float:
-        return self.peak.actual_mpa
-
-    @property
-    def peak_margin(self) -> float:
-        return self.peak.margin
-
-    @property
-    def peak_passes(self) -> bool:
-        return self.peak.passes
-
     @property
     def required_net_area_mm2(self) -> float | None:
         """Net area at the hand check's required thickness (None without a net section)."""
@@ -267,7 +242,8 @@ def design_statements(c: DesignCheck, system: str = DEFAULT_SYSTEM) -> tuple[str
                 f"{ln.margin:+.3f}, {_verdict(ln.passes)}.")
 
     hand = line(c.hand, f"{c.hand.label[0].upper()}{c.hand.label[1:]} ({c.hand.formula})", criterion)
-    peak = line(c.peak, f"Peak by {c.peak_criterion} (converged, Kt_net {c.kt_net:.3g})", criterion)
+    peak = line(c.peak, f"Peak by {c.peak_criterion} (extrapolated over the mesh levels; Kt_net {c.kt_net:.3g})",
+                criterion)
     other_line = c.peak_principal if c.peak is c.peak_von_mises else c.peak_von_mises
     other_name = CRITERION_BRITTLE if other_line is c.peak_principal else CRITERION_DUCTILE
     other = (f"By {other_name} the peak is {stress(other_line.actual_mpa)}: margin {other_line.margin:+.3f}, "

@@ -216,6 +216,9 @@ def design_signoff(result: CheckResult) -> DesignSignOff | None:
         _band(result),
         *kt_note,
     ]
+    if not vm.error <= spec.mesh.tolerance:
+        basis.append("The von Mises peak's band is wider than the target error mesh.tolerance (it is extrapolated over "
+                     "the levels the principal peak needed): treat a von Mises margin inside that band with care.")
     if bearing is not None:
         basis.append(_bearing_basis(design))
     if spec.load.pin is not None and spec.load.pin.contact == "rigid" and spec.load.pin.clearance > 0.0:

@@ -68,7 +68,7 @@ def test_design_check_numbers() -> None:
     assert c.allowable_ultimate_mpa == pytest.approx(225.0, rel=REL)
     assert c.allowable_mpa == pytest.approx(200.0, rel=REL) and c.governing_criterion == "yield"
     # hand-computed: average 30 000 / 200 = 150 MPa; margins 200/150 - 1 and 200/300 - 1
-    assert c.net_average_mpa == pytest.approx(150.0, rel=REL)
+    assert c.hand.actual_mpa == pytest.approx(150.0, rel=REL)
     assert c.hand.margin == pytest.approx(1.0 / 3.0, rel=REL)
     assert c.peak.margin == pytest.approx(-1.0 / 3.0, rel=REL)
     # hand-computed: achieved factors 300/150, 300/300, 450/150, 450/300
@@ -88,8 +88,8 @@ def test_ductile_part_hand_check_governs_and_peak_is_judged_by_von_mises() -> No
     # a ductile part's peak check takes von Mises, a brittle part's the principal stress ([Criteria])
     c = _case(ductile=True, von_mises=270.0, principal=300.0)
     assert c.peak_criterion == "von Mises" and c.peak is c.peak_von_mises
-    assert c.peak_mpa == pytest.approx(270.0, rel=REL)
-    assert c.net_passes and not c.peak_passes
+    assert c.peak.actual_mpa == pytest.approx(270.0, rel=REL)
+    assert c.hand.passes and not c.peak.passes
     assert c.governing_check == "net-section" and c.passes
     text = " ".join(c.statements)
     assert "local yielding" in text and "net-section average check governs" in text
@@ -101,7 +101,7 @@ def test_ductile_part_hand_check_governs_and_peak_is_judged_by_von_mises() -> No
 def test_brittle_part_peak_governs_by_principal_stress() -> None:
     c = _case(ductile=False, von_mises=270.0, principal=300.0)
     assert c.governing_check == "peak" and c.peak_criterion == "maximum principal" and not c.passes
-    assert c.peak_mpa == pytest.approx(300.0, rel=REL)
+    assert c.peak.actual_mpa == pytest.approx(300.0, rel=REL)
     assert c.statements[0].startswith("Brittle material")
     assert "peak check governs" in c.statements[0]
     # the other criterion (von Mises) is shown and not governing: 200 / 270 - 1
@@ -142,7 +142,7 @@ def test_pin_bearing_has_its_own_allowable_and_must_pass() -> None:
     assert c.passes
     # a failing bearing fails the part even when the governing net-section check passes
     failing = _case(load_kind="pin", bearing_mpa=320.0, bearing_strength_mpa=450.0)
-    assert failing.net_passes and not failing.bearing.passes and not failing.passes
+    assert failing.hand.passes and not failing.bearing.passes and not failing.passes
 
 
 def test_remote_stress_has_no_required_thickness() -> None:
