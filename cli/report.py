@@ -286,7 +286,8 @@ def _verdict_section(result: CheckResult) -> str:
         governing = getattr(design, "governing_check", "design")
         lines.append(f"<strong>Design check ({esc(governing)} governs): {'passes' if passes else 'FAILS'}</strong>")
     if getattr(fatigue, "passes", None) is not None:
-        lines.append(f"Fatigue screen: {'passes' if fatigue.passes else 'FAILS'}")
+        yielding = " — FIRST-CYCLE YIELD at the notch" if getattr(fatigue, "first_cycle_yield", False) else ""
+        lines.append(f"Fatigue screen: {'passes' if fatigue.passes else 'FAILS'}{yielding}")
     rows = [
         ("Peak (max principal, converged)", _amount(peak.stress, "stress", units, 5),
          f"{peak.feature} at {point_text(peak.location, units)}; finest mesh "

@@ -23,6 +23,7 @@ Conventions:
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 from dataclasses import dataclass, replace
 
 from ..geometry.errors import PartError
@@ -411,7 +412,7 @@ def _strain(value: float) -> str:
     return f"{100.0 * value:.3g} %"
 
 
-def _yield_statements(s: FatigueScreen, stress) -> list[str]:
+def _yield_statements(s: FatigueScreen, stress: Callable[[float], str]) -> list[str]:
     """First-cycle and reversed yield at the notch root, and the local stress and strain estimate."""
     if s.yield_mpa is None:
         return ["First-cycle yield at the notch is not checked: the material has no yield strength."]

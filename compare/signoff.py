@@ -32,7 +32,7 @@ import numpy as np
 
 from ..fem.convergence import Estimate, sequence_estimate
 from ..fem.recovery import von_mises
-from ..geometry.spec import BEARING_FACTOR, PartSpec
+from ..geometry.spec import BEARING_FACTOR, DesignSpec, FatigueSpec, PartSpec
 from .design import HandStress, DesignCheck, design_check
 from .fatigue import FatigueScreen, fatigue_screen, scaled_cycle
 from .local_strain import CyclicCurve
@@ -238,7 +238,7 @@ def _peak_basis(result: CheckResult, vm: Estimate) -> str:
             "largest principal stress for brittle materials (docs/references.md [Criteria])." + pin)
 
 
-def _bearing_basis(design) -> str:
+def _bearing_basis(design: DesignSpec) -> str:
     if design.bearing_strength is not None:
         strength = "the bearing strength as given in [design]"
     else:
@@ -350,7 +350,7 @@ def _cycle_basis(spec: PartSpec) -> str:
     return text
 
 
-def _curve_basis(fatigue, yield_mpa: float | None) -> str:
+def _curve_basis(fatigue: FatigueSpec, yield_mpa: float | None) -> str:
     if yield_mpa is None:
         return "First-cycle yield at the notch is not checked: the material has no yield strength."
     if fatigue.cyclic_strength is None:
