@@ -4,14 +4,14 @@ A cut file may hold curves the mesher has no exact piece for. Flattening them in
 put a small corner at every vertex, and a corner whose material angle exceeds 180 degrees (a chord of a
 hole's edge, seen from the material) is a weak singularity that keeps the peak stress growing under
 refinement. Arcs keep the boundary smooth: each curve is replaced by biarcs — pairs of circular arcs
-meeting with a common tangent that match the curve's end points and end tangents — bisected until, at
-SAMPLES points per piece,
+meeting with a common tangent that match the curve's end points and end tangents — each as long as two
+tests allow at SAMPLES points along it (a greedy search from the curve's start):
 - every point of the curve lies within `tolerance` (mm) of the arcs, and
 - each arc's curvature is within BEND (2 %) of the curve's own curvature there, where the curve is at
-  least half as curved as at its sharpest, and within 1 % of the sharpest curvature elsewhere: the peak
-  stress at a smooth edge is set by its radius of curvature, and arcs that only stay close (8 x 3.2 mm
-  ellipse, 0.01 mm) misstate its tip radius by 5 %, while holding the flatter stretches to their own
-  curvature would multiply the arcs without changing any peak.
+  least half as curved as at its sharpest, and within 1 % of the sharpest curvature elsewhere. The peak
+  stress at a smooth edge is set by its radius of curvature: arcs that only stay close (an 8 x 3.2 mm
+  ellipse at 0.01 mm) misstate its tip radius by 5 %. The flatter stretches are held to an absolute
+  mismatch rather than to their own curvature, which would about double the arcs.
 The chain is tangent-continuous (G1) wherever the curve is, so the mesher grades each arc by its radius as
 it does a drawn fillet.
 
@@ -40,6 +40,9 @@ Curve = Callable[[np.ndarray], tuple[np.ndarray, np.ndarray, np.ndarray]]
 SAMPLES = 16  # points per fitted piece at which distance and curvature are compared with the curve
 BEND = 0.02  # largest curvature mismatch, relative to the curve's curvature ...
 HALF = 0.5  # ... or to this fraction of its largest curvature, whichever is larger (module docstring)
+MARGIN = 0.95  # pieces are held to this share of the tolerance at the samples: between them the distance
+#                may rise a little (by about 0.5 % of it with 16 samples), and must stay within the tolerance
+BISECTIONS = 5  # steps of the search for the longest piece: its length to 1/32 of the last doubling
 MOST_PIECES = 4000  # more arcs than this for one curve: the tolerance is unreasonably fine for its size
 EXACT = 1e-9  # relative: a curve within this of a line or circle (of its size) is that line or circle
 
@@ -71,31 +74,65 @@ def fit_curve(curve: Curve, t0: float, t1: float, tolerance: float, breaks: Sequ
     worst, worst_bend = 0.0, 0.0
     for a, b in zip(cuts[:-1], cuts[1:]):
         delta = 1e-9 * (b - a)
-        stack = [(float(a), float(b))]
-        while stack:
-            lo, hi = stack.pop()
-            pair, deviation, bend = _biarc_over(curve, lo, hi, delta, flat)
-            if (deviation <= tolerance and bend <= BEND) or hi - lo <= 1e-12 * (t1 - t0):
-                pieces += pair
-                worst, worst_bend = max(worst, deviation), max(worst_bend, bend)
-                if len(pieces) > MOST_PIECES:
-                    raise PartError(f"{where}: more than {MOST_PIECES} arcs would be needed to follow it within "
-                                    f"{tolerance:g} mm; give a coarser tolerance")
-            else:
-                mid = 0.5 * (lo + hi)
-                stack += [(mid, hi), (lo, mid)]  # the first half is popped first: pieces stay in order
+        lo, step = float(a), float(b) - float(a)
+        while lo < b:
+            step, pair, deviation, bend = _longest(curve, lo, float(b), step, delta, flat, tolerance)
+            pieces += pair
+            worst, worst_bend = max(worst, deviation), max(worst_bend, bend)
+            if len(pieces) > MOST_PIECES:
+                raise PartError(f"{where}: more than {MOST_PIECES} arcs would be needed to follow it within "
+                                f"{tolerance:g} mm; give a coarser tolerance")
+            lo = lo + step if lo + step < b else float(b)
     return ArcChain(tuple(pieces), worst, worst_bend, False)
+
+
+def _longest(curve: Curve, lo: float, end: float, guess: float, delta: float, flat: float, tolerance: float):
+    """The longest parameter step from `lo` (to `end` at most) whose biarc passes both tests, found by
+    doubling or halving `guess` and then BISECTIONS bisections (the pieces come out near the fewest the tests
+    allow, rather than in powers of two). Returns (step, pieces, deviation, bend)."""
+    def passes(step: float):
+        pair, deviation, bend = _biarc_over(curve, lo, min(lo + step, end), delta, flat)
+        return (deviation <= MARGIN * tolerance and bend <= BEND), (pair, deviation, bend)
+
+    floor = 1e-12 * (end - lo + guess)
+    step = min(guess, end - lo)
+    ok, best = passes(step)
+    if ok:
+        while ok and lo + step < end:  # grow while it passes
+            good, best_good = step, best
+            step = min(2.0 * step, end - lo)
+            ok, best = passes(step)
+        if ok:
+            return step, *best
+        low, high = good, step
+        best = best_good
+    else:
+        while not ok and step > floor:  # shrink until it passes
+            high = step
+            step *= 0.5
+            ok, best = passes(step)
+        if not ok:
+            return step, *best  # a corner the breaks did not name: accept the tiny piece
+        low = step
+    for _ in range(BISECTIONS):
+        mid = 0.5 * (low + high)
+        ok, found = passes(mid)
+        if ok:
+            low, best = mid, found
+        else:
+            high = mid
+    return low, *best
 
 
 def _biarc_over(curve: Curve, lo: float, hi: float, delta: float, flat: float) -> tuple[list[Segment], float, float]:
     """The biarc over [lo, hi], the largest distance from the curve to it and the largest relative curvature
-    mismatch, at SAMPLES interior points."""
-    ends = curve(np.array([lo, hi]))[0]
-    pair = biarc(ends[0], _tangent(curve, lo, +delta), ends[1], _tangent(curve, hi, -delta))
-    pts, d1, d2 = curve(np.linspace(lo, hi, SAMPLES + 2)[1:-1])
-    gaps = np.array([distance_to(s, pts) for s in pair])
+    mismatch, at SAMPLES interior points (one evaluation of the curve)."""
+    ts = np.concatenate([[lo, hi, lo + delta, hi - delta], np.linspace(lo, hi, SAMPLES + 2)[1:-1]])
+    pts, d1, d2 = curve(ts)
+    pair = biarc(pts[0], _unit(curve, d1[2], lo, +delta), pts[1], _unit(curve, d1[3], hi, -delta))
+    gaps = np.array([distance_to(s, pts[4:]) for s in pair])
     nearest = np.argmin(gaps, axis=0)
-    kappa = curvature(d1, d2)
+    kappa = curvature(d1[4:], d2[4:])
     piece_kappa = np.array([_curvature(s) for s in pair])[nearest]
     bend = np.abs(piece_kappa - kappa) / np.maximum(np.abs(kappa), flat)
     return pair, float(gaps.min(axis=0).max()), float(bend.max())
@@ -113,10 +150,9 @@ def _curvature(seg: Segment) -> float:
     return math.copysign(1.0 / seg.radius, seg.end - seg.start)
 
 
-def _tangent(curve: Curve, t: float, step: float) -> np.ndarray:
-    """Unit tangent at t, taken a tiny `step` inside the span (one-sided at a corner); where the derivative
-    vanishes (a repeated control point), the direction of the chord over a small step."""
-    d = curve(np.array([t + step]))[1][0]
+def _unit(curve: Curve, d: np.ndarray, t: float, step: float) -> np.ndarray:
+    """Unit tangent from the derivative d taken a tiny `step` inside the span at t (one-sided at a corner);
+    where the derivative vanishes (a repeated control point), the direction of the chord over a small step."""
     norm = float(np.hypot(*d))
     if norm > 0.0:
         return d / norm

@@ -32,7 +32,7 @@ from scipy.sparse.csgraph import connected_components
 from scipy.spatial import cKDTree
 from shapely.geometry import LinearRing, Polygon
 
-from .arcfit import distance_to
+from .arcfit import ArcChain, distance_to
 from .errors import PartError
 from .outline import hole_polygon, segment_coords, wire_polygon
 from .shapes import Arc, Line, Point, Segment, segment_points
@@ -130,6 +130,17 @@ def cut_loops(pieces: Sequence[Piece], units: DrawingUnits, units_source: str, t
     return CutLoops(outline.segments, tuple(h for h, _ in holes), tuple(c.segments for c in cutouts), units.name,
                     units_source, tolerance, gap, outline.wheres, tuple(w for _, w in holes),
                     tuple(c.wheres for c in cutouts), tuple(fitted), tuple(ignored), thickness)
+
+
+def curve_pieces(chain: ArcChain, where: str, gap: float) -> tuple[list[Piece], list[FittedCurve]]:
+    """The pieces of a curve read through geometry/arcfit.py, and its record when it was fitted. Fitted
+    arcs shorter than the gap are left out (their ends lie within the gap, so their neighbours join across
+    them), unless the whole curve is that short (then it is refused as a zero-length piece)."""
+    kept = list(chain.pieces)
+    if sum(segment_length(s) for s in kept) > gap:
+        kept = [s for s in kept if segment_length(s) > gap]
+    fit = [] if chain.exact else [FittedCurve(where, len(kept), chain.deviation, chain.bend)]
+    return [Piece(s, where) for s in kept], fit
 
 
 def check_positive(key: str, value: float) -> None:

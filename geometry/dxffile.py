@@ -35,7 +35,7 @@ from scipy.interpolate import BSpline
 
 from .arcfit import fit_curve
 from .cutloops import (CHORD_TOLERANCE, GAP_TOLERANCE, CutLoops, DrawingUnits, FittedCurve, Piece, check_positive,
-                       cut_loops, segment_length)
+                       curve_pieces, cut_loops)
 from .errors import PartError
 from .shapes import Arc, Line, Segment
 
@@ -251,11 +251,7 @@ def _pieces(drawn: _Drawn, mm: float, tolerance: float, gap: float) -> tuple[lis
         segs = _polyline([(p.x, p.y, b if e.is_2d_polyline else 0.0) for p, b in verts], e.is_closed, drawn, mm, gap)
         return [Piece(_scaled(_to_world(s, sign), mm), drawn.where) for s in segs], []
     curve, t0, t1, breaks = _ellipse(drawn, mm) if kind == "ELLIPSE" else _spline(drawn, mm, gap)
-    chain = fit_curve(curve, t0, t1, tolerance, breaks, drawn.where)
-    total = sum(segment_length(s) for s in chain.pieces)
-    kept = [s for s in chain.pieces if segment_length(s) > gap] if total > gap else list(chain.pieces)
-    fit = [] if chain.exact else [FittedCurve(drawn.where, len(kept), chain.deviation, chain.bend)]
-    return [Piece(s, drawn.where) for s in kept], fit
+    return curve_pieces(fit_curve(curve, t0, t1, tolerance, breaks, drawn.where), drawn.where, gap)
 
 
 def _scaled(seg: Segment, mm: float) -> Segment:

@@ -29,7 +29,8 @@ import gmsh
 import numpy as np
 
 from .arcfit import fit_curve
-from .cutloops import CHORD_TOLERANCE, GAP_TOLERANCE, MM, CutLoops, FittedCurve, Piece, check_positive, cut_loops
+from .cutloops import (CHORD_TOLERANCE, GAP_TOLERANCE, MM, CutLoops, FittedCurve, Piece, check_positive, curve_pieces,
+                       cut_loops)
 from .errors import PartError
 from .shapes import Line
 
@@ -53,7 +54,7 @@ def read_step(path: str | Path, tolerance: float = CHORD_TOLERANCE, gap: float =
         try:
             gmsh.option.setNumber("General.Terminal", 0)
             gmsh.option.setString("Geometry.OCCTargetUnit", "MM")
-            pieces, fitted, thickness = _read(path, tolerance)
+            pieces, fitted, thickness = _read(path, tolerance, gap)
         finally:
             gmsh.finalize()
         return cut_loops(pieces, MM, UNITS_SOURCE, tolerance, gap, fitted, thickness=thickness)
@@ -61,7 +62,7 @@ def read_step(path: str | Path, tolerance: float = CHORD_TOLERANCE, gap: float =
         raise PartError(f"{path.name}: {error}") from None
 
 
-def _read(path: Path, tolerance: float) -> tuple[list[Piece], list[FittedCurve], float | None]:
+def _read(path: Path, tolerance: float, gap: float) -> tuple[list[Piece], list[FittedCurve], float | None]:
     """Pieces of the largest planar face (mm, in the face's frame), the fitted curves and the thickness."""
     occ = gmsh.model.occ
     try:
@@ -94,7 +95,7 @@ def _read(path: Path, tolerance: float) -> tuple[list[Piece], list[FittedCurve],
     pieces: list[Piece] = []
     fitted: list[FittedCurve] = []
     for _, tag in gmsh.model.getBoundary([(2, face)], combined=False, oriented=False):
-        new, fit = _edge_pieces(abs(tag), frame, tolerance)
+        new, fit = _edge_pieces(abs(tag), frame, tolerance, gap)
         pieces += new
         fitted += fit
     return pieces, fitted, thickness
@@ -139,7 +140,7 @@ def _thickness(solid: int, faces: list[int], face_area: float, normal: np.ndarra
     return thickness
 
 
-def _edge_pieces(tag: int, frame: np.ndarray, tolerance: float) -> tuple[list[Piece], list[FittedCurve]]:
+def _edge_pieces(tag: int, frame: np.ndarray, tolerance: float, gap: float) -> tuple[list[Piece], list[FittedCurve]]:
     """One edge of the face as exact pieces (a line or circular arc) or fitted arcs, in the face's frame."""
     where = f"edge {tag} ({gmsh.model.getType(1, tag)})"
     lo, hi = (float(b[0]) for b in gmsh.model.getParametrizationBounds(1, tag))
@@ -153,6 +154,4 @@ def _edge_pieces(tag: int, frame: np.ndarray, tolerance: float) -> tuple[list[Pi
     if gmsh.model.getType(1, tag) == "Line":
         p = curve(np.array([lo, hi]))[0]
         return [Piece(Line((float(p[0, 0]), float(p[0, 1])), (float(p[1, 0]), float(p[1, 1]))), where)], []
-    chain = fit_curve(curve, lo, hi, tolerance, (), where)
-    fit = [] if chain.exact else [FittedCurve(where, len(chain.pieces), chain.deviation, chain.bend)]
-    return [Piece(s, where) for s in chain.pieces], fit
+    return curve_pieces(fit_curve(curve, lo, hi, tolerance, (), where), where, gap)

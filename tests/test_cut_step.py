@@ -15,7 +15,7 @@ import pytest
 
 from stressraiser.geometry.cutloops import cut_polygon, loop_area
 from stressraiser.geometry.errors import PartError
-from stressraiser.geometry.shapes import Arc, Line
+from stressraiser.geometry.shapes import Arc
 from stressraiser.geometry.stepfile import read_step
 
 W, H, R, T = 100.0, 60.0, 5.0, 6.0  # plate, corner radius, thickness (mm)
