@@ -17,12 +17,21 @@ every face parallel or square to it, and its volume equal to the face's area tim
 model of the face would misrepresent it.
 
 Lengths: OpenCASCADE converts the file's declared length unit to millimetres on import
-(`Geometry.OCCTargetUnit` = "MM", set here rather than left to the default). gmsh is initialised and
-finalised inside `read_step`.
+(`Geometry.OCCTargetUnit` = "MM", set here rather than left to the default).
+
+The reading runs in a child Python process (`python -m stressraiser.geometry.stepfile`), in one gmsh
+session initialised and finalised inside `read_session`: OpenCASCADE's reader can crash on a damaged file
+and prints its complaints on standard output, and neither may reach the caller.
 """
 
 from __future__ import annotations
 
+import os
+import pickle
+import re
+import subprocess
+import sys
+import tempfile
 from pathlib import Path
 
 import gmsh
@@ -36,39 +45,79 @@ from .shapes import Line
 
 PRISM = 1e-5  # relative: volume against area x thickness, and the sine of a face's tilt off square/parallel
 UNITS_SOURCE = "the STEP file's own length unit, converted to mm on import by OpenCASCADE"
+USER_ERROR = 2  # the child's exit code for a PartError (its one line on stderr)
+CHILD_SECONDS = 900.0  # a file the reader has not finished with by then is refused as too large or hung
 
 
 def read_step(path: str | Path, tolerance: float = CHORD_TOLERANCE, gap: float = GAP_TOLERANCE) -> CutLoops:
     """The flat part in the STEP file at `path` as exact loops in mm, with its thickness when the file holds a
     solid (module docstring). tolerance and gap as for geometry/dxffile.py `read_dxf`.
 
-    Raises PartError (one line, starting with the file's name) for a file it cannot read, a file with more
-    than one body, a part with no planar face, and a solid that is not a flat plate of one thickness."""
+    Raises PartError (one line, starting with the file's name) for a file it cannot read (OpenCASCADE's
+    first complaint quoted), a file with more than one body, a part with no planar face, a solid that is
+    not a flat plate of one thickness, and a file on which the reader crashes."""
     path = Path(path)
     try:
         check_positive("tolerance", tolerance)
         check_positive("gap", gap)
         if not path.is_file():
             raise PartError("no such file")
-        gmsh.initialize(readConfigFiles=False, interruptible=False)
-        try:
-            gmsh.option.setNumber("General.Terminal", 0)
-            gmsh.option.setString("Geometry.OCCTargetUnit", "MM")
-            pieces, fitted, thickness = _read(path, tolerance, gap)
-        finally:
-            gmsh.finalize()
+        pieces, fitted, thickness = _read_apart(path, tolerance, gap)
         return cut_loops(pieces, MM, UNITS_SOURCE, tolerance, gap, fitted, thickness=thickness)
     except PartError as error:
         raise PartError(f"{path.name}: {error}") from None
 
 
-def _read(path: Path, tolerance: float, gap: float) -> tuple[list[Piece], list[FittedCurve], float | None]:
-    """Pieces of the largest planar face (mm, in the face's frame), the fitted curves and the thickness."""
+def _read_apart(path: Path, tolerance: float, gap: float) -> tuple[list[Piece], list[FittedCurve], float | None]:
+    """`read_session` in a child Python process. OpenCASCADE's STEP reader can crash outright on a damaged
+    file (a junk line in place of a direction is enough) and prints its complaints on the process's
+    standard output; a child keeps both away from the caller: a crash becomes a PartError, the complaints
+    a quote in one. Costs a second or so of start-up per file."""
+    with tempfile.TemporaryDirectory(prefix="stressraiser-step-") as folder:
+        result = Path(folder) / "loops.pickle"
+        env = dict(os.environ, PYTHONPATH=os.pathsep.join(p for p in sys.path if p))
+        try:
+            done = subprocess.run([sys.executable, "-m", __name__, str(path), repr(tolerance), repr(gap), str(result)],
+                                  capture_output=True, text=True, errors="replace", env=env, timeout=CHILD_SECONDS)
+        except subprocess.TimeoutExpired:
+            raise PartError(f"the STEP reader had not finished after {CHILD_SECONDS:g} s; the file is too large or "
+                            "the reader hung on it") from None
+        if done.returncode == 0:
+            with open(result, "rb") as handle:
+                return pickle.load(handle)
+    complaint = next((" ".join(re.sub(r"\x1b\[[0-9;]*m|\*+", " ", line).split())
+                      for line in done.stdout.splitlines() if "ERR" in line), "")
+    quoted = f"; OpenCASCADE: {complaint}" if complaint else ""
+    if done.returncode == USER_ERROR:
+        raise PartError(done.stderr.strip().splitlines()[-1] + (quoted if "STEP file" in done.stderr else ""))
+    if done.returncode < 0:
+        raise PartError(f"the STEP reader crashed on this file (signal {-done.returncode}): it is damaged or holds "
+                        f"shapes the reader cannot handle; export it again{quoted}")
+    raise RuntimeError(f"the STEP reader's process failed (exit {done.returncode}): {done.stderr.strip()[-2000:]}")
+
+
+def read_session(path: str, tolerance: float, gap: float) -> tuple[list[Piece], list[FittedCurve], float | None]:
+    """Pieces of the largest planar face (mm, in the face's frame), the fitted curves and the thickness, in
+    one gmsh session initialised and finalised here. Runs in the child process of `_read_apart`."""
+    gmsh.initialize(readConfigFiles=False, interruptible=False)
+    try:
+        gmsh.option.setNumber("General.Terminal", 0)
+        gmsh.option.setString("Geometry.OCCTargetUnit", "MM")
+        return _read(path, tolerance, gap)
+    except PartError:
+        raise
+    except Exception as error:  # gmsh raises a bare Exception when OpenCASCADE cannot evaluate the shapes
+        raise PartError(f"its geometry cannot be evaluated ({error})") from None
+    finally:
+        gmsh.finalize()
+
+
+def _read(path: str, tolerance: float, gap: float) -> tuple[list[Piece], list[FittedCurve], float | None]:
     occ = gmsh.model.occ
     try:
-        occ.importShapes(str(path))
+        occ.importShapes(path)
         occ.synchronize()
-    except Exception as error:  # gmsh raises a bare Exception carrying OpenCASCADE's message
+    except Exception as error:  # gmsh raises a bare Exception carrying its own message
         raise PartError(f"not a readable STEP file ({error})") from None
     solids = gmsh.model.getEntities(3)
     if len(solids) > 1:
@@ -155,3 +204,13 @@ def _edge_pieces(tag: int, frame: np.ndarray, tolerance: float, gap: float) -> t
         p = curve(np.array([lo, hi]))[0]
         return [Piece(Line((float(p[0, 0]), float(p[0, 1])), (float(p[1, 0]), float(p[1, 1]))), where)], []
     return curve_pieces(fit_curve(curve, lo, hi, tolerance, (), where), where, gap)
+
+
+if __name__ == "__main__":  # the child process of `_read_apart`: PATH TOLERANCE GAP RESULT
+    try:
+        read = read_session(sys.argv[1], float(sys.argv[2]), float(sys.argv[3]))
+    except PartError as error:
+        print(error, file=sys.stderr)
+        sys.exit(USER_ERROR)
+    with open(sys.argv[4], "wb") as out:
+        pickle.dump(read, out)

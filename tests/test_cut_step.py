@@ -9,6 +9,8 @@ against a copy of the file that declares metres (docs/references.md [STEP]).
 from __future__ import annotations
 
 import math
+import random
+import subprocess
 
 import gmsh
 import pytest
@@ -16,6 +18,7 @@ import pytest
 from stressraiser.geometry.cutloops import cut_polygon, loop_area
 from stressraiser.geometry.errors import PartError
 from stressraiser.geometry.shapes import Arc
+from stressraiser.geometry import stepfile
 from stressraiser.geometry.stepfile import read_step
 
 W, H, R, T = 100.0, 60.0, 5.0, 6.0  # plate, corner radius, thickness (mm)
@@ -175,3 +178,44 @@ def test_refusals(tmp_path):
     junk.write_text("ISO-10303-21;\nnot really\n")
     refused(junk, "not a readable STEP file")
     refused(tmp_path / "missing.step", "no such file")
+
+
+def test_damaged_step_files_are_refused_cleanly(tmp_path, capfd):
+    """Truncated files and lines replaced by junk (one of these copies crashes OpenCASCADE 7.8's reader
+    outright): read or refused with one PartError line; the reader's own complaints are not printed."""
+    path = tmp_path / "plate.step"
+    write_step(path, drilled_plate)
+    capfd.readouterr()
+    lines = path.read_text().splitlines(keepends=True)
+    rng = random.Random(3)
+    damaged = tmp_path / "damaged.step"
+    refusals = []
+    for k in range(6):
+        copy = list(lines)
+        i = rng.randrange(len(copy))
+        if k % 3 == 0:
+            copy = copy[:i]
+        else:
+            copy[i] = rng.choice(["junk\n", "#5 = NOTHING_KNOWN();\n", "#23 = CARTESIAN_POINT('',(1e308,0.,0.));\n"])
+        damaged.write_text("".join(copy))
+        try:
+            read_step(damaged)
+        except PartError as error:
+            refusals.append(str(error))
+    assert len(refusals) >= 2 and all("\n" not in r and r.startswith("damaged.step: ") for r in refusals)
+    printed = capfd.readouterr()
+    assert "StepFile" not in printed.out and "StepFile" not in printed.err
+
+
+def test_a_reader_crash_is_a_refusal(tmp_path, monkeypatch):
+    """Whatever OpenCASCADE version is installed: a child process killed by a signal is reported as a
+    damaged file, quoting the reader's first complaint."""
+    path = tmp_path / "plate.step"
+    path.write_text("ISO-10303-21;\n")
+
+    def killed(*args, **kwargs):
+        return subprocess.CompletedProcess(args, -11, stdout="\x1b[31;1m**** ERR StepFile : Incorrect Syntax ****\n", stderr="")
+
+    monkeypatch.setattr(stepfile.subprocess, "run", killed)
+    message = refused(path, "crashed on this file (signal 11)", "export it again", "OpenCASCADE: ERR StepFile : Incorrect Syntax")
+    assert "\x1b" not in message and "*" not in message
