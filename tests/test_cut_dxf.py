@@ -173,6 +173,19 @@ def test_polyline_outline_equals_lines_and_arcs(tmp_path):
     assert loop_area(clockwise) == pytest.approx(rounded_rectangle_area(w, h, r), rel=1e-12)
 
 
+def test_open_polylines_chain_with_other_entities(tmp_path):
+    """An open LWPOLYLINE (bottom, a bulge-1 right end, top), an open flat 3-D POLYLINE and a LINE close one
+    outline: a 60 x 20 plate with a half-circle end, area 1200 + pi 10² / 2."""
+    doc, msp = drawing()
+    msp.add_lwpolyline([(0, 0, 0), (60, 0, 1.0), (60, 20, 0), (30, 20, 0)], format="xyb")
+    msp.add_polyline3d([(30, 20, 5), (10, 20, 5), (0, 20, 5)])  # flat, at z = 5
+    msp.add_line((0, 20), (0, 0))
+    cut = read_dxf(save(doc, tmp_path))
+    assert len(cut.outline) == 6
+    assert loop_area(cut.outline) == pytest.approx(1200.0 + math.pi * 100.0 / 2.0, rel=1e-12)
+    assert sum(w.startswith("POLYLINE #") for w in cut.outline_from) == 2
+
+
 def test_mirrored_entities_and_exploded_blocks(tmp_path):
     """Arcs with the extrusion (0, 0, -1) mirror x ([DXF] arbitrary axis); a block of circles on layer "0",
     inserted mirrored and turned, gives its holes where the transform puts them, on the INSERT's layer."""
