@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import random
+from collections.abc import Iterator, Sequence
 from pathlib import Path
 
 import pytest
@@ -60,3 +62,18 @@ def assert_refused(tmp_path, capsys, text: str, words, *options: str) -> None:
     for word in words:
         assert word in err, err
     assert not out.exists()
+
+
+def damaged_copies(text: str, seed: int, count: int, junk: Sequence[str]) -> Iterator[str]:
+    """`count` damaged copies of a file's text (seeded): every third cut short at a random line, the others
+    with one random line replaced by one of the `junk` lines."""
+    lines = text.splitlines(keepends=True)
+    rng = random.Random(seed)
+    for k in range(count):
+        copy = list(lines)
+        i = rng.randrange(len(copy))
+        if k % 3 == 0:
+            copy = copy[:i]
+        else:
+            copy[i] = rng.choice(junk)
+        yield "".join(copy)

@@ -11,7 +11,6 @@ from __future__ import annotations
 
 import importlib.util
 import math
-import random
 import subprocess
 import sys
 
@@ -24,7 +23,7 @@ from stressraiser.geometry.errors import PartError
 from stressraiser.geometry.outline import wire_polygon
 from stressraiser.geometry.shapes import Arc, Line
 
-from conftest import EXAMPLES
+from conftest import EXAMPLES, damaged_copies
 
 SCRIPTS = sorted(EXAMPLES.glob("*_dxf.py"))
 
@@ -95,17 +94,10 @@ def test_bracket_holes_are_numbered_left_to_right(tmp_path):
 @pytest.mark.parametrize("script", SCRIPTS, ids=lambda p: p.stem)
 def test_damaged_drawings_are_refused_cleanly(script, tmp_path):
     """Truncated files, lines replaced by junk or by extreme numbers: read or refused with a PartError."""
-    lines = run_script(script, tmp_path).read_text().splitlines(keepends=True)
-    rng = random.Random(20)
+    text = run_script(script, tmp_path).read_text()
     damaged = tmp_path / "damaged.dxf"
-    for k in range(30):
-        copy = list(lines)
-        i = rng.randrange(len(copy))
-        if k % 3 == 0:
-            copy = copy[:i]
-        else:
-            copy[i] = rng.choice(["junk\n", "nan\n", "1e308\n", "-1\n", "0\n", "1e-300\n"])
-        damaged.write_text("".join(copy))
+    for copy in damaged_copies(text, 20, 30, ["junk\n", "nan\n", "1e308\n", "-1\n", "0\n", "1e-300\n"]):
+        damaged.write_text(copy)
         try:
             read_dxf(damaged)
         except PartError as error:

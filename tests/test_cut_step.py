@@ -9,7 +9,6 @@ against a copy of the file that declares metres (docs/references.md [STEP]).
 from __future__ import annotations
 
 import math
-import random
 import subprocess
 
 import gmsh
@@ -20,6 +19,8 @@ from stressraiser.geometry.errors import PartError
 from stressraiser.geometry.shapes import Arc
 from stressraiser.geometry import stepfile
 from stressraiser.geometry.stepfile import read_step
+
+from conftest import damaged_copies
 
 W, H, R, T = 100.0, 60.0, 5.0, 6.0  # plate, corner radius, thickness (mm)
 
@@ -186,18 +187,11 @@ def test_damaged_step_files_are_refused_cleanly(tmp_path, capfd):
     path = tmp_path / "plate.step"
     write_step(path, drilled_plate)
     capfd.readouterr()
-    lines = path.read_text().splitlines(keepends=True)
-    rng = random.Random(3)
     damaged = tmp_path / "damaged.step"
     refusals = []
-    for k in range(6):
-        copy = list(lines)
-        i = rng.randrange(len(copy))
-        if k % 3 == 0:
-            copy = copy[:i]
-        else:
-            copy[i] = rng.choice(["junk\n", "#5 = NOTHING_KNOWN();\n", "#23 = CARTESIAN_POINT('',(1e308,0.,0.));\n"])
-        damaged.write_text("".join(copy))
+    junk = ["junk\n", "#5 = NOTHING_KNOWN();\n", "#23 = CARTESIAN_POINT('',(1e308,0.,0.));\n"]
+    for copy in damaged_copies(path.read_text(), 3, 6, junk):
+        damaged.write_text(copy)
         try:
             read_step(damaged)
         except PartError as error:
