@@ -25,6 +25,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..fem.fastener_groups import bearing_stress
 from ..geometry.spec import PartSpec
 from .method_of_sections import SectionResult
 
@@ -105,7 +106,7 @@ def nominal_stresses(spec: PartSpec, peak: float, section: SectionResult, gross_
         d = spec.holes[pin.hole - 1].diameter
         pin_net = make("pin-net", "pin load, net section", "P / A_net", _ratio(pin.force, net.area))
         pin_gross = make("pin-gross", "pin load, gross section", "P / (W t)", _ratio(pin.force, gross.area))
-        bearing = make("bearing", "pin bearing", "P / (d t)", pin.force / (d * t))
+        bearing = make("bearing", "pin bearing", "P / (d t)", bearing_stress(pin.force, d, t))
         return NominalSet(pin_net, pin_gross, (pin_net, pin_gross, bearing))
     if kind == "axial":
         return NominalSet(axial_net, axial_gross, (axial_net, axial_gross))

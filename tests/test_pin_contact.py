@@ -71,7 +71,7 @@ def test_contact_forces_balance_the_pin_and_nothing_penetrates(clearance):
     spec = lug(0.45, clearance=clearance)
     mesh, K, f, fixed = _one_level(spec)
     solved = solve_pin_contact(K, f, fixed, spec, mesh)
-    hole, lam, on = solved.hole, solved.normal_force, solved.active
+    hole, lam, on = solved.contact, solved.normal_force, solved.active
     centre = np.asarray(spec.holes[0].center)
     forces = solved.forces.reshape(-1, 2)[hole.nodes]
     # statics of the rigid pin: the contact forces on the part add up to the pin force (here along +x)
@@ -96,7 +96,7 @@ def test_exact_constraints_agree_with_an_independent_penalty_formulation():
     spec = lug(0.45, clearance=0.02)
     mesh, K, f, fixed = _one_level(spec)
     solved = solve_pin_contact(K, f, fixed, spec, mesh)
-    n, hole, on = mesh.n_nodes, solved.hole, solved.active
+    n, hole, on = mesh.n_nodes, solved.contact, solved.active
     beta = 1e7
     nodes, e, g0 = hole.nodes[on], hole.normal[on], hole.gap[on]
     diag = K.diagonal()
@@ -114,7 +114,7 @@ def test_exact_constraints_agree_with_an_independent_penalty_formulation():
     u[free] = spla.spsolve(A.tocsc()[free][:, free], b[free])
     size = np.max(np.abs(solved.displacement))
     assert np.max(np.abs(u[:2 * n] - solved.displacement)) <= 1e-4 * size
-    assert u[2 * n:] == pytest.approx(solved.pin_displacement, abs=1e-4 * size)
+    assert u[2 * n:] == pytest.approx(solved.fasteners[0].displacement, abs=1e-4 * size)
 
 
 # --- (b) the neat-fit rigid pin against the handbook's lug fit -------------------------------------------
@@ -170,7 +170,7 @@ def test_contact_with_clearance_depends_on_load_over_clearance_only():
     # doubles every displacement and force, so Kt and the contact arc repeat; doubling the force alone
     # closes more of the gap (homogeneity of the contact problem, common practice). The exact gap between
     # a circle and the pin inside it, s (1 - cos a) + s^2 sin^2 a / (2 r) + ..., departs from
-    # proportionality by at most c/d of itself (s = c/2, r = d/2; fem.contact.initial_gap), so Kt repeats
+    # proportionality by at most c/d of itself (s = c/2, r = d/2; fem.fastener_groups.initial_gap), so Kt repeats
     # to that order: 0.04 / 18 here.
     def one_level(force, clearance):
         spec = lug(0.45, clearance=clearance, force=force)
