@@ -385,7 +385,8 @@ def _layout(n: int, groups: Sequence[FastenerGroup], planes: Sequence[str], tole
     return _Layout(next_dof, tuple(m.dofs for m in members), tuple(m.length for m in members), arrays["pin_cols"],
                    arrays["pin_coef"], arrays["member_cols"], arrays["member_coef"], arrays["group_of"],
                    arrays["portion"], tuple(m.free for m in members), held_all, load,
-                   np.array(positions, float).reshape(-1, 2), _spring_matrix(springs, next_dof, held_all, stiffness_scale),
+                   np.array(positions, float).reshape(-1, 2),
+                   _spring_matrix(springs, next_dof, held_all, stiffness_scale),
                    np.array([2 ** len(m.own) for m in members]), arrays["across"].astype(bool).reshape(-1, 2),
                    np.array([["x" in m.own, "y" in m.own] for m in members], dtype=bool).reshape(-1, 2))
 
@@ -841,14 +842,13 @@ def _results(u, lam, gap, contact: ContactNodes, active, groups, layout: _Layout
         g = int(layout.group_of[j])
         fastener = groups[g].fastener
         mine = contact.fastener == j
-        on = mine & active
         size = float(magnitude[j])
         fasteners.append(FastenerResult(
             g, hole, float(layout.portion[j]), whole[j], size / total[g] if total[g] > 0 else 0.0,
-            bearing_stress(size, fastener.diameter, thickness), shear_stress(size, fastener.diameter,
-                                                                             fastener.shear_planes),
-            math.degrees(seats[j]), contact_arcs(contact.angle[mine], active[mine]), int(on.sum()), float(pressure[contact.nodes[mine]].max()), pins[j],
-            float(max(0.0, -gap[mine].min()))))
+            bearing_stress(size, fastener.diameter, thickness),
+            shear_stress(size, fastener.diameter, fastener.shear_planes), math.degrees(seats[j]),
+            contact_arcs(contact.angle[mine], active[mine]), int(np.sum(mine & active)),
+            float(pressure[contact.nodes[mine]].max()), pins[j], float(max(0.0, -gap[mine].min()))))
     return GroupsSolve(u[:2 * n], forces, contact, active, lam, gap, tuple(fasteners),
                        _group_results(u, per_pin, groups, layout), passes, report)
 

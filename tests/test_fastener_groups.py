@@ -403,7 +403,8 @@ def test_a_plate_held_by_nothing_is_a_mechanism(bar):
     (FastenerGroup("group 3", group_holes([Hole((70.0, -20.0), 10.0), Hole((70.0, 20.0), 10.0)], [1, 2]),
                    Fastener(10.0), (1000.0, 0.0, 0.0), seats=(0.0,)),
      "group 3: give one seat direction per hole (2), or none"),
-    (FastenerGroup("group 3", (GroupHole(hole_edge(5), (90.0, 0.0), 10.0),), Fastener(10.0, stiffness=-5.0), (1.0, 0.0, 0.0)),
+    (FastenerGroup("group 3", (GroupHole(hole_edge(5), (90.0, 0.0), 10.0),), Fastener(10.0, stiffness=-5.0),
+                   (1.0, 0.0, 0.0)),
      "group 3: the fastener's stiffness must be positive"),
 ])
 def test_a_group_the_model_cannot_take_is_refused_naming_it(bar, group, words):
@@ -413,10 +414,13 @@ def test_a_group_the_model_cannot_take_is_refused_naming_it(bar, group, words):
     assert words in str(err.value) and "\n" not in str(err.value)
 
 
+UNSYMMETRIC = "group 1: a group centred on the symmetry plane y = 0 must be symmetric about it"
+
+
 @pytest.mark.parametrize("load, reference, words", [
-    ((1000.0, 5.0, 0.0), (65.0, 0.0), "group 1: a group centred on the symmetry plane y = 0 must be symmetric about it"),
-    ((1000.0, 0.0, 30.0), (65.0, 0.0), "group 1: a group centred on the symmetry plane y = 0 must be symmetric about it"),
-    ((1000.0, 0.0, 0.0), (65.0, 3.0), "group 1: a hole on the symmetry plane y = 0 needs its group centred on the plane"),
+    ((1000.0, 5.0, 0.0), (65.0, 0.0), UNSYMMETRIC),
+    ((1000.0, 0.0, 30.0), (65.0, 0.0), UNSYMMETRIC),
+    ((1000.0, 0.0, 0.0), (65.0, 3.0), "group 1: a hole on the symmetry plane y = 0 needs its group centred"),
 ])
 def test_a_half_model_refuses_a_group_that_is_not_symmetric(load, reference, words):
     # a half model about y = 0 holds a group's mirror image only when the group, its reference point and
