@@ -26,6 +26,7 @@ from dataclasses import dataclass
 from typing import Any
 
 from ..geometry.errors import PartError
+from .errors import CommandLineError, SchedulerError
 
 STATUS_OK = "ok"
 STATUS_INPUT = "input"  # the part-file reader refused the case (bad geometry or value)
@@ -82,6 +83,7 @@ def summary_row(result) -> dict[str, Any]:
     handbook comparison uses; when the case describes the part's peak, or no case covers the part, they
     equal the governing values and case_raiser is the governing feature."""
     from ..compare.case_kt import case_kt
+    from ..geometry.registry import raiser_label
 
     preferred = result.handbook[0] if result.handbook else None
     described = case_kt(result, preferred)
@@ -92,7 +94,7 @@ def summary_row(result) -> dict[str, Any]:
         "peak_fe": result.peak.fe_stress,
         "peak_x": result.peak.location[0],
         "peak_y": result.peak.location[1],
-        "feature": result.peak.feature,
+        "feature": raiser_label(result.peak.feature),
         "average": result.net_section.average,
         "gross_average": result.gross_average,
         "kt_net": result.kt.net,
@@ -106,7 +108,7 @@ def summary_row(result) -> dict[str, Any]:
         "handbook_kt_net": preferred.kt_net if preferred else None,
         "handbook_kt_gross": preferred.kt_gross if preferred else None,
         "handbook_in_range": bool(preferred.in_range) if preferred else None,
-        "case_raiser": described.raiser,
+        "case_raiser": raiser_label(described.raiser),
         "case_kt_net": described.kt_net,
         "case_kt_gross": described.kt_gross,
         "case_kt_error": described.error,
@@ -193,7 +195,7 @@ def add_execution_options(parser: argparse.ArgumentParser) -> None:
 
 def execution_from_args(args: argparse.Namespace) -> Execution:
     if args.scheduler and args.workers:
-        raise PartError("--workers: applies to the local pool only; the cluster's workers run the cases "
+        raise CommandLineError("--workers: applies to the local pool only; the cluster's workers run the cases "
                         "when --scheduler is given")
     return Execution(workers=args.workers, scheduler=args.scheduler)
 
@@ -308,12 +310,12 @@ def _on_cluster(jobs: Sequence[tuple[str, dict]], address: str, runner: Runner) 
     try:
         from dask.distributed import Client, as_completed
     except ImportError:
-        raise PartError("--scheduler: Dask is not installed; install the cluster extra "
+        raise SchedulerError("--scheduler: Dask is not installed; install the cluster extra "
                         "(pip install 'stressraiser[cluster]')") from None
     try:
         client = Client(address, timeout=CONNECT_TIMEOUT, set_as_default=False)
     except Exception as exc:  # unreachable, refused, or not an address
-        raise PartError(f"--scheduler: cannot reach a Dask scheduler at {address!r} ({type(exc).__name__}: {exc})") from None
+        raise SchedulerError(f"--scheduler: cannot reach a Dask scheduler at {address!r} ({type(exc).__name__}: {exc})") from None
     run_id = uuid.uuid4().hex[:12]
     try:
         keys = [key for key, _ in jobs]

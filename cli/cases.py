@@ -24,14 +24,14 @@ def run(args: argparse.Namespace) -> int:
     from rich.markup import escape
 
     from ..compare.handbook import BUILDERS, case_table
-    from ..geometry.errors import PartError
+    from .errors import CommandLineError
 
     cases = case_table()
     if args.family:
         families = sorted({c.family for c in cases})
         cases = [c for c in cases if c.family == args.family]
         if not cases:
-            raise PartError(f"--family: {args.family!r} is not a case family; use one of {', '.join(families)}")
+            raise CommandLineError(f"--family: {args.family!r} is not a case family; use one of {', '.join(families)}")
     out = Console(highlight=False, soft_wrap=True)
     out.print(f"[bold]{len(cases)} handbook cases[/bold] (a part is compared with a case only when its geometry "
               "is that case)")

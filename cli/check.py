@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 from pathlib import Path
 
-from ..geometry.errors import PartError
+from .errors import OutputError
 from ..geometry.spec import MeshControls
 
 NAME = "check"
@@ -76,7 +76,7 @@ def _report_folder(value: str) -> Path:
     """The --report folder, refused before any work if it names an existing file."""
     folder = Path(value)
     if folder.exists() and not folder.is_dir():
-        raise PartError(f"--report {value}: this is a file; give a folder (it is created if missing)")
+        raise OutputError(f"--report {value}: this is a file; give a folder (it is created if missing)")
     return folder
 
 
@@ -86,7 +86,7 @@ def _write_report(result, folder: Path, part: str):
     try:
         return write_report(result, folder, part_file=part)
     except OSError as exc:
-        raise PartError(f"--report {folder}: cannot write the report ({exc.strerror or exc})") from None
+        raise OutputError(f"--report {folder}: cannot write the report ({exc.strerror or exc})") from None
 
 
 MAX_ELEMENTS_RANGE = (1_000, 20_000_000)  # as mesh.max_elements in the part file

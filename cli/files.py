@@ -5,7 +5,7 @@ file ".NAME.*.part" stays beside it.
 
 Every file a command writes goes through here: `write_atomic` (bytes), `write_text`, `write_json`, or
 `atomic_path` for a library that insists on writing a file by name itself (meshio, matplotlib).
-A target that cannot be written (a folder, no permission, a full disk) raises OutputError, a PartError:
+A target that cannot be written (a folder, no permission, a full disk) raises OutputError (cli/errors.py):
 one line naming the file, exit code 2.
 """
 
@@ -20,11 +20,7 @@ from contextlib import contextmanager
 from pathlib import Path
 from typing import Any
 
-from ..geometry.errors import PartError
-
-
-class OutputError(PartError):
-    """An output file cannot be written (exit code 2: the user picks another path or frees space)."""
+from .errors import OutputError
 
 
 def write_atomic(path: str | Path, data: bytes) -> None:

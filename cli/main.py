@@ -20,9 +20,10 @@ from collections.abc import Sequence  # noqa: E402
 from rich.console import Console  # noqa: E402
 
 from ..fem.solve import SolverError  # noqa: E402
-from ..geometry.errors import PartError, one_line  # noqa: E402
+from ..geometry.errors import InputError, one_line  # noqa: E402
 from ..geometry.meshing import MeshError  # noqa: E402
 from . import cases, check, materials_table, regress, sweep  # noqa: E402
+from .errors import CommandLineError  # noqa: E402
 
 # Start-up of the command-line process: loading numpy, scipy, gmsh, shapely and rich makes hundreds of
 # thousands of objects that live as long as the process. Collecting cycles while they are made, and scanning
@@ -43,7 +44,7 @@ class _Parser(argparse.ArgumentParser):
     """argparse that reports usage mistakes as one line and exit code 2."""
 
     def error(self, message: str) -> None:  # type: ignore[override]
-        raise PartError(f"command line: {message}")
+        raise CommandLineError(f"command line: {message}")
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -59,7 +60,7 @@ def main(argv: Sequence[str] | None = None) -> int:
     try:
         args = build_parser().parse_args(argv)
         return _run(args)
-    except PartError as exc:
+    except InputError as exc:
         err.print(f"stressraiser: {exc}", markup=False)
         return EXIT_INPUT
     except (MeshError, SolverError) as exc:
@@ -84,7 +85,7 @@ def _run(args: argparse.Namespace) -> int:
     for command in COMMANDS:
         if command.NAME == args.command:
             return command.run(args)
-    raise PartError(f"command line: unknown command {args.command!r}")
+    raise CommandLineError(f"command line: unknown command {args.command!r}")
 
 
 def entry() -> None:

@@ -15,17 +15,22 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Any
 
 import numpy as np
+import shapely
 from matplotlib.figure import Figure
 from matplotlib.lines import Line2D
 from matplotlib.patches import FancyArrowPatch, Polygon as PolygonPatch
 from matplotlib.ticker import AutoLocator, Formatter
 from matplotlib.tri import Triangulation
 
-from ..compare.check import CheckResult
-from ..geometry.outline import part_polygon
+from ..compare.check import CheckResult, NetSection
+from ..compare.design import DesignCheck
+from ..compare.fatigue import FatigueScreen
+from ..compare.method_of_sections import SectionResult
+from ..geometry.kinds.base import RaiserId
+from ..geometry.outline import cutout_regions, part_polygon, plate_polygon
+from ..geometry.registry import kind_of, named, raiser_label
 from ..geometry.units import DEFAULT_SYSTEM
 from .citation import short_source
 from .summary import estimate_how
@@ -42,27 +47,36 @@ STRESS_MAP = "viridis"
 WIDTH_IN = 9.0  # figure width, inches
 
 
+def cut_where(point: tuple[float, float], normal: tuple[float, float], units: str = DEFAULT_SYSTEM) -> str:
+    """Where a cut is, in words and in `units`: "x = 0 mm" across the load, else "through (x, y) mm,
+    normal (nx, ny)"."""
+    n = np.asarray(normal, dtype=float) / np.hypot(*normal)
+    if np.allclose(n, (1.0, 0.0)):
+        return f"x = {quantity_text(point[0], 'length', units, 'g')}"
+    return f"through {point_text(tuple(point), units, '.4g')}, normal ({n[0]:.3f}, {n[1]:.3f})"
+
+
 @dataclass(frozen=True)
 class SectionView:
-    """One critical section to draw: a label, the section (NetSection-like), the converged peak (MPa)
-    and where it is (mm), the raiser it belongs to, and Kt on that section."""
+    """One critical section to draw: a label, the net section, the converged peak (MPa) and where it is
+    (mm), the raiser it belongs to (None: at no raiser), and Kt on that section."""
 
     label: str
-    section: Any
+    section: NetSection
     peak: float
     location: tuple[float, float]
-    feature: str
+    feature: RaiserId | None
     kt_net: float
 
     @property
     def point(self) -> np.ndarray:
         """A point of the cut (mm); positions along the cut are measured from it."""
-        return np.asarray(getattr(self.section, "point", None) or (self.section.x, 0.0), dtype=float)
+        return np.asarray(self.section.point, dtype=float)
 
     @property
     def normal(self) -> np.ndarray:
         """Unit normal of the cut (the load direction for a cut across the load)."""
-        n = np.asarray(getattr(self.section, "normal", None) or (1.0, 0.0), dtype=float)
+        n = np.asarray(self.section.normal, dtype=float)
         return n / np.hypot(*n)
 
     @property
@@ -76,11 +90,8 @@ class SectionView:
         return bool(np.allclose(self.normal, (1.0, 0.0)))
 
     def where(self, units: str = DEFAULT_SYSTEM) -> str:
-        """Where the cut is, in words and in `units`: "x = 0 mm" or "through (x, y) mm, normal (nx, ny)"."""
-        if self.across_x:
-            return f"x = {quantity_text(self.point[0], 'length', units, 'g')}"
-        (nx, ny) = self.normal
-        return f"through {point_text(tuple(self.point), units, '.4g')}, normal ({nx:.3f}, {ny:.3f})"
+        """Where the cut is, in words and in `units` (see `cut_where`)."""
+        return cut_where(self.section.point, self.section.normal, units)
 
     def position(self, xy: tuple[float, float]) -> tuple[float, float]:
         """(position along the cut, distance off the cut) of a point, mm."""
@@ -93,21 +104,10 @@ class SectionView:
 
 
 def critical_sections(result: CheckResult) -> list[SectionView]:
-    """The critical sections of a result, the governing one first.
-
-    A result that lists several raisers (attribute `peaks`, each with `peak` and `net_section` or the
-    same fields flat) gives one view per raiser; otherwise the single governing section."""
-    views = []
-    for n, item in enumerate(getattr(result, "peaks", None) or (), start=1):
-        peak = getattr(item, "peak", item)
-        section = getattr(item, "net_section", None) or getattr(item, "section", None)
-        if section is None or not hasattr(section, "cut"):
-            continue
-        stress = float(getattr(peak, "stress"))
-        kt = getattr(item, "kt_net", None)
-        views.append(SectionView(f"section {n}", section, stress, tuple(getattr(peak, "location")),
-                                 str(getattr(peak, "feature", "")),
-                                 float(kt) if kt is not None else stress / section.average))
+    """The critical sections of a result, the governing one first: one per competing raiser (result.peaks),
+    else the single governing section."""
+    views = [SectionView(f"section {n}", p.section, p.stress, p.location, p.feature, p.kt_net)
+             for n, p in enumerate(result.peaks, start=1)]
     return views or [governing_view(result)]
 
 
@@ -127,7 +127,7 @@ def _figure(height: float, width: float = WIDTH_IN) -> Figure:
 def _outline_patches(result: CheckResult, ax, fill: str = MATERIAL_FILL, edge: str = INK, lw: float = 1.2) -> None:
     """Draw the part outline (exterior and holes) from the exact shapely polygon."""
     poly = part_polygon(result.spec)
-    pieces = getattr(poly, "geoms", [poly])
+    pieces = poly.geoms if isinstance(poly, shapely.MultiPolygon) else [poly]
     for piece in pieces:
         ax.add_patch(PolygonPatch(np.asarray(piece.exterior.coords), closed=True, facecolor=fill, edgecolor=edge,
                                   linewidth=lw, zorder=1))
@@ -155,12 +155,14 @@ def _peak_radius(result: CheckResult) -> float:
 
 
 def _raiser_centre(result: CheckResult) -> tuple[float, float]:
-    """Centre of the raiser holding the peak when the part names it (a hole's centre), else the peak."""
-    name = result.peak.feature
-    for n, hole in enumerate(getattr(result.spec, "holes", ()) or (), start=1):
-        if name == f"hole {n}":
-            return (float(hole.center[0]), float(hole.center[1]))
-    return tuple(result.peak.location)  # type: ignore[return-value]
+    """Centre of the bounding box of the edges of the raiser holding the peak (a hole's centre), else the
+    peak itself."""
+    mesh = result.solution.mesh
+    edges = mesh.edges.get(result.peak.feature)
+    if edges is None or not len(edges):
+        return tuple(result.peak.location)  # type: ignore[return-value]
+    points = mesh.nodes[np.unique(edges)]
+    return tuple(0.5 * (points.min(axis=0) + points.max(axis=0)))  # type: ignore[return-value]
 
 
 def _zoom_window(result: CheckResult, centre: tuple[float, float], half: float
@@ -181,9 +183,7 @@ def _raiser_window(result: CheckResult):
     half = 2.2 * _peak_radius(result)
     if edges is not None and len(edges):
         points = mesh.nodes[np.unique(edges)]
-        low, high = points.min(axis=0), points.max(axis=0)
-        centre = tuple(0.5 * (low + high))
-        return _zoom_window(result, centre, max(half, 0.55 * float(np.max(high - low)) * 1.25))
+        half = max(half, 0.55 * float(np.max(points.max(axis=0) - points.min(axis=0))) * 1.25)
     return _zoom_window(result, _raiser_centre(result), half)
 
 
@@ -299,15 +299,16 @@ def _fmt(value: float, quantity: str, units: str, resultant: bool = False) -> st
 # --- the part ---------------------------------------------------------------------------------------
 
 def outline_figure(result: CheckResult) -> Figure:
-    """Dimensioned outline of the part: overall length and width, each hole numbered (diameters and
-    centres listed below the drawing), the held end, the loads and the critical sections."""
+    """Dimensioned outline of the part: overall length and width, each raiser named beside it (its
+    dimensions listed below the drawing, in its kind's words), the held end, the loads and the critical
+    sections."""
     spec, units = result.spec, result.spec.units
     minx, miny, maxx, maxy = _bounds(result)
     length, width = maxx - minx, maxy - miny
     step = 0.09 * max(length, width)
     xlim, ylim = (minx - 1.6 * step, maxx + 1.6 * step), (miny - 2.0 * step, maxy + 1.8 * step)
-    holes = list(getattr(spec, "holes", ()) or ())
-    rows = math.ceil(len(holes) / 3)
+    raisers = named(spec)
+    rows = math.ceil(len(raisers) / 2)
     fig = _figure(height=(WIDTH_IN - 0.8) * (ylim[1] - ylim[0]) / (xlim[1] - xlim[0]) + 0.8 + 0.22 * rows)
     ax = fig.add_subplot()
     _outline_patches(result, ax)
@@ -315,21 +316,12 @@ def outline_figure(result: CheckResult) -> Figure:
     _dimension(ax, (minx, miny), (minx, maxy), _fmt(width, "length", units), (-0.9 * step, 0.0), rotation=90)
     _draw_support(ax, spec, (minx, miny, maxx, maxy), step)
     _draw_loads(ax, spec, (minx, miny, maxx, maxy), step)
-    handles = []
-    for n, hole in enumerate(holes, start=1):
-        cx, cy = hole.center
-        r = 0.5 * hole.diameter
-        for dx, dy in ((1, 0), (0, 1)):
-            ax.plot([cx - 1.25 * r * dx, cx + 1.25 * r * dx], [cy - 1.25 * r * dy, cy + 1.25 * r * dy],
-                    color=GROSS_LINE, lw=0.6, ls=(0, (6, 2, 1, 2)))
-        ax.annotate(str(n), xy=(cx + 0.71 * r, cy + 0.71 * r), xytext=(4, 4), textcoords="offset points",
-                    fontsize=9, fontweight="bold", color=INK)
-        handles.append(Line2D([], [], ls="none", marker=f"${n}$", color=INK, markersize=7,
-                              label=f"hole {n}: Ø{_fmt(hole.diameter, 'length', units)}, centre "
-                                    f"{point_text((cx, cy), units, '.4g')}"))
-    if handles:
-        fig.legend(handles=handles, loc="outside lower center", ncols=min(3, len(handles)), fontsize=9,
-                   frameon=False, handletextpad=0.3, columnspacing=1.5)
+    _draw_raisers(ax, result)
+    if raisers:
+        handles = [Line2D([], [], ls="none", label=f"{rid}: {kind_of(item).describe(item, units)}")
+                   for rid, item in raisers]
+        fig.legend(handles=handles, loc="outside lower center", ncols=min(2, len(handles)), fontsize=9,
+                   frameon=False, handlelength=0, handletextpad=0, columnspacing=1.5)
     # critical sections; sections on the same cut share one line and one label
     cuts: dict[tuple, list[SectionView]] = {}
     for view in critical_sections(result):
@@ -354,15 +346,32 @@ def outline_figure(result: CheckResult) -> Figure:
     return fig
 
 
+def _draw_raisers(ax, result: CheckResult) -> None:
+    """Each raiser's name beside its cut-out, and centre lines through every cut-out inside the outline."""
+    regions = cutout_regions(result.spec)
+    plate = plate_polygon(result.spec)
+    for rid, item in named(result.spec):
+        region = shapely.union_all(regions[rid]).intersection(plate)
+        if region.is_empty:
+            continue
+        x0, y0, x1, y1 = region.bounds
+        cx, cy, hx, hy = 0.5 * (x0 + x1), 0.5 * (y0 + y1), 0.5 * (x1 - x0), 0.5 * (y1 - y0)
+        if not kind_of(item).mouths(result.spec, item):
+            for dx, dy in ((hx, 0.0), (0.0, hy)):
+                ax.plot([cx - 1.25 * dx, cx + 1.25 * dx], [cy - 1.25 * dy, cy + 1.25 * dy],
+                        color=GROSS_LINE, lw=0.6, ls=(0, (6, 2, 1, 2)))
+        ax.annotate(str(rid), xy=(cx + 0.71 * hx, cy + 0.71 * hy), xytext=(4, 4), textcoords="offset points",
+                    fontsize=8, fontweight="bold", color=INK)
+
+
 def _draw_support(ax, spec, bounds, step: float) -> None:
     """Hatching at the held end (left), with how it is held; none under a remote (self-equilibrated) load."""
     minx, miny, maxx, maxy = bounds
-    if getattr(spec.load, "remote", None) is not None:
+    if spec.load.remote is not None:
         return
     for y in np.linspace(miny, maxy, 9):
         ax.plot([minx, minx - 0.12 * step], [y, y - 0.12 * step], color=INK, lw=0.8)
-    held = getattr(getattr(spec, "support", None), "held", "x")
-    text = "held end\n(clamped)" if held == "clamped" else "held end\n(x fixed)"
+    text = "held end\n(clamped)" if spec.support.held == "clamped" else "held end\n(x fixed)"
     ax.text(minx, maxy + 0.3 * step, text, ha="center", va="bottom", fontsize=9, color=INK)
 
 
@@ -379,38 +388,37 @@ def _draw_loads(ax, spec, bounds, step: float) -> None:
     load, units = spec.load, spec.units
     width = maxy - miny
     notes = []
-    axial = float(getattr(load, "axial", 0.0) or 0.0)
+    axial = load.axial
     if axial:
         tail, head = (maxx + 0.2 * step, maxx + 1.3 * step) if axial > 0 else (maxx + 1.3 * step, maxx + 0.2 * step)
         for y in np.linspace(miny + 0.2 * width, maxy - 0.2 * width, 3):
             _arrow(ax, (tail, y), (head, y))
         notes.append(f"P = {_fmt(abs(axial), 'force', units, True)} " + ("tension" if axial > 0 else "compression"))
-    shear = float(getattr(load, "shear", 0.0) or 0.0)
+    shear = load.shear
     if shear:
         x = maxx + 1.45 * step
         y0, y1 = (miny + 0.1 * width, maxy - 0.1 * width) if shear > 0 else (maxy - 0.1 * width, miny + 0.1 * width)
         _arrow(ax, (x, y0), (x, y1), FE_LINE)
         notes.append(f"V = {_fmt(shear, 'force', units, True)} along y")
-    bending = float(getattr(load, "bending", 0.0) or 0.0)
+    bending = load.bending
     if bending:
         centre = (maxx + 0.75 * step, 0.5 * (miny + maxy))
         ax.add_patch(FancyArrowPatch((centre[0], centre[1] - 0.35 * width), (centre[0], centre[1] + 0.35 * width),
                                      connectionstyle=f"arc3,rad={0.6 if bending > 0 else -0.6}", arrowstyle="-|>",
                                      mutation_scale=12, color=HANDBOOK_MARK, lw=1.4))
         notes.append(f"M = {_fmt(bending, 'moment', units, True)}")
-    pin = getattr(load, "pin", None)
-    holes = list(getattr(spec, "holes", ()) or ())
-    if pin is not None and 1 <= getattr(pin, "hole", 0) <= len(holes):
-        hole = holes[pin.hole - 1]
-        angle = math.radians(getattr(pin, "direction", 0.0))
+    pin = load.pin
+    if pin is not None:
+        hole = spec.holes[pin.hole - 1]
+        angle = pin.angle
         u = np.array([math.cos(angle), math.sin(angle)])
         start = np.asarray(hole.center, dtype=float)
         _arrow(ax, start, start + (0.5 * hole.diameter + 1.2 * step) * u)
         notes.append(f"pin in hole {pin.hole}: F = {_fmt(pin.force, 'force', units, True)} at "
                      f"{math.degrees(angle):.4g}°")
-    remote = getattr(load, "remote", None)
+    remote = load.remote
     if remote is not None:
-        sx, sy = float(getattr(remote, "sx", 0.0)), float(getattr(remote, "sy", 0.0))
+        sx, sy = remote.sx, remote.sy
         for sign, x in ((-1, minx), (1, maxx)):
             if sx:
                 d = 0.9 * step * np.sign(sx) * sign
@@ -422,7 +430,7 @@ def _draw_loads(ax, spec, bounds, step: float) -> None:
                 cx = 0.5 * (minx + maxx)
                 _arrow(ax, (cx, y + (0.15 * step * sign if sy > 0 else d + 0.15 * step * sign)),
                        (cx, y + (d if sy > 0 else 0.15 * step * sign)))
-        sxy = (shown(v, "stress", units, ".4g") for v in (sx, sy, float(getattr(remote, "txy", 0.0))))
+        sxy = (shown(v, "stress", units, ".4g") for v in (sx, sy, remote.txy))
         notes.append("remote stress σx {}, σy {}, τxy {} ".format(*sxy) + unit_label("stress", units))
     if notes:
         ax.text(maxx, maxy + 0.3 * step, "\n".join(notes), ha="right", va="bottom", fontsize=9, color=AVERAGE_LINE)
@@ -451,7 +459,7 @@ def mesh_figure(result: CheckResult) -> Figure:
     _frame(ax, *limits, units)
     near.triplot(_window_triangulation(result, raiser), color=INK, lw=0.3, rasterized=True)
     _box(near, peak, FE_LINE)
-    near.set_title(f"around {result.peak.feature} (orange box above)", fontsize=10, loc="left")
+    near.set_title(f"around {raiser_label(result.peak.feature)} (orange box above)", fontsize=10, loc="left")
     _frame(near, *raiser, units)
     closest.triplot(_window_triangulation(result, peak), color=INK, lw=0.5, rasterized=True)
     closest.plot(*result.peak.location, "o", ms=9, mfc="none", mec=AVERAGE_LINE, mew=1.8)
@@ -486,7 +494,7 @@ def stress_map_figure(result: CheckResult) -> Figure:
     window = _raiser_window(result)
     _box(ax, window, AVERAGE_LINE)
     ax.set_title(f"max principal stress; peak {quantity_text(result.peak.stress, 'stress', units)} at "
-                 f"{point_text((px, py), units)} ({result.peak.feature}); dashed: critical section", fontsize=10,
+                 f"{point_text((px, py), units)} ({raiser_label(result.peak.feature)}); dashed: critical section", fontsize=10,
                  loc="left")
     _frame(ax, *whole, units)
     unit_colorbar(fig.colorbar(image, ax=ax, shrink=0.95, pad=0.01, aspect=12), "stress", units, "max principal")
@@ -501,7 +509,7 @@ def stress_map_figure(result: CheckResult) -> Figure:
                   xytext=(cx, cy), fontsize=9, color="white", ha="center", va="center",
                   arrowprops=dict(arrowstyle="-|>", color=INK, lw=0.9, shrinkA=4, shrinkB=6),
                   bbox=dict(boxstyle="round,pad=0.3", facecolor=INK, edgecolor="none", alpha=0.85))
-    near.set_title(f"max principal around {result.peak.feature}", fontsize=10, loc="left")
+    near.set_title(f"max principal around {raiser_label(result.peak.feature)}", fontsize=10, loc="left")
     _frame(near, *window, units)
     unit_colorbar(fig.colorbar(image, ax=near, shrink=0.9, pad=0.02), "stress", units, "max principal")
     image = other.tripcolor(close, vm, shading="gouraud", cmap=STRESS_MAP, rasterized=True,
@@ -564,7 +572,7 @@ def section_figure(result: CheckResult, view: SectionView) -> Figure:
     offside = "" if on_cut else (f"\nthe peak lies {quantity_text(abs(off), 'length', units, '.2f')} off this cut, "
                                  f"at {point_text(view.location, units)}; marked at the cut's highest point")
     basis = "the nominal stress of Kt" if own_nominal else "net-section average"
-    ax.annotate(f"peak {quantity_text(view.peak, 'stress', units)} ({view.feature}, converged) = "
+    ax.annotate(f"peak {quantity_text(view.peak, 'stress', units)} ({raiser_label(view.feature)}, converged) = "
                 f"{view.kt_net:.2f} × {basis};\n"
                 f"the {basis.removeprefix('the ')} understates the peak by {1 - nominal / view.peak if view.peak else 0.0:.0%}{offside}",
                 xy=(yp, view.peak), xytext=(yp, top + 0.13 * span), ha=ha, va="bottom", fontsize=9, color=INK,
@@ -600,22 +608,18 @@ def section_figure(result: CheckResult, view: SectionView) -> Figure:
 def nominal_label(result: CheckResult, view: SectionView) -> str:
     """Words for the nominal stress a section's Kt refers to: the check's own label for its headline net
     nominal when that is the one, else "peak / Kt"."""
-    net = getattr(getattr(result, "nominal", None), "net", None)
-    stress = getattr(net, "stress", None)
-    if isinstance(stress, (int, float)) and view.kt_net and math.isclose(abs(stress), abs(view.peak / view.kt_net),
-                                                                          rel_tol=1e-6):
-        return str(getattr(net, "label", "net nominal"))
+    net = result.nominal.net if result.nominal is not None else None
+    if net is not None and view.kt_net and math.isclose(abs(net.stress), abs(view.peak / view.kt_net), rel_tol=1e-6):
+        return net.label
     return "peak / Kt"
 
 
-def cut_figure(result: CheckResult, section: Any) -> Figure:
+def cut_figure(result: CheckResult, section: SectionResult) -> Figure:
     """A cut the part file asked for (method of sections): normal and shear traction along the cut, the
     average normal stress N / A drawn flat over the material, and the largest normal traction marked."""
     units = result.spec.units
-    name = str(getattr(section, "label", "cut"))
-    point = getattr(section, "point", None)
-    view = SectionView(name if point is None else cut_label(name, tuple(point), units), section, 0.0, (0.0, 0.0),
-                       "", 0.0)
+    name = cut_label(section.label, section.point, units)
+    across_x = bool(np.allclose(np.asarray(section.normal) / np.hypot(*section.normal), (1.0, 0.0)))
     cut = section.cut
     y, sn, st = np.asarray(cut.positions), np.asarray(cut.normal_stress), np.asarray(cut.shear_stress)
     fig = _figure(height=4.2)
@@ -644,11 +648,11 @@ def cut_figure(result: CheckResult, section: Any) -> Figure:
     low, high = float(values.min()), float(values.max())
     pad = 0.18 * max(high - low, 1e-9)
     ax.set_ylim(low - pad, high + pad)
-    unit_axis(ax.xaxis, "length", units, "position across the section, y" if view.across_x
+    unit_axis(ax.xaxis, "length", units, "position across the section, y" if across_x
               else "position along the cut")
     unit_axis(ax.yaxis, "stress", units, "traction on the cut")
-    where = view.where(units)
-    ax.set_title(view.label if view.label == where else f"{view.label}, {where}", fontsize=10, loc="left")
+    where = cut_where(section.point, section.normal, units)
+    ax.set_title(name if name == where else f"{name}, {where}", fontsize=10, loc="left")
     ax.grid(True, color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)
     fig.legend(loc="outside lower center", ncols=3, fontsize=8, frameon=False)
@@ -657,7 +661,7 @@ def cut_figure(result: CheckResult, section: Any) -> Figure:
 
 # --- convergence ------------------------------------------------------------------------------------
 
-def level_sizes(result: CheckResult) -> tuple[np.ndarray, str | None]:
+def level_sizes(result: CheckResult) -> tuple[np.ndarray, RaiserId | None]:
     """(element size at the peak's raiser edge for every level in mm, scaled from the finest mesh, and that
     raiser's name); or (the relative size, finest = 1, and None) when the finest mesh does not name it."""
     scales = np.array([lv.scale for lv in result.study.levels])
@@ -764,17 +768,16 @@ def handbook_figure(result: CheckResult) -> Figure | None:
 
 # --- design and fatigue (present when the part file asks for them) ------------------------------------
 
-def design_figure(design: Any, units: str = DEFAULT_SYSTEM) -> Figure | None:
+def design_figure(design: DesignCheck | None, units: str = DEFAULT_SYSTEM) -> Figure | None:
     """Every stress of the design check (the hand check, a pin's bearing, the peak by both criteria) as a bar
-    against its own allowable (a dashed mark on its row), with margins, in the unit system `units` (the record
-    is in MPa). None when the design record has no checks."""
-    checks = getattr(design, "checks", None)
-    if not checks:
+    against its own allowable (a dashed mark on its row), with margins, in the unit system `units` (the check
+    is in MPa). None without a design check."""
+    if design is None:
         return None
+    checks = design.checks
     names = {"net-section": "hand check", "remote-stress": "hand check", "bearing": "pin bearing",
              "peak-von-mises": "peak, von Mises", "peak-principal": "peak, max principal"}
-    governing = getattr(design, "governing_check", "")
-    governs = getattr(design, "peak", None) if governing == "peak" else getattr(design, "hand", None)
+    governs = design.peak if design.governing_check == "peak" else design.hand
     fig = _figure(height=1.2 + 0.55 * len(checks))
     ax = fig.add_subplot()
     rows = np.arange(len(checks))[::-1]
@@ -790,13 +793,12 @@ def design_figure(design: Any, units: str = DEFAULT_SYSTEM) -> Figure | None:
                     va="center",
                     ha="left", fontsize=9, color=INK, zorder=4,
                     bbox=dict(boxstyle="round,pad=0.2", facecolor="white", edgecolor="none", alpha=0.9))
-    yield_mpa = getattr(design, "yield_mpa", None)
-    if isinstance(yield_mpa, (int, float)):
-        ax.axvline(yield_mpa, color=GROSS_LINE, lw=1.0, ls=":")
-        ax.text(yield_mpa, -0.62, f" yield {quantity_text(yield_mpa, 'stress', units, '.0f')}", ha="left",
-                va="center", fontsize=8, color=GROSS_LINE)
+    yield_mpa = design.yield_mpa
+    ax.axvline(yield_mpa, color=GROSS_LINE, lw=1.0, ls=":")
+    ax.text(yield_mpa, -0.62, f" yield {quantity_text(yield_mpa, 'stress', units, '.0f')}", ha="left",
+            va="center", fontsize=8, color=GROSS_LINE)
     ax.set_yticks(rows, [names.get(c.key, c.key) + (" (governs)" if c is governs else "") for c in checks])
-    top = max([c.actual_mpa for c in checks] + [c.allowable_mpa for c in checks] + [yield_mpa or 0.0])
+    top = max([c.actual_mpa for c in checks] + [c.allowable_mpa for c in checks] + [yield_mpa])
     ax.set_xlim(0, 1.75 * top)
     ax.set_ylim(-0.9, len(checks) - 0.4)
     ax.set_title("dashed: each check's allowable", fontsize=8, loc="left", color=GROSS_LINE)
@@ -806,15 +808,14 @@ def design_figure(design: Any, units: str = DEFAULT_SYSTEM) -> Figure | None:
     return fig
 
 
-def fatigue_figure(fatigue: Any, units: str = DEFAULT_SYSTEM) -> Figure | None:
+def fatigue_figure(fatigue: FatigueScreen | None, units: str = DEFAULT_SYSTEM) -> Figure | None:
     """Modified Goodman diagram: the fatigue strength line from Se to Su, the same line divided by the
-    required factor, and the notched (Kf-scaled) working point, in the unit system `units` (the record is
-    in MPa). None when numbers are missing."""
-    names = ("se_mpa", "ultimate_mpa", "sa_mpa", "sm_mpa")
-    if fatigue is None or not all(isinstance(getattr(fatigue, n, None), (int, float)) for n in names):
+    required factor, and the notched (Kf-scaled) working point, in the unit system `units` (the screen is
+    in MPa). None without a fatigue screen."""
+    if fatigue is None:
         return None
     se, su, sa, sm = fatigue.se_mpa, fatigue.ultimate_mpa, fatigue.sa_mpa, fatigue.sm_mpa
-    need = float(getattr(fatigue, "required_factor", 1.0) or 1.0)
+    need = fatigue.required_factor
     fig = _figure(height=4.0, width=6.4)
     ax = fig.add_subplot()
     ax.plot([0, su], [se, 0], color=INK, lw=1.6,
@@ -822,15 +823,12 @@ def fatigue_figure(fatigue: Any, units: str = DEFAULT_SYSTEM) -> Figure | None:
                   f"Su {quantity_text(su, 'stress', units, '.0f')})")
     if need != 1.0:
         ax.plot([0, su / need], [se / need, 0], color=INK, lw=1.0, ls="--", label=f"line / required factor {need:g}")
-    passes = getattr(fatigue, "passes", None)
-    colour = PASS_FILL if passes else FAIL_FILL if passes is not None else FE_LINE
-    ax.plot([sm], [sa], "o", ms=9, color=colour, label="notched working point (Kf × nominal)")
-    n_f = getattr(fatigue, "n_f", None)
+    passes = fatigue.passes
+    ax.plot([sm], [sa], "o", ms=9, color=PASS_FILL if passes else FAIL_FILL, label="notched working point (Kf × nominal)")
     text = f"σa {shown(sa, 'stress', units)}, σm {quantity_text(sm, 'stress', units)}"
-    if isinstance(n_f, (int, float)) and math.isfinite(n_f):
-        text += f"\nfactor of safety {n_f:.2f}"
-    if passes is not None:
-        text += ", passes" if passes else ", FAILS"
+    if math.isfinite(fatigue.n_f):
+        text += f"\nfactor of safety {fatigue.n_f:.2f}"
+    text += ", passes" if passes else ", FAILS"
     ax.annotate(text, xy=(sm, sa), xytext=(10, 10), textcoords="offset points", fontsize=9, zorder=4,
                 bbox=dict(boxstyle="round,pad=0.25", facecolor="white", edgecolor="none", alpha=0.9))
     ax.set_xlim(min(0.0, sm) - 0.02 * su, 1.05 * max(su, sm))

@@ -7,6 +7,7 @@ from typing import Any
 
 from .. import __version__
 from ..compare.check import CheckResult
+from ..geometry.registry import kind_of, named, outline_of, raiser_label
 from .loads_record import (kt_basis, load_record, net_section_statics, nominal_records, peak_component,
                            pin_contact_record, section_record, stresses_record, support_record)
 from .signoff_record import design_record, fatigue_record, material_record
@@ -29,8 +30,8 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             "width": spec.plate.width,
             "thickness": spec.plate.thickness,
             "condition": spec.plate.condition,
-            "holes": [{"center": list(h.center), "diameter": h.diameter} for h in spec.holes],
             **_raisers(spec),
+            **outline_of(spec).record(spec),
             "material": material_record(spec.material),
             "load": load_record(spec),
             "support": support_record(spec),
@@ -39,7 +40,7 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             "stress": result.peak.stress,
             "fe_stress": result.peak.fe_stress,
             "location": list(result.peak.location),
-            "feature": result.peak.feature,
+            "feature": raiser_label(result.peak.feature),
             "component": peak_component(result),
         },
         "stresses": stresses_record(result),
@@ -81,7 +82,7 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             "levels": [
                 {"scale": lv.scale, "nodes": lv.nodes, "elements": lv.elements, "peak": lv.peak,
                  "location": list(lv.location), "solver": lv.solver,
-                 "raisers": {name: peak for name, (peak, _) in lv.raisers.items()}}
+                 "raisers": {str(name): peak for name, (peak, _) in lv.raisers.items()}}
                 for lv in study.levels
             ],
         },
@@ -106,27 +107,30 @@ def _match(match) -> dict[str, Any]:
         "parameters": dict(match.recognised.params),
         "source": match.case.source,
         "in_range": match.in_range,
-        "raiser": match.recognised.raiser,
+        "raiser": None if match.recognised.raiser is None else str(match.recognised.raiser),
     }
 
 
-def _raisers(spec) -> dict[str, Any]:
-    """The raisers other than holes, as given (mm, degrees); only those the part has."""
-    from dataclasses import asdict
+FIRST_LAYOUT = {"hole": "holes", "ellipse": "ellipses", "slot": "slots", "notch": "notches"}  # keys of schema/1
 
-    out: dict[str, Any] = {}
-    for key in ("ellipses", "slots", "notches"):
-        if getattr(spec, key):
-            out[key] = [asdict(item) for item in getattr(spec, key)]
-    for key in ("step", "lug"):
-        if getattr(spec, key) is not None:
-            out[key] = asdict(getattr(spec, key))
+
+def _raisers(spec) -> dict[str, Any]:
+    """Every raiser as given (mm, degrees) under `raisers`, each with its name, kind and number; and, as the
+    record's first layout had them, the holes (always) and the ellipses, slots and notches (when present)
+    under their own keys."""
+    items = named(spec)
+    out: dict[str, Any] = {"holes": []}
+    for rid, item in items:
+        if rid.kind in FIRST_LAYOUT:
+            out.setdefault(FIRST_LAYOUT[rid.kind], []).append(kind_of(item).record(item))
+    out["raisers"] = [{"name": str(rid), "kind": rid.kind, "number": rid.number, **kind_of(item).record(item)}
+                      for rid, item in items]
     return out
 
 
 def _raiser_peak(p) -> dict[str, Any]:
     """One competing raiser's own peak (see compare.check.raiser_peaks)."""
-    return {"feature": p.feature, "stress": p.stress, "error": _finite(p.error), "fe_stress": p.fe_stress,
+    return {"feature": str(p.feature), "stress": p.stress, "error": _finite(p.error), "fe_stress": p.fe_stress,
             "location": list(p.location), "kt_net": p.kt_net, "kt_gross": p.kt_gross,
             "net_section": {"x": p.section.x, "width": p.section.width, "area": p.section.area,
                             "average": p.section.average, "equilibrium_error": p.section.equilibrium_error}}

@@ -10,7 +10,7 @@ import argparse
 import math
 from typing import Any
 
-from ..geometry.errors import PartError
+from .errors import CommandLineError
 from .batch import add_execution_options, execution_from_args
 
 NAME = "regress"
@@ -37,7 +37,7 @@ def run(args: argparse.Namespace) -> int:
     from .batch import run_batch
 
     if bool(args.suite) == bool(args.builtin):
-        raise PartError("command line: give a suite file or --builtin (one of them)")
+        raise CommandLineError("command line: give a suite file or --builtin (one of them)")
     execution = execution_from_args(args)
     suite = builtin_suite() if args.builtin else load_suite(args.suite)
     out = Console(highlight=False, soft_wrap=True)

@@ -29,6 +29,12 @@ from typing import Any
 
 from .. import __version__
 from ..compare.check import CheckResult
+from ..compare.design import DesignCheck, design_statements
+from ..compare.fatigue import FatigueScreen, screen_statements
+from ..compare.method_of_sections import SectionResult
+from ..geometry.kinds.hole import named as named_hole
+from ..geometry.registry import kind_of, named, raiser_label
+from ..geometry.spec import Load
 from ..geometry.units import DEFAULT_SYSTEM, format_number
 from . import plots
 from .summary import estimate_how
@@ -36,6 +42,7 @@ from .display_units import cut_label, label, point_text, quantity_text, shown, s
 from .fields import CELL_FIELDS, POINT_FIELDS, vtu_bytes
 from .files import write_atomic, write_json
 from .record import SCHEMA, check_record
+from .signoff_summary import CHECK_HEADER, check_caption, check_rows
 from .summary import kt_rows, verdict
 
 PNG_DPI = 150
@@ -112,8 +119,8 @@ def render_figures(result: CheckResult) -> list[Rendered]:
         wanted.append((f"section_{n}", "section", f"Normal stress across {view.label} ({view.where(units)}): "
                        "the FE distribution against the flat net-section average a hand calculation uses.",
                        lambda r, v=view: plots.section_figure(r, v)))
-    for n, section in enumerate(getattr(result, "sections", ()) or (), start=1):
-        wanted.append((f"cut_{n}", "cuts", f"Tractions along the requested cut {_cut_name(section, units, n)}.",
+    for n, section in enumerate(result.sections, start=1):
+        wanted.append((f"cut_{n}", "cuts", f"Tractions along the requested cut {_cut_name(section, units)}.",
                        lambda r, c=section: plots.cut_figure(r, c)))
     wanted.append(("convergence", "convergence", "Peak stress of each mesh level against element size, and "
                    "the converged value with its error band at zero element size.", plots.convergence_figure))
@@ -266,12 +273,9 @@ def _amount(value: Any, quantity: str, units: str, digits: int = 4, resultant: b
     return text if unit else text.rsplit(" ", 1)[0]
 
 
-def _cut_name(section: Any, units: str, default: Any = "") -> str:
+def _cut_name(section: SectionResult, units: str) -> str:
     """A requested cut's label in `units` (unnamed cuts are labelled in mm by the part reader)."""
-    name, point = getattr(section, "label", None), getattr(section, "point", None)
-    if name is None:
-        return str(default)
-    return name if point is None else cut_label(name, tuple(point), units)
+    return cut_label(section.label, tuple(section.point), units)
 
 
 # --- report sections: one function each ---------------------------------------------------------------
@@ -279,18 +283,17 @@ def _cut_name(section: Any, units: str, default: Any = "") -> str:
 def _verdict_section(result: CheckResult) -> str:
     ns, peak, units = result.net_section, result.peak, result.spec.units
     design, fatigue = signoff_records(result)
-    passes = getattr(design, "passes", None)
-    cls = "verdict" + ("" if passes is None else " passes" if passes else " fails")
+    cls = "verdict" + ("" if design is None else " passes" if design.passes else " fails")
     lines = [esc(verdict(result))]
-    if passes is not None:
-        governing = getattr(design, "governing_check", "design")
-        lines.append(f"<strong>Design check ({esc(governing)} governs): {'passes' if passes else 'FAILS'}</strong>")
-    if getattr(fatigue, "passes", None) is not None:
-        yielding = " — FIRST-CYCLE YIELD at the notch" if getattr(fatigue, "first_cycle_yield", False) else ""
+    if design is not None:
+        lines.append(f"<strong>Design check ({esc(design.governing_check)} governs): "
+                     f"{'passes' if design.passes else 'FAILS'}</strong>")
+    if fatigue is not None:
+        yielding = " — FIRST-CYCLE YIELD at the notch" if fatigue.first_cycle_yield else ""
         lines.append(f"Fatigue screen: {'passes' if fatigue.passes else 'FAILS'}{yielding}")
     rows = [
         ("Peak (max principal, converged)", _amount(peak.stress, "stress", units, 5),
-         f"{peak.feature} at {point_text(peak.location, units)}; finest mesh "
+         f"{raiser_label(peak.feature)} at {point_text(peak.location, units)}; finest mesh "
          f"{quantity_text(peak.fe_stress, 'stress', units)}"),
         ("Net-section average", _amount(ns.average, "stress", units, 5),
          f"force / net area {quantity_text(ns.area, 'area', units)}, {plots.governing_view(result).where(units)}"),
@@ -307,56 +310,52 @@ def _verdict_section(result: CheckResult) -> str:
 def _part_section(result: CheckResult, figures: list[Rendered], part_text: str | None) -> str:
     spec = result.spec
     plate, material, units = spec.plate, spec.material, spec.units
-    length = label("length", units)
     rows = [
         ("Plate", f"{_amount(plate.length, 'length', units, unit=False)} × {_amount(plate.width, 'length', units)}, "
          f"thickness {_amount(plate.thickness, 'length', units)}, {plate.condition}"),
         ("Material", f"E {_amount(material.E, 'stress', units)}, ν {_num(material.nu)}, yield "
-         f"{_amount(getattr(material, 'yield_strength', None), 'stress', units)}, ultimate "
-         f"{_amount(getattr(material, 'ultimate', None), 'stress', units)}"),
+         f"{_amount(material.yield_strength, 'stress', units)}, ultimate "
+         f"{_amount(material.ultimate, 'stress', units)}"),
         ("Load", _load_text(spec.load, units)),
         ("Mesh study", f"target error {spec.mesh.tolerance:.2%}, at most {spec.mesh.max_levels} levels and "
          f"{spec.mesh.max_elements:,} triangles"),
         ("Units", f"{units}, the part file's system: every number of this report and its figures is in it"
          + ("" if units == DEFAULT_SYSTEM else f"; {FIELDS_NAME} and {RECORD_NAME} are in mm, N, MPa")),
     ]
-    holes = [(f"hole {n}", *(_amount(v, "length", units, unit=False) for v in (*h.center, h.diameter)))
-             for n, h in enumerate(getattr(spec, "holes", ()) or (), start=1)]
+    raisers = [(str(rid), kind_of(item).describe(item, units)) for rid, item in named(spec)]
     parts = [_table(rows), _figures(figures)]
-    if holes:
-        parts.append(_table(holes, header=("raiser", f"centre x ({length})", f"centre y ({length})",
-                                           f"diameter ({length})"), numeric=(1, 2, 3)))
+    if raisers:
+        parts.append(_table(raisers, header=("raiser", "as given")))
     if part_text is not None:
         parts.append("<h3>The part file as read</h3><pre>" + esc(part_text) + "</pre>")
     return _section("part", "The part and what it carries", *parts)
 
 
-def _load_text(load: Any, units: str) -> str:
+def _load_text(load: Load, units: str) -> str:
     """The load as text in `units`: the end force, moment and shear, a pin's force and direction, or the
     remote stresses, whichever the load has."""
     parts = []
-    for name, quantity in (("axial", "force"), ("bending", "moment"), ("shear", "force")):
-        value = getattr(load, name, None)
-        if isinstance(value, (int, float)) and value:
+    for name, value, quantity in (("axial", load.axial, "force"), ("bending", load.bending, "moment"),
+                                  ("shear", load.shear, "force")):
+        if value:
             parts.append(f"{name} {_amount(value, quantity, units)}"
                          + (f" ({'tension' if value > 0 else 'compression'})" if name == "axial" else ""))
-    pin = getattr(load, "pin", None)
+    pin, remote = load.pin, load.remote
     if pin is not None:
-        parts.append(f"pin in hole {pin.hole}: {_amount(pin.force, 'force', units)} at {_num(float(pin.direction))}°")
-    remote = getattr(load, "remote", None)
+        parts.append(f"pin in {named_hole(pin.hole)}: {_amount(pin.force, 'force', units)} at "
+                     f"{_num(float(pin.direction))}°")
     if remote is not None:
-        parts.append("remote stress " + ", ".join(f"{name} {_amount(getattr(remote, key, 0.0), 'stress', units)}"
-                                                  for key, name in (("sx", "σx"), ("sy", "σy"), ("txy", "τxy"))))
+        parts.append("remote stress " + ", ".join(f"{name} {_amount(value, 'stress', units)}" for value, name in
+                                                  ((remote.sx, "σx"), (remote.sy, "σy"), (remote.txy, "τxy"))))
     text = "; ".join(parts) or "none"
     if remote is None:
-        text += "; the left end is held" + (", the end loads act on the right end"
-                                             if getattr(load, "has_end_loads", False) else "")
+        text += "; the left end is held" + (", the end loads act on the right end" if load.has_end_loads else "")
     return text
 
 
 def _mesh_section(result: CheckResult, figures: list[Rendered]) -> str:
     mesh, units = result.solution.mesh, result.spec.units
-    features = [(f.name, _amount(f.radius, "length", units), _amount(f.edge_size, "length", units, 3))
+    features = [(str(f.name), _amount(f.radius, "length", units), _amount(f.edge_size, "length", units, 3))
                 for f in mesh.features]
     text = (f"The finest level has {mesh.n_nodes:,} nodes and {mesh.n_elements:,} linear triangles "
             f"({2 * mesh.n_nodes:,} degrees of freedom). Element sizes shrink towards each raiser edge.")
@@ -374,7 +373,7 @@ def _stress_section(result: CheckResult, figures: list[Rendered]) -> str:
 
     text = (f"Maximum principal stress ranges from {stress(s1.min())} to {stress(s1.max())} on the finest mesh; "
             f"the largest von Mises stress is {stress(vm.max())}. The converged peak is "
-            f"{stress(result.peak.stress)} at {result.peak.feature}.")
+            f"{stress(result.peak.stress)} at {raiser_label(result.peak.feature)}.")
     return _section("stress", "Where the stress gathers", _p(text), _figures(figures))
 
 
@@ -385,7 +384,7 @@ def _sections_section(result: CheckResult, figures: list[Rendered]) -> str:
         ns = view.section
         ligaments = ", ".join(f"{_amount(a, 'length', units, unit=False)} … {_amount(b, 'length', units, unit=False)}"
                               for a, b in ns.ligaments)
-        rows.append((view.label, view.feature, view.where(units), ligaments, _amount(ns.width, "length", units, 5),
+        rows.append((view.label, raiser_label(view.feature), view.where(units), ligaments, _amount(ns.width, "length", units, 5),
                      _amount(ns.area, "area", units, 5), _amount(ns.average, "stress", units, 5),
                      _amount(view.peak, "stress", units, 5), f"{view.kt_net:.3f}", f"{ns.equilibrium_error:+.3%}"))
     table = _table(rows, header=("section", "raiser", "where", f"ligaments ({label('length', units)} along the cut)",
@@ -399,26 +398,17 @@ def _sections_section(result: CheckResult, figures: list[Rendered]) -> str:
 
 def _cuts_section(result: CheckResult, figures: list[Rendered]) -> str:
     """The cuts the part file asked for: FE resultants against statics (method of sections)."""
-    sections = getattr(result, "sections", ()) or ()
-    if not sections:
+    if not result.sections:
         return ""
     units = result.spec.units
-    rows = []
-    for c in sections:
-        statics = getattr(c, "statics", None)
 
-        def amount(value: Any, quantity: str, digits: int = 5) -> str:
-            return _amount(value, quantity, units, digits)
+    def amount(value: float, quantity: str, digits: int = 5) -> str:
+        return _amount(value, quantity, units, digits)
 
-        rows.append((_cut_name(c, units), amount(getattr(c, "area", None), "area"),
-                     amount(getattr(c, "fe_normal_force", None), "force"),
-                     amount(getattr(statics, "normal_force", None), "force"),
-                     amount(getattr(c, "fe_shear_force", None), "force"),
-                     amount(getattr(c, "fe_moment", None), "moment"),
-                     _percent(getattr(c, "normal_error", None)), _percent(getattr(c, "shear_error", None)),
-                     _percent(getattr(c, "moment_error", None)),
-                     amount(getattr(c, "average_normal", None), "stress", 4),
-                     amount(getattr(c, "peak_normal", None), "stress", 4)))
+    rows = [(_cut_name(c, units), amount(c.area, "area"), amount(c.fe_normal_force, "force"),
+             amount(c.statics.normal_force, "force"), amount(c.fe_shear_force, "force"), amount(c.fe_moment, "moment"),
+             _percent(c.normal_error), _percent(c.shear_error), _percent(c.moment_error),
+             amount(c.average_normal, "stress", 4), amount(c.peak_normal, "stress", 4)) for c in result.sections]
     table = _table(rows, header=("cut", "area", "N (FE)", "N (statics)", "V (FE)", "M (FE)", "N error", "V error",
                                  "M error", "average N/A", "largest normal"), numeric=range(1, 11))
     text = ("Each cut integrates the FE stresses across the part (normal force N, shear force V, moment M about "
@@ -426,7 +416,7 @@ def _cuts_section(result: CheckResult, figures: list[Rendered]) -> str:
     return _section("cuts", "The cuts you asked for", _p(text), table, _figures(figures))
 
 
-def _percent(value: Any) -> str:
+def _percent(value: float | None) -> str:
     return "—" if value is None else f"{value:+.3%}"
 
 
@@ -467,26 +457,11 @@ def _handbook_section(result: CheckResult, figures: list[Rendered]) -> str:
                        "own scatter.", "small"))
 
 
-def signoff_records(result: CheckResult) -> tuple[Any, Any]:
-    """The design check and fatigue screen records of a result (None when not asked for), unwrapped from
-    their sign-off envelopes (attributes `check` and `screen`) when present."""
-    design = getattr(result, "design", None)
-    fatigue = getattr(result, "fatigue", None)
-    return getattr(design, "check", design), getattr(fatigue, "screen", fatigue)
-
-
-def _signoff_lines(record: Any, envelope: Any, kind: str, units: str) -> list[str]:
-    """Plain-language lines of a design check or fatigue screen in the part file's units, then its basis."""
-    lines: tuple[str, ...] = ()
-    try:
-        if kind == "design":
-            from ..compare.design import design_statements as statements
-        else:
-            from ..compare.fatigue import screen_statements as statements
-        lines = statements(record, units)
-    except (ImportError, TypeError, ValueError, KeyError):
-        lines = tuple(getattr(record, "statements", ()) or ())
-    return list(lines) + list(getattr(envelope, "basis", ()) or ())
+def signoff_records(result: CheckResult) -> tuple[DesignCheck | None, FatigueScreen | None]:
+    """The design check and fatigue screen of a result (None when not asked for), out of their sign-off
+    envelopes."""
+    return (None if result.design is None else result.design.check,
+            None if result.fatigue is None else result.fatigue.screen)
 
 
 def _design_section(result: CheckResult, figures: list[Rendered]) -> str:
@@ -495,15 +470,10 @@ def _design_section(result: CheckResult, figures: list[Rendered]) -> str:
     if design is None:
         return _section("design", heading, _p("No design check was requested for this part: add a [design] "
                                                "table to the part file to compare with an allowable stress."))
-    envelope = getattr(result, "design", None)
-    lines = _signoff_lines(design, envelope, "design", getattr(result.spec, "units", ""))
-    checks = ""
-    if getattr(design, "checks", None) is not None and envelope is not None:
-        from .signoff_summary import CHECK_HEADER, check_caption, check_rows
-
-        units = result.spec.units
-        checks = (_table(check_rows(envelope, units), header=CHECK_HEADER, numeric=range(1, 7))
-                  + _p(check_caption(units), "small"))
+    units = result.spec.units
+    lines = list(design_statements(design, units)) + list(result.design.basis)
+    checks = (_table(check_rows(result.design, units), header=CHECK_HEADER, numeric=range(1, 7))
+              + _p(check_caption(units), "small"))
     return _section("design", heading, checks, _list(lines), _figures(figures),
                     _p(f"All the numbers of the check (in {result.spec.units}):", "small"),
                     _record_table(design, result.spec.units))
@@ -513,10 +483,9 @@ def _fatigue_section(result: CheckResult, figures: list[Rendered]) -> str:
     _, fatigue = signoff_records(result)
     if fatigue is None:
         return ""
-    envelope = getattr(result, "fatigue", None)
-    lines = _signoff_lines(fatigue, envelope, "fatigue", getattr(result.spec, "units", ""))
-    feature = getattr(envelope, "feature", None)
-    head = [f"Notch root radius taken from {feature}."] if feature else []
+    lines = list(screen_statements(fatigue, result.spec.units)) + list(result.fatigue.basis)
+    feature = result.fatigue.feature
+    head = [f"Notch root radius taken from {feature}."] if feature is not None else []
     return _section("fatigue", "Fatigue screen", _list(head + lines), _figures(figures),
                     _p(f"All the numbers of the screen (in {result.spec.units}, lives in cycles):", "small"),
                     _record_table(fatigue, result.spec.units),

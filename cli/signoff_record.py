@@ -30,6 +30,7 @@ from typing import Any
 
 from ..compare.design import CheckLine
 from ..compare.signoff import DesignSignOff, FatigueSignOff
+from ..geometry.registry import raiser_label
 from ..geometry.spec import Material
 
 
@@ -112,7 +113,7 @@ def fatigue_record(fatigue: FatigueSignOff | None) -> dict[str, Any] | None:
         },
         "notch": {"min": {"nominal": s.cycle.low.nominal_mpa, "peak": s.cycle.low.peak_mpa},
                   "max": {"nominal": s.cycle.high.nominal_mpa, "peak": s.cycle.high.peak_mpa}},
-        "feature": fatigue.feature,
+        "feature": raiser_label(fatigue.feature),
         "root_radius": s.root_radius_mm,
         "notch_sensitivity": {"q": s.q, "method": s.method},
         "kt_net": _finite(s.kt_net),

@@ -7,6 +7,7 @@ from rich.markup import escape
 from rich.table import Table
 
 from ..compare.check import CheckResult
+from ..geometry.registry import raiser_label
 from .citation import short_source
 from .display_units import label, point_text, quantity_text, shown, warning_text
 from .loads_summary import nominal_rows, pin_rows, print_sections, stress_rows
@@ -21,7 +22,7 @@ def verdict(result: CheckResult) -> str:
     nominal = result.nominal
     basis = f" on the {nominal.net.label.split(',')[0]} nominal" if nominal and result.spec.load.kind != "axial" else ""
     return (f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f}{basis} — peak {peak} "
-            f"at {result.peak.feature}, {state} in {len(result.study.levels)} mesh levels")
+            f"at {raiser_label(result.peak.feature)}, {state} in {len(result.study.levels)} mesh levels")
 
 
 def print_summary(result: CheckResult, console: Console) -> None:
@@ -50,7 +51,7 @@ def peak_rows(result: CheckResult) -> list[Row]:
     peak, units = result.peak, result.spec.units
     component = "min principal" if peak.stress < 0.0 else "max principal"
     return [(f"Peak ({component})", quantity_text(peak.stress, "stress", units),
-             f"{peak.feature} at {point_text(peak.location, units)}"),
+             f"{raiser_label(peak.feature)} at {point_text(peak.location, units)}"),
             ("  on the finest mesh", quantity_text(peak.fe_stress, "stress", units), "before extrapolation")]
 
 

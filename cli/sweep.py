@@ -33,6 +33,7 @@ from pathlib import Path
 from typing import Any
 
 from ..geometry.errors import PartError
+from .errors import CommandLineError, OutputError
 from .batch import RETRY_ON_RESUME, ROW_FIELDS, STATUS_OK, add_execution_options, execution_from_args
 
 NAME = "sweep"
@@ -112,7 +113,7 @@ def run(args: argparse.Namespace) -> int:
     folder = Path(args.out) if args.out else Path(f"{Path(args.part).stem}-sweep")
     log = folder / LOG_NAME
     if log.exists() and not args.resume:
-        raise PartError(f"--out: {log} already holds a sweep log; pass --resume to finish that sweep, "
+        raise CommandLineError(f"--out: {log} already holds a sweep log; pass --resume to finish that sweep, "
                         "or choose another --out")
     done = finished_rows(log) if args.resume else {}
     keys = {p.key for p in points}
@@ -127,7 +128,7 @@ def run(args: argparse.Namespace) -> int:
         folder.mkdir(parents=True, exist_ok=True)
         handle = open_log(log)
     except OSError as exc:
-        raise PartError(f"--out: cannot write the sweep log in {folder} ({exc.strerror or exc})") from None
+        raise OutputError(f"--out: cannot write the sweep log in {folder} ({exc.strerror or exc})") from None
     with handle:
         run_batch(jobs, execution, lambda key, row: append_row(handle, key, inputs[key], row),
                   f"sweep of {len(points)} cases")
@@ -158,7 +159,7 @@ def parse_vary(text: str, base: dict[str, Any]) -> Vary:
 
     name, sep, spec = text.partition("=")
     if not sep or not name.strip() or not spec.strip():
-        raise PartError(f"--vary {text}: write KEY=START:STOP:COUNT or KEY=V1,V2,..., e.g. hole.1.diameter=10:60:6")
+        raise CommandLineError(f"--vary {text}: write KEY=START:STOP:COUNT or KEY=V1,V2,..., e.g. hole.1.diameter=10:60:6")
     try:
         paths = [resolve_key(base, each) for each in expand_key(base, name.strip())]
         values = parse_values(spec.strip())
@@ -231,9 +232,9 @@ def sweep_points(base: dict[str, Any], varies: list[Vary]) -> list[Point]:
 
     names = [v.key.text for v in varies]
     if len(set(names)) != len(names):
-        raise PartError("--vary: a key is given twice; give each key once with all its values")
+        raise CommandLineError("--vary: a key is given twice; give each key once with all its values")
     if math.prod(len(v.values) for v in varies) > MAX_POINTS:
-        raise PartError(f"--vary: the grid has more than {MAX_POINTS} points; split the sweep")
+        raise CommandLineError(f"--vary: the grid has more than {MAX_POINTS} points; split the sweep")
     title = base.get("title", "untitled part")
     points = []
     for combo in itertools.product(*(v.values for v in varies)):

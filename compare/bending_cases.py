@@ -20,7 +20,7 @@ from collections.abc import Callable
 from dataclasses import replace
 
 from ..geometry.spec import Load, PartSpec
-from .case_types import Case, Recognised, Coefficients, two_range_cubic
+from .case_types import Case, Coefficients, Recognised, Recogniser, recogniser, two_range_cubic
 
 
 _U_NOTCHES_BENDING_LOW: Coefficients = ((1.024, 2.092, -0.051), (-0.63, -7.194, 1.288), (2.117, 8.574, -2.16), (-1.42, -3.494, 0.932))
@@ -80,6 +80,7 @@ def _as_tension(spec: PartSpec) -> PartSpec:
     return replace(spec, load=Load(axial=1.0))
 
 
+@recogniser(notch=(1, 2))
 def recognise_notches_bending(spec: PartSpec) -> Recognised | None:
     """Two equal opposite U (or semicircular) notches, as in tension, under pure bending."""
     from .raiser_cases import recognise_opposite_u_notches
@@ -92,6 +93,7 @@ def recognise_notches_bending(spec: PartSpec) -> Recognised | None:
                       dict(found.params), 1.0 / (1.0 - x) ** 2)
 
 
+@recogniser(step=1, fillet=2)
 def recognise_step_bending(spec: PartSpec) -> Recognised | None:
     """A symmetric shoulder step with fillets, as in tension, under pure bending."""
     from .raiser_cases import recognise_stepped_bar
@@ -127,8 +129,7 @@ def build_step_bending(params: dict[str, float], narrow: float = 50.0) -> dict:
             "material": {"E": 210000.0, "nu": 0.3}, "load": {"bending": 100.0 * 10.0 * narrow * narrow / 6.0}}
 
 
-BENDING_RECOGNISERS: tuple[Callable[[PartSpec], Recognised | None], ...] = (recognise_notches_bending,
-                                                                           recognise_step_bending)
+BENDING_RECOGNISERS: tuple[Recogniser, ...] = (recognise_notches_bending, recognise_step_bending)
 BENDING_BUILDERS: dict[str, Callable[[dict[str, float]], dict]] = {
     "opposite-u-notches-bending": build_notches_bending,
     "stepped-bar-fillets-bending": build_step_bending,

@@ -13,6 +13,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from ..geometry.kinds.base import RaiserId
 from .check import CheckResult
 from .handbook import Match
 
@@ -21,15 +22,15 @@ from .handbook import Match
 class CaseKt:
     """The FE Kt (dimensionless) of the raiser a handbook case describes.
 
-    raiser: that raiser's name ("hole 4"), or the governing peak's feature when the case describes the
-    part's peak (or no case covers the part). governing: True in that second event, when kt_net, kt_gross,
+    raiser: that raiser's name (hole 4), or the governing peak's raiser when the case describes the part's
+    peak (or no case covers the part; None when that peak is at no raiser). governing: True in that second event, when kt_net, kt_gross,
     error and converged are the part's own. kt_net / kt_gross: converged peak of that raiser over the
     net / gross nominal stress of the net section through it; error: the relative error band of its peak
     (infinite when fewer than three levels gave it); converged: the study converged and that band is within
     the part's mesh.tolerance. kt_net and kt_gross are None when the check found no peak on that raiser.
     """
 
-    raiser: str
+    raiser: RaiserId | None
     governing: bool
     kt_net: float | None
     kt_gross: float | None

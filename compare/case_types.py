@@ -1,12 +1,17 @@
-"""The data of the handbook library: a published case, a part recognised as a case's family, and a case
-applied to a part. Kept apart from compare/handbook.py so that the modules holding the cases of each
-family (raiser_cases.py, bending_cases.py) can import them in any order."""
+"""The data of the handbook library: a published case, the rule that recognises a part as a case's
+family, a part so recognised, and a case applied to a part. Kept apart from compare/handbook.py so that
+the modules holding the cases of each family (raiser_cases.py, bending_cases.py) can import them in any
+order."""
 
 from __future__ import annotations
 
 import math
 from collections.abc import Callable
 from dataclasses import dataclass
+
+from ..geometry.kinds.base import RaiserId
+from ..geometry.registry import part_features
+from ..geometry.spec import PartSpec
 
 
 @dataclass(frozen=True)
@@ -42,7 +47,37 @@ class Recognised:
     description: str
     params: dict[str, float]
     gross_over_net: float
-    raiser: str | None = None  # the raiser whose own peak the case describes (None: the part's peak)
+    raiser: RaiserId | None = None  # the raiser whose own peak the case describes (None: the part's peak)
+
+
+@dataclass(frozen=True)
+class Recogniser:
+    """The rule that recognises a part as one handbook family.
+
+    describes: every kind of raiser and outline feature the family's parts have (geometry.registry
+        part_features: "hole", "notch", "fillet", "step", "lug", ...) with the count allowed, (low, high).
+    rule: decides the rest (positions, proportions, the load) for a part that has exactly those kinds.
+    A part with any raiser or outline feature the family does not describe, or another count, is never
+    that family: the rule is not asked.
+    """
+
+    describes: dict[str, tuple[int, int]]
+    rule: Callable[[PartSpec], Recognised | None]
+
+    def __call__(self, spec: PartSpec) -> Recognised | None:
+        counts = part_features(spec)
+        if set(counts) != set(self.describes):
+            return None
+        if any(not low <= counts[kind] <= high for kind, (low, high) in self.describes.items()):
+            return None
+        return self.rule(spec)
+
+
+def recogniser(**describes: int | tuple[int, int]) -> Callable[[Callable[[PartSpec], Recognised | None]], Recogniser]:
+    """Make a rule a Recogniser of parts with exactly these kinds: `hole=1` (one hole), `notch=(1, 2)` (one
+    or two notches), nothing else."""
+    ranges = {kind: count if isinstance(count, tuple) else (count, count) for kind, count in describes.items()}
+    return lambda rule: Recogniser(ranges, rule)
 
 
 @dataclass(frozen=True)

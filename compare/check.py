@@ -9,7 +9,9 @@ import numpy as np
 
 from ..fem.analysis import Solution
 from ..fem.convergence import MIN_LEVELS, Level, Study, converge, richardson
-from ..geometry.outline import nearest_raiser, plate_polygon, raiser_sections
+from ..geometry.kinds.base import NetCut, RaiserId, across
+from ..geometry.outline import nearest_raiser, plate_polygon
+from ..geometry.registry import cuts, outline_size
 from ..geometry.spec import PartSpec, SectionSpec
 from .guards import result_warnings
 from .handbook import Match, handbook_matches
@@ -41,12 +43,12 @@ CAUTIONS = (
 class Peak:
     """The governing principal stress: the largest maximum principal stress, or the minimum principal
     stress (negative) when the compressive peak is larger in magnitude; converged estimate and
-    finest-mesh value (MPa), where it is (mm) and which raiser it belongs to."""
+    finest-mesh value (MPa), where it is (mm) and which raiser it belongs to (None: at no raiser)."""
 
     stress: float
     fe_stress: float
     location: tuple[float, float]
-    feature: str
+    feature: RaiserId | None
 
 
 @dataclass(frozen=True)
@@ -87,7 +89,7 @@ class RaiserPeak:
     levels (MPa) with its relative error band, the finest-mesh value, where it is (mm), the net section
     through that raiser and Kt on that section's net and gross nominal stresses."""
 
-    feature: str
+    feature: RaiserId
     stress: float
     error: float
     fe_stress: float
@@ -123,9 +125,9 @@ def check_part(spec: PartSpec, report: Callable[[Level], None] | None = None) ->
     mesh = solution.mesh
     node = solution.peak_node()
     location = (float(mesh.nodes[node, 0]), float(mesh.nodes[node, 1]))
-    feature, x_section = _owning_raiser(spec, location)
+    feature, cut = _owning_raiser(spec, location)
     peak = Peak(study.estimate.value, solution.peak_stress(), location, feature)
-    section = net_section(spec, solution, x_section)
+    section = net_section(spec, solution, cut)
     nominal = nominal_stresses(spec, peak.stress, section.result, _gross_width(spec, section))
     gross = nominal.gross.stress
     kt = KtResult(_kt(peak.stress, nominal.net.stress), _kt(peak.stress, gross), study.estimate.error, study.converged)
@@ -138,11 +140,11 @@ def check_part(spec: PartSpec, report: Callable[[Level], None] | None = None) ->
                                     peaks=raiser_peaks(spec, study, solution, matches)))
 
 
-def net_section(spec: PartSpec, solution: Solution, x: float) -> NetSection:
-    """The critical net section (across the part at x, or through a pin's hole across the pin's line):
-    exact ligaments, the average normal stress statics requires (N / A), and the FE equilibrium error
+def net_section(spec: PartSpec, solution: Solution, cut: NetCut) -> NetSection:
+    """The critical net section (a raiser's cut, or through a pin's hole across the pin's line): exact
+    ligaments, the average normal stress statics requires (N / A), and the FE equilibrium error
     (compare.method_of_sections: relative to the section's largest force scale)."""
-    point, normal = critical_cut(spec, x)
+    point, normal = critical_cut(spec, cut)
     result = section_result(spec, solution, SectionSpec(point, normal, "critical net section"))
     width = sum(b - a for a, b in result.ligaments)
     error = result.normal_error if result.normal_error is not None else 0.0
@@ -188,20 +190,19 @@ def _section_warnings(cuts: tuple[SectionResult, ...]) -> list[Notice]:
             if c.worst_error is not None and c.worst_error > EQUILIBRIUM_WARNING]
 
 
-def _owning_raiser(spec: PartSpec, location: tuple[float, float]) -> tuple[str, float]:
+def _owning_raiser(spec: PartSpec, location: tuple[float, float]) -> tuple[RaiserId | None, NetCut]:
     """The raiser whose edge the peak lies on (the nearest edge within ON_RAISER of the width), else the
-    raiser whose section zone holds the peak (nearest section first), else the peak's own x. Returns the
-    raiser's name and the x of its net section."""
-    x, y = location
-    sections = {name: x_section for name, x_section, _ in raiser_sections(spec)}
-    near = nearest_raiser(spec, location, ON_RAISER * spec.plate.width)
+    raiser whose section zone holds the peak (nearest section first), else none. Returns the raiser's name
+    (None for none) and the cut of its net section (for none, the cut across the load through the peak)."""
+    sections = cuts(spec)
+    near = nearest_raiser(spec, location, ON_RAISER * outline_size(spec)[1])
     if near is not None:
         return near, sections[near]
-    best = ("plate", x, np.inf)
-    for name, x_section, reach in raiser_sections(spec):
-        gap = abs(x - x_section)
-        if gap <= reach and gap < best[2]:
-            best = (name, x_section, gap)
+    best: tuple[RaiserId | None, NetCut, float] = (None, across(location[0], 0.0), np.inf)
+    for name, cut in sections.items():
+        gap = abs((location[0] - cut.point[0]) * cut.normal[0] + (location[1] - cut.point[1]) * cut.normal[1])
+        if gap <= cut.reach and gap < best[2]:
+            best = (name, cut, gap)
     return best[0], best[1]
 
 
@@ -222,10 +223,10 @@ def raiser_peaks(spec: PartSpec, study: Study, solution: Solution,
     top = max(value.values())
     chosen = sorted((n for n in value if value[n] >= COMPETING * top), key=lambda n: -value[n])[:TOP_PEAKS]
     chosen += [m.recognised.raiser for m in matches if m.recognised.raiser in value and m.recognised.raiser not in chosen]
-    sections = {name: x for name, x, _ in raiser_sections(spec)}
+    sections = cuts(spec)
     out = []
     for name in chosen:
-        section = net_section(spec, solution, sections.get(name, finest[name][1][0]))
+        section = net_section(spec, solution, sections.get(name, across(finest[name][1][0], 0.0)))
         nominal = nominal_stresses(spec, value[name], section.result, _gross_width(spec, section))
         error = estimates[name].error if estimates[name] is not None else float("inf")
         out.append(RaiserPeak(name, value[name], error, finest[name][0], finest[name][1], section,

@@ -12,7 +12,7 @@ from collections.abc import Callable
 import numpy as np
 
 from ..geometry.spec import PartSpec
-from .case_types import Case, Match, Recognised  # the library's data (re-exported here)
+from .case_types import Case, Match, Recognised, Recogniser, recogniser  # the library's data (re-exported here)
 
 CENTRED_TOLERANCE = 0.01  # hole centre within 1 % of the width from the centre line
 END_CLEARANCE = 1.0  # hole centre at least one plate width from either end (Saint-Venant; common practice)
@@ -74,9 +74,10 @@ CASES: tuple[Case, ...] = (
 )
 
 
+@recogniser(hole=1)
 def recognise_central_hole(spec: PartSpec) -> Recognised | None:
     """One circular hole on the centre line, far enough from both ends, axial load only."""
-    if not only(spec, holes=1):
+    if not axial(spec):
         return None
     hole = spec.holes[0]
     W, L = spec.plate.width, spec.plate.length
@@ -102,7 +103,7 @@ def build_central_hole(params: dict[str, float], width: float = 100.0) -> dict:
 
 
 # the cases of the other raisers (ellipses, notches, steps, rows of holes) live in compare/raiser_cases.py
-from .raiser_cases import RAISER_BUILDERS, RAISER_CASES, RAISER_RECOGNISERS, only  # noqa: E402
+from .raiser_cases import RAISER_BUILDERS, RAISER_CASES, RAISER_RECOGNISERS, axial  # noqa: E402
 
 CASES = CASES + RAISER_CASES
 
@@ -116,8 +117,7 @@ from .pin_cases import PIN_CASES, PIN_RECOGNISERS  # noqa: E402
 
 CASES = CASES + PIN_CASES
 
-RECOGNISERS: tuple[Callable[[PartSpec], Recognised | None], ...] = ((recognise_central_hole,) + RAISER_RECOGNISERS
-                                                                   + BENDING_RECOGNISERS + PIN_RECOGNISERS)
+RECOGNISERS: tuple[Recogniser, ...] = (recognise_central_hole,) + RAISER_RECOGNISERS + BENDING_RECOGNISERS + PIN_RECOGNISERS
 
 # family -> function building a part-file dictionary that the family's recogniser accepts
 BUILDERS: dict[str, Callable[[dict[str, float]], dict]] = {"central-hole-tension": build_central_hole,
@@ -152,4 +152,4 @@ def evaluate(key: str, params: dict[str, float]) -> float:
     raise KeyError(key)
 
 
-__all__ = ["Case", "Match", "Recognised", "CASES", "handbook_matches", "case_table", "evaluate"]
+__all__ = ["Case", "Match", "Recognised", "Recogniser", "CASES", "handbook_matches", "case_table", "evaluate"]

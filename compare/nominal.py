@@ -26,6 +26,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..fem.fastener_groups import bearing_stress
+from ..geometry.kinds.base import NetCut
+from ..geometry.registry import outline_size
 from ..geometry.spec import PartSpec
 from .method_of_sections import SectionResult
 
@@ -132,11 +134,13 @@ def _extreme_fibre(N: float, M: float, p: SectionProperties) -> float:
     return max(values, key=abs)
 
 
-def critical_cut(spec: PartSpec, x_section: float) -> tuple[tuple[float, float], tuple[float, float]]:
+def critical_cut(spec: PartSpec, cut: NetCut) -> tuple[tuple[float, float], tuple[float, float]]:
     """(point, unit normal) of the critical section: through a pin's hole centre across the pin's line,
-    otherwise across the part at x_section (kept just inside the ends)."""
+    otherwise the raiser's `cut` (a cut across the load kept just inside the ends)."""
     if spec.load.pin is not None:
         pin = spec.load.pin
         return spec.holes[pin.hole - 1].center, (math.cos(pin.angle), math.sin(pin.angle))
-    half = 0.5 * spec.plate.length * (1.0 - 1e-3)
-    return (min(max(x_section, -half), half), 0.0), (1.0, 0.0)
+    if cut.normal != (1.0, 0.0):
+        return cut.point, cut.normal
+    half = 0.5 * outline_size(spec)[0] * (1.0 - 1e-3)
+    return (min(max(cut.point[0], -half), half), cut.point[1]), cut.normal

@@ -33,10 +33,10 @@ range.
 from __future__ import annotations
 
 import math
-from collections.abc import Callable
 
 from ..geometry.spec import PartSpec
-from .case_types import Case, Recognised
+from ..geometry.kinds.hole import named as named_hole
+from .case_types import Case, Recognised, Recogniser, recogniser
 
 POSITION_TOLERANCE = 0.01  # hole centre within 1 % of the width of the centre line
 FAR_END = 2.0  # held end at least this many widths from the hole (Saint-Venant; common practice)
@@ -70,12 +70,12 @@ PIN_CASES: tuple[Case, ...] = (
 )
 
 
+@recogniser(hole=1)
 def recognise_square_lug(spec: PartSpec) -> Recognised | None:
-    """One hole on the centre line of a square-ended plate, pulled towards the free end by a pin through
-    it, the end distance at least one width and the held end at least FAR_END widths away."""
+    """One hole on the centre line of a square-ended plate (nothing else), pulled towards the free end by a
+    pin through it, the end distance at least one width and the held end at least FAR_END widths away."""
     load = spec.load
-    if (load.kind != "pin" or len(spec.holes) != 1 or spec.ellipses or spec.slots or spec.notches
-            or spec.step is not None or spec.lug is not None or load.pin.hole != 1):
+    if load.kind != "pin" or load.pin.hole != 1:
         return None
     pin, hole = load.pin, spec.holes[0]
     H, half_l = spec.plate.width, 0.5 * spec.plate.length
@@ -93,7 +93,7 @@ def recognise_square_lug(spec: PartSpec) -> Recognised | None:
     # the case describes the tensile peak at the hole's sides: naming the hole compares that hole's own
     # (maximum principal) peak when the bearing pressure's compressive peak governs the part (compare/case_kt.py)
     return Recognised("pin-loaded-square-lug", f"pin-loaded square-ended lug, c/H = {end_distance / H:.3g}; FE pin "
-                      f"model: {model}", {"d/H": x}, 1.0 / (1.0 - x), raiser="hole 1")
+                      f"model: {model}", {"d/H": x}, 1.0 / (1.0 - x), raiser=named_hole(1))
 
 
 def build_square_lug(params: dict[str, float], width: float = 40.0) -> dict:
@@ -108,6 +108,6 @@ def build_square_lug(params: dict[str, float], width: float = 40.0) -> dict:
             "load": {"pin": {"hole": 1, "force": 10000.0, "direction": 0.0, "contact": "rigid"}}}
 
 
-PIN_RECOGNISERS: tuple[Callable[[PartSpec], Recognised | None], ...] = (recognise_square_lug,)
+PIN_RECOGNISERS: tuple[Recogniser, ...] = (recognise_square_lug,)
 # build_square_lug is deliberately NOT a registered builder (compare.handbook.BUILDERS): the built-in suite
 # would judge the FE against a recalled fit it misses by 7-22 %, which is no check. The tests use it.

@@ -3,8 +3,9 @@ each case and part builders for sweeps and regression suites.
 
 Every case states its formula, source, nominal stress and validity range. Where the formula or its range
 was recalled rather than read from a copy it says "(from memory)". A part matches a case only when it IS
-that case: the right raisers and nothing else, centred and symmetric within POSITION_TOLERANCE of the
-width, at least END_CLEARANCE widths from either end (Saint-Venant; common practice), under axial load.
+that case: the right raisers and nothing else (each recogniser declares the kinds it describes,
+compare/case_types.py), centred and symmetric within POSITION_TOLERANCE of the width, at least
+END_CLEARANCE widths from either end (Saint-Venant; common practice), under axial load.
 """
 
 from __future__ import annotations
@@ -12,9 +13,11 @@ from __future__ import annotations
 import math
 from collections.abc import Callable
 
-from ..geometry.shapes import ellipse_shape, step_shape
+from ..geometry.kinds import ellipse, hole, notch
+from ..geometry.kinds.stepped import step_shape
+from ..geometry.registry import of_kind
 from ..geometry.spec import PartSpec
-from .case_types import Case, Recognised, Coefficients, two_range_cubic
+from .case_types import Case, Coefficients, Recognised, Recogniser, recogniser, two_range_cubic
 
 POSITION_TOLERANCE = 0.01  # centres within 1 % of the width of where the case puts them
 END_CLEARANCE = 1.0  # raiser at least one plate width from either end (common practice)
@@ -23,18 +26,9 @@ SHALLOW_EDGE_NOTCH = 0.02  # "semi-infinite plate": notch depth at most this fra
 ROW_MIN_HOLES = 7  # a row of at least this many equal holes stands for an infinite row (measured: with 5 the
                    # middle hole sits 1-3 % above the infinite row, with 7 within 1 %)
 
-RAISER_FIELDS = ("holes", "ellipses", "slots", "notches")
-
-
-def only(spec: PartSpec, **counts: int) -> bool:
-    """True when the part has exactly the given numbers of raisers of each kind (others zero), no step
-    and no lug unless counted (step=1, lug=1), and an axial load only."""
-    for name in RAISER_FIELDS:
-        if len(getattr(spec, name)) != counts.get(name, 0):
-            return False
-    if (spec.step is not None) != bool(counts.get("step", 0)) or (spec.lug is not None) != bool(counts.get("lug", 0)):
-        return False
-    return getattr(spec.load, "kind", "axial") == "axial"
+def axial(spec: PartSpec) -> bool:
+    """An axial end load only (the load of the tension cases)."""
+    return spec.load.kind == "axial"
 
 
 def _clear_of_ends(spec: PartSpec, x0: float, x1: float) -> bool:
@@ -71,13 +65,14 @@ def inglis_kt(a_over_b: float, angle_deg: float) -> float:
     return best
 
 
+@recogniser(ellipse=1)
 def recognise_ellipse(spec: PartSpec) -> Recognised | None:
     """One elliptical hole on the centre line of a plate much wider than the hole, far from the ends."""
-    if not only(spec, ellipses=1):
+    if not axial(spec):
         return None
-    e = spec.ellipses[0]
+    e = of_kind(spec, ellipse.NAME)[0]
     W = spec.plate.width
-    shape = ellipse_shape(e)
+    shape = ellipse.shape(e)
     c, s = math.cos(shape.angle), math.sin(shape.angle)
     span_y = 2.0 * math.hypot(shape.major * s, shape.minor * c)
     span_x = 2.0 * math.hypot(shape.major * c, shape.minor * s)
@@ -130,57 +125,59 @@ def edge_u_notch_semi_infinite(p: dict[str, float]) -> float:
 
 
 def _notch_pair(spec: PartSpec):
-    """The one pair of equal opposite notches of the part (one "both" notch or a top and a bottom notch
-    at the same x), else None."""
-    if getattr(spec.load, "kind", "axial") != "axial" or spec.step is not None or spec.lug is not None:
-        return None
-    if spec.holes or spec.ellipses or spec.slots:
+    """The one pair of equal opposite notches of a part whose raisers are one or two notches (one "both"
+    notch or a top and a bottom notch at the same x) under axial load, else None."""
+    if not axial(spec):
         return None
     W = spec.plate.width
-    if len(spec.notches) == 1 and spec.notches[0].side == "both":
-        return spec.notches[0]
-    if len(spec.notches) == 2:
-        a, b = spec.notches
+    notches = of_kind(spec, notch.NAME)
+    if len(notches) == 1 and notches[0].side == "both":
+        return notches[0]
+    if len(notches) == 2:
+        a, b = notches
         if {a.side, b.side} == {"top", "bottom"} and a.shape == b.shape and _close(a.x, b.x, W) \
                 and _close(a.depth, b.depth, W) and _close(a.radius, b.radius, W) and _close(a.angle, b.angle, 100.0):
             return a
     return None
 
 
+@recogniser(notch=(1, 2))
 def recognise_opposite_u_notches(spec: PartSpec) -> Recognised | None:
     """Two equal opposite U (or semicircular) notches at the same x, far from the ends."""
-    notch = _notch_pair(spec)
-    if notch is None or notch.shape == "V" or not _clear_of_ends(spec, notch.x - notch.radius, notch.x + notch.radius):
+    pair = _notch_pair(spec)
+    if pair is None or pair.shape == "V" or not _clear_of_ends(spec, pair.x - pair.radius, pair.x + pair.radius):
         return None
-    D, h, r = spec.plate.width, notch.depth, notch.radius
+    D, h, r = spec.plate.width, pair.depth, pair.radius
     return Recognised("opposite-u-notches", "two opposite U-notches in a flat bar, axial tension",
                       {"h/r": h / r, "2h/D": 2 * h / D}, D / (D - 2 * h))
 
 
+@recogniser(notch=(1, 2))
 def recognise_opposite_semicircles(spec: PartSpec) -> Recognised | None:
     """Two equal opposite notches whose depth equals their radius."""
-    notch = _notch_pair(spec)
-    if notch is None or notch.shape == "V" or not _close(notch.depth, notch.radius, notch.radius):
+    pair = _notch_pair(spec)
+    if pair is None or pair.shape == "V" or not _close(pair.depth, pair.radius, pair.radius):
         return None
-    if not _clear_of_ends(spec, notch.x - notch.radius, notch.x + notch.radius):
+    if not _clear_of_ends(spec, pair.x - pair.radius, pair.x + pair.radius):
         return None
     D = spec.plate.width
     return Recognised("opposite-semicircular-notches", "two opposite semicircular notches in a flat bar, axial tension",
-                      {"2r/D": 2 * notch.radius / D}, D / (D - 2 * notch.radius))
+                      {"2r/D": 2 * pair.radius / D}, D / (D - 2 * pair.radius))
 
 
+@recogniser(notch=1)
 def recognise_edge_notch(spec: PartSpec) -> Recognised | None:
     """One U (or semicircular) notch on one edge, shallow against the width, far from the ends."""
-    if not only(spec, notches=1):
+    if not axial(spec):
         return None
-    notch = spec.notches[0]
+    one = of_kind(spec, notch.NAME)[0]
     W = spec.plate.width
-    if notch.side == "both" or notch.shape == "V" or notch.depth < notch.radius:
+    if one.side == "both" or one.shape == "V" or one.depth < one.radius:
         return None
-    if notch.depth > SHALLOW_EDGE_NOTCH * W or not _clear_of_ends(spec, notch.x - notch.radius, notch.x + notch.radius):
+    if one.depth > SHALLOW_EDGE_NOTCH * W or not _clear_of_ends(spec, one.x - one.radius, one.x + one.radius):
         return None
     return Recognised("edge-u-notch-semi-infinite", "single U-notch in the edge of a wide plate, axial tension",
-                      {"h/r": notch.depth / notch.radius, "h/W": notch.depth / W}, W / (W - notch.depth))
+                      {"h/r": one.depth / one.radius, "h/W": one.depth / W}, W / (W - one.depth))
 
 
 def build_opposite_u_notches(params: dict[str, float], width: float = 100.0) -> dict:
@@ -213,10 +210,11 @@ def roark_stepped_bar(p: dict[str, float]) -> float:
     return two_range_cubic(p, _STEP_LOW, _STEP_HIGH)
 
 
+@recogniser(step=1, fillet=2)
 def recognise_stepped_bar(spec: PartSpec) -> Recognised | None:
     """A symmetric shoulder step with fillets, nothing else, with the wide and narrow parts each at least
     one (own) width long (the chart assumes both are long; common practice)."""
-    if not only(spec, step=1):
+    if not axial(spec):
         return None
     shape = step_shape(spec)
     D, d, r = spec.plate.width, spec.step.width, spec.step.radius
@@ -249,12 +247,13 @@ def row_of_holes(p: dict[str, float]) -> float:
     return 3.000 - 3.095 * x + 0.309 * x * x + 0.786 * x ** 3
 
 
+@recogniser(hole=(ROW_MIN_HOLES, 10 ** 9))
 def recognise_row(spec: PartSpec) -> Recognised | None:
     """At least ROW_MIN_HOLES equal holes at one x, at an equal pitch l, the outer ones l/2 from the sides
     (the plate is a whole number of pitches wide). The case describes the holes of the middle of the row;
     the outer holes see the free sides (`raiser` names the middle hole)."""
     n = len(spec.holes)
-    if n < ROW_MIN_HOLES or not only(spec, holes=n):
+    if not axial(spec):
         return None
     W = spec.plate.width
     holes = sorted(spec.holes, key=lambda h: h.center[1])
@@ -268,7 +267,7 @@ def recognise_row(spec: PartSpec) -> Recognised | None:
     middle = spec.holes.index(holes[n // 2]) + 1
     d = holes[0].diameter
     return Recognised("row-of-holes", "row of equal holes across the load (as an infinite row)",
-                      {"d/l": d / pitch, "holes": float(n)}, pitch / (pitch - d), raiser=f"hole {middle}")
+                      {"d/l": d / pitch, "holes": float(n)}, pitch / (pitch - d), raiser=hole.named(middle))
 
 
 def build_row(params: dict[str, float], pitch: float = 20.0) -> dict:
@@ -339,7 +338,7 @@ RAISER_CASES: tuple[Case, ...] = (
          checked={"d/l": (0.2, 0.6), "holes": (ROW_MIN_HOLES, ROW_MIN_HOLES)}),
 )
 
-RAISER_RECOGNISERS: tuple[Callable[[PartSpec], Recognised | None], ...] = (
+RAISER_RECOGNISERS: tuple[Recogniser, ...] = (
     recognise_ellipse, recognise_opposite_u_notches, recognise_opposite_semicircles, recognise_edge_notch,
     recognise_stepped_bar, recognise_row,
 )

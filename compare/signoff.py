@@ -32,6 +32,7 @@ import numpy as np
 
 from ..fem.convergence import Estimate, sequence_estimate
 from ..fem.recovery import von_mises
+from ..geometry.kinds.base import RaiserId
 from ..geometry.spec import BEARING_FACTOR, DesignSpec, FatigueSpec, PartSpec
 from .design import HandStress, DesignCheck, design_check
 from .fatigue import FatigueScreen, fatigue_screen, scaled_cycle
@@ -96,7 +97,7 @@ class FatigueSignOff:
 
     min_fraction, max_fraction: the cycle's extremes as multiples of the [load].
     forces:  the cycle's (min, max) force in N when the [load] is one force (axial, or a pin), else None.
-    feature: the raiser carrying the peak, whose radius is the notch root radius ("plate" if none).
+    feature: the raiser carrying the peak, whose radius is the notch root radius (None: at no raiser).
     basis:   the assumptions and where the inputs came from.
     """
 
@@ -104,7 +105,7 @@ class FatigueSignOff:
     min_fraction: float
     max_fraction: float
     forces: tuple[float, float] | None
-    feature: str
+    feature: RaiserId | None
     basis: tuple[str, ...]
 
 
@@ -249,9 +250,9 @@ def _bearing_basis(design: DesignSpec) -> str:
             "safety on yield; the real contact pressure peaks above this average (the report's pin rows).")
 
 
-def _where(feature: str) -> str:
-    """The peak's feature in a sentence ("hole 2", or "the plate" when it is at no raiser)."""
-    return "the plate (at no raiser)" if feature == "plate" else feature
+def _where(feature: RaiserId | None) -> str:
+    """The peak's raiser in a sentence ("hole 2", or "the plate" when it is at no raiser)."""
+    return "the plate (at no raiser)" if feature is None else str(feature)
 
 
 def _root_radius(result: CheckResult, q_given: bool) -> tuple[float | None, str]:

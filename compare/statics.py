@@ -28,6 +28,7 @@ import scipy.sparse.linalg as spla
 from ..fem.analysis import Solution
 from ..fem.contact import rigid_pin
 from ..fem.loads import applied_loads, load_resultant, pin_bearing_loads
+from ..geometry.registry import outline_size
 from ..geometry.spec import PartSpec
 
 EXACT = "applied loads (exact)"
@@ -102,7 +103,7 @@ def _applied(spec: PartSpec, solution: Solution, p0: np.ndarray, n: np.ndarray, 
     for bl in applied_loads(spec):
         total += load_resultant(bl, spec.plate.thickness, lambda p: sign * ((p - p0) @ n) > 0.0, about)
     if solution.contact is not None:
-        total += _contact_resultant(solution, p0, sign * n, about, ON_CUT * max(spec.plate.length, spec.plate.width))
+        total += _contact_resultant(solution, p0, sign * n, about, ON_CUT * max(outline_size(spec)))
     return float(total[0]), float(total[1]), float(total[2])
 
 

@@ -17,6 +17,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from ..geometry.kinds.base import RaiserId
 from ..geometry.meshing import mesh_part
 from ..geometry.spec import PartSpec
 from .analysis import Solution, solve_part
@@ -43,7 +44,7 @@ class Level:
     peak: float
     location: tuple[float, float]
     seconds: dict[str, float]
-    raisers: dict[str, tuple[float, tuple[float, float]]] = field(default_factory=dict)  # fem.raiser_peaks
+    raisers: dict[RaiserId, tuple[float, tuple[float, float]]] = field(default_factory=dict)  # fem.raiser_peaks
     solver: str = ""  # the method that solved this level's system: "pardiso", "superlu" or "amg-cg" (fem.solve)
     von_mises: tuple[float, tuple[float, float]] | None = None  # von Mises peak and where (fem.equivalent_peak)
 

@@ -18,6 +18,7 @@ from __future__ import annotations
 import numpy as np
 from scipy.spatial import cKDTree
 
+from ..geometry.registry import outline_size
 from ..geometry.spec import PartSpec
 from .analysis import Solution
 from .loads import pin_pressure_at_nodes
@@ -36,7 +37,7 @@ def bearing_nodes(spec: PartSpec, solution: Solution) -> np.ndarray:
     if len(points) == 0:
         return np.zeros(mesh.n_nodes, dtype=bool)
     distance, _ = cKDTree(points).query(mesh.nodes)
-    return distance <= CONTACT_MATCH * spec.plate.width
+    return distance <= CONTACT_MATCH * outline_size(spec)[1]
 
 
 def von_mises_peak(spec: PartSpec, solution: Solution) -> tuple[float, tuple[float, float]]:

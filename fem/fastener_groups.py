@@ -63,6 +63,7 @@ import numpy as np
 import scipy.sparse as sp
 
 from ..geometry.errors import PartError
+from ..geometry.kinds.hole import named as named_hole
 from ..geometry.mesh import Mesh
 from .solve import SolveReport, SolverError, rigid_modes, solve_system
 
@@ -80,8 +81,8 @@ MOMENT_TOLERANCE = 1e-9  # relative: the moment a one-fastener group's load may 
 
 
 def hole_edge(number: int) -> Hashable:
-    """The mesh's edge-set key of the edge of hole `number` (1-based): the one place that names it."""
-    return f"hole {number}"
+    """The mesh's edge-set key of the edge of hole `number` (1-based): the hole's RaiserId."""
+    return named_hole(number)
 
 
 @dataclass(frozen=True)

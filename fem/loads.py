@@ -25,10 +25,12 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..geometry.mesh import Mesh
-from ..geometry.shapes import end_half_width, lug_end
+from ..geometry.kinds.bar import end_half_width, straight_held_end
+from ..geometry.kinds.hole import named as named_hole
+from ..geometry.mesh import EdgeName, Mesh
+from ..geometry.registry import outline_size
 from ..geometry.spec import PartSpec
-from ..geometry.symmetry import mirror_holes, modelled_box
+from ..geometry.symmetry import mirror_hole, modelled_box
 from .quadratic import quadratic_edge_forces
 
 Traction = Callable[[np.ndarray], np.ndarray]  # (k, 2) points in mm -> (k, 2) traction in MPa
@@ -71,7 +73,7 @@ class BoundaryLoad:
     """A traction on the named boundary `edge` of the full part over the exact `curves`; `what` says what
     it is, for reports."""
 
-    edge: str
+    edge: EdgeName
     curves: tuple[Segment | Arc, ...]
     traction: Traction
     what: str
@@ -109,13 +111,6 @@ def applied_loads(spec: PartSpec) -> tuple[BoundaryLoad, ...]:
     return tuple(out)
 
 
-def straight_held_end(spec: PartSpec) -> bool:
-    """True unless the held end is a lug held by its pin (geometry.shapes.lug_end), which takes any
-    transverse force at its bearing point instead."""
-    lug = lug_end(spec)
-    return lug is None or lug[0] != "held"
-
-
 def _constant(tx: float, ty: float) -> Traction:
     return lambda p: np.tile([tx, ty], (len(p), 1))
 
@@ -145,7 +140,7 @@ def _pin_loads(spec: PartSpec) -> list[BoundaryLoad]:
     pin = spec.load.pin
     loads = [_pin_pressure(spec, pin.hole, pin.force, pin.angle, "pin bearing")]
     if "x" in spec.support.symmetry:
-        mirror = mirror_holes(spec, "x")[pin.hole]
+        mirror = mirror_hole(spec, pin.hole, "x")
         loads.append(_pin_pressure(spec, mirror, pin.force, math.pi - pin.angle, "mirrored pin bearing"))
     return loads
 
@@ -159,7 +154,7 @@ def _pin_pressure(spec: PartSpec, hole_number: int, force: float, angle: float, 
         a = np.arctan2(p[:, 1] - cy, p[:, 0] - cx)
         return (p0 * np.clip(np.cos(a - angle), 0.0, None))[:, None] * np.column_stack([np.cos(a), np.sin(a)])
 
-    return BoundaryLoad(f"hole {hole_number}", (Arc((cx, cy), r, angle - 0.5 * math.pi, angle + 0.5 * math.pi),),
+    return BoundaryLoad(named_hole(hole_number), (Arc((cx, cy), r, angle - 0.5 * math.pi, angle + 0.5 * math.pi),),
                         traction, what)
 
 
@@ -183,7 +178,7 @@ def pin_pressure_at_nodes(spec: PartSpec, mesh: Mesh) -> np.ndarray:
     return pressure
 
 
-def loaded_edge_names(spec: PartSpec) -> set[str]:
+def loaded_edge_names(spec: PartSpec) -> set[EdgeName]:
     """Boundary names that carry a traction or a support (not traction-free); a pin's hole is free except
     where the pin presses, which `pin_pressure_at_nodes` describes."""
     names = {"held", "symmetry x", "symmetry y"}
@@ -274,7 +269,7 @@ def part_loads(spec: PartSpec, mesh: Mesh) -> np.ndarray:
     t = spec.plate.thickness
     f = np.zeros(2 * mesh.n_nodes)
     box = modelled_box(spec)
-    inside = _in_box(box, 1e-9 * max(spec.plate.length, spec.plate.width))
+    inside = _in_box(box, 1e-9 * max(outline_size(spec)))
     for bl in applied_loads(spec):
         if bl.edge not in mesh.edges:
             continue

@@ -4,11 +4,12 @@ from __future__ import annotations
 
 import numpy as np
 
+from ..geometry.kinds.base import RaiserId
 from .analysis import Solution
 
 
-def raiser_peaks(solution: Solution) -> dict[str, tuple[float, tuple[float, float]]]:
-    """For every raiser the mesh was graded for ("hole 2", "notch 1", "fillet at x = 40", ...): the largest
+def raiser_peaks(solution: Solution) -> dict[RaiserId, tuple[float, tuple[float, float]]]:
+    """For every raiser the mesh was graded for (hole 2, notch 1, fillet 1, ...): the largest
     maximum principal stress (MPa) over the nodes of its edge and where it is (mm). Raisers cut away by a
     symmetry plane, or with no edge in the mesh, are left out."""
     mesh = solution.mesh

@@ -14,9 +14,10 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..geometry.mesh import Mesh
+from ..geometry.kinds.base import RaiserId
+from ..geometry.mesh import EdgeName, Mesh
 from ..geometry.spec import PartSpec
-from ..geometry.symmetry import mirror_holes, symmetry_tolerance
+from ..geometry.symmetry import mirror_names, symmetry_tolerance
 
 
 @dataclass(frozen=True)
@@ -50,7 +51,7 @@ def _mirror(spec: PartSpec, f: Fields, plane: str) -> Fields:
     nodes = np.vstack([mesh.nodes, mesh.nodes[~on] * flip])
     triangles = np.vstack([mesh.triangles, image[mesh.triangles][:, [0, 2, 1]]]).astype(np.int32)
     names = _image_names(spec, mesh, plane)
-    edges: dict[str, list[np.ndarray]] = {}
+    edges: dict[EdgeName, list[np.ndarray]] = {}
     for name, e in mesh.edges.items():
         if name == f"symmetry {plane}":
             continue
@@ -84,14 +85,8 @@ def _mirror(spec: PartSpec, f: Fields, plane: str) -> Fields:
     )
 
 
-def _image_names(spec: PartSpec, mesh: Mesh, plane: str) -> dict[str, str]:
-    """Name of the mirror image of each named edge: holes map to their mirror hole, others keep theirs."""
-    holes = mirror_holes(spec, plane) or {}
-    out = {}
-    for name in mesh.edges:
-        if name.startswith("hole "):
-            number = int(name.split()[1])
-            out[name] = f"hole {holes.get(number, number)}"
-        else:
-            out[name] = name
-    return out
+def _image_names(spec: PartSpec, mesh: Mesh, plane: str) -> dict[EdgeName, EdgeName]:
+    """Name of the mirror image of each named edge: a raiser's is its mirror raiser (each kind says how it
+    mirrors: geometry.symmetry.mirror_names), an outline edge's keeps its name ("side", "held", ...)."""
+    raisers = mirror_names(spec, plane) or {}
+    return {name: raisers.get(name, name) if isinstance(name, RaiserId) else name for name in mesh.edges}

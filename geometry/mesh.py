@@ -6,13 +6,17 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from .kinds.base import RaiserId
+
+EdgeName = str | RaiserId  # an outline edge ("held", "side", "symmetry y", ...) or a raiser's edge
+
 
 @dataclass(frozen=True)
 class Feature:
-    """A stress raiser the mesh resolves: its name (e.g. "hole 2"), the smallest radius of curvature of
-    its edge (mm) and the mesh size used at that edge (mm)."""
+    """A stress raiser the mesh resolves: its name, the smallest radius of curvature of its edge (mm) and
+    the mesh size used at that edge (mm)."""
 
-    name: str
+    name: RaiserId
     radius: float
     edge_size: float
 
@@ -23,7 +27,7 @@ class Mesh:
 
     nodes: (n, 2) float64 coordinates in mm.
     triangles: (m, 3) int32 node indices, counter-clockwise.
-    edges: boundary edge sets by name ("held", "loaded", "side", "hole 1", ...), each (k, 2) int32.
+    edges: boundary edge sets by name ("held", "loaded", "side", RaiserId("hole", 1), ...), each (k, 2) int32.
     features: the raisers this mesh was graded for.
     quadratic: for a mesh of quadratic (6-node) triangles, their (m, 6) int32 nodes: corners
         counter-clockwise, then the mid-side nodes of edges 1-2, 2-3, 3-1 (on the curved boundary where
@@ -35,10 +39,10 @@ class Mesh:
 
     nodes: np.ndarray
     triangles: np.ndarray
-    edges: dict[str, np.ndarray]
+    edges: dict[EdgeName, np.ndarray]
     features: tuple[Feature, ...]
     quadratic: np.ndarray | None = None
-    quadratic_edges: dict[str, np.ndarray] | None = None
+    quadratic_edges: dict[EdgeName, np.ndarray] | None = None
 
     @property
     def order(self) -> int:
@@ -53,7 +57,7 @@ class Mesh:
     def n_elements(self) -> int:
         return int(self.triangles.shape[0])
 
-    def edge_nodes(self, name: str) -> np.ndarray:
+    def edge_nodes(self, name: EdgeName) -> np.ndarray:
         """Sorted unique node indices on the named boundary edge set."""
         return np.unique(self.edges[name])
 

@@ -22,12 +22,13 @@ import numpy as np
 from shapely.geometry import Point
 
 from .bands import Piece, add_tools, ellipse_layers, make_transfinite, raiser_pieces
-from .mesh import Feature, Mesh
+from .mesh import EdgeName, Feature, Mesh
 from .quadratic import QUADRATIC_SIZE, elevate_and_extract, sub_edges, sub_triangles
 from .mesh_guard import check_finite, check_mesh, checked_expression
 from .outline import feature_edges, plate_polygon
 from .raisers import Raiser, distance_expression, part_raisers
-from .shapes import Line, ellipse_shape, notch_shapes, outline_path, segment_points, slot_shape
+from .registry import kind_of, named, outline_of, outline_size
+from .shapes import EllipseShape, Line, Loop, full_circle, segment_points
 from .spec import PartSpec
 from .symmetry import modelled_box, on_plane
 from .validate import min_ligament
@@ -97,7 +98,7 @@ def raiser_features(spec: PartSpec, scale: float = 1.0, sizing: Sizing = Sizing(
     # gave Kt 2.71 'converged' instead of about 3).
     floor = scale * min_ligament(spec) / 4.0
     raisers = part_raisers(spec) if raisers is None else raisers
-    return tuple(Feature(name=r.name, radius=r.curvature,
+    return tuple(Feature(name=r.id, radius=r.curvature,
                          edge_size=max(scale * min(sizing.edge_fraction * r.curvature,
                                                    sizing.ligament_share * r.ligament), floor))
                  for r in raisers)
@@ -156,10 +157,11 @@ def _build(spec: PartSpec, pieces: list[Piece]) -> list[int]:
     """Create the OCC surfaces (the outline less the cut-outs, split by the bands' curves); set the band
     pieces transfinite; return the tags of the curves on the part's boundary."""
     occ = gmsh.model.occ
-    plate = _wire_surface([e.segment for e in outline_path(spec)])
-    part = occ.cut([(2, plate)], _cutouts(spec))[0] if _has_cutouts(spec) else [(2, plate)]
+    plate = _wire_surface([e.segment for e in outline_of(spec).path(spec)])
+    part = occ.cut([(2, plate)], _cutouts(spec))[0] if spec.raisers else [(2, plate)]
     outline = plate_polygon(spec).boundary
-    on_outline = ON_OUTLINE * spec.plate.width
+    length, width = outline_size(spec)
+    on_outline = ON_OUTLINE * width
 
     def skip(a, b) -> bool:  # a line across a band that lies along the outline is the outline itself
         return outline.distance(Point(0.5 * (a[0] + b[0]), 0.5 * (a[1] + b[1]))) <= on_outline
@@ -172,28 +174,29 @@ def _build(spec: PartSpec, pieces: list[Piece]) -> list[int]:
         occ.intersect(part, [(2, occ.addRectangle(x0, y0, 0.0, x1 - x0, y1 - y0))])
     occ.synchronize()
     surfaces = gmsh.model.getEntities(2)
-    found = make_transfinite(pieces, surfaces, PIECE_TOLERANCE * max(spec.plate.length, spec.plate.width))
+    found = make_transfinite(pieces, surfaces, PIECE_TOLERANCE * max(length, width))
     if len(surfaces) != 1 + found:
         raise MeshError(f"the part split into {len(surfaces) - found} pieces; features must leave it in one piece")
     return [abs(t) for _, t in gmsh.model.getBoundary(surfaces, combined=True, oriented=False)]
 
 
-def _has_cutouts(spec: PartSpec) -> bool:
-    return bool(spec.holes or spec.ellipses or spec.slots or spec.notches)
-
-
 def _cutouts(spec: PartSpec) -> list[tuple[int, int]]:
-    """OCC surfaces of every cut-out: holes, ellipses, slots and notches."""
+    """OCC surfaces of every raiser's cut-out loops."""
+    return [(2, _loop_surface(loop)) for _, item in named(spec) for loop in kind_of(item).loops(spec, item)]
+
+
+def _loop_surface(loop: Loop) -> int:
+    """A plane OCC surface bounded by a closed loop: a disk for a circle or an ellipse (one closed curve,
+    as OCC builds them), else the chain of lines and arcs."""
     occ = gmsh.model.occ
-    out = [(2, occ.addDisk(h.center[0], h.center[1], 0.0, h.radius, h.radius)) for h in spec.holes]
-    for e in spec.ellipses:
-        shape = ellipse_shape(e)
-        disk = occ.addDisk(shape.center[0], shape.center[1], 0.0, shape.major, shape.minor)
-        occ.rotate([(2, disk)], shape.center[0], shape.center[1], 0.0, 0.0, 0.0, 1.0, shape.angle)
-        out.append((2, disk))
-    out += [(2, _wire_surface(slot_shape(s).wire)) for s in spec.slots]
-    out += [(2, _wire_surface(n.wire)) for notch in spec.notches for n in notch_shapes(spec, notch)]
-    return out
+    circle = full_circle(loop)
+    if circle is not None:
+        return occ.addDisk(circle.center[0], circle.center[1], 0.0, circle.radius, circle.radius)
+    if isinstance(loop, EllipseShape):
+        disk = occ.addDisk(loop.center[0], loop.center[1], 0.0, loop.major, loop.minor)
+        occ.rotate([(2, disk)], loop.center[0], loop.center[1], 0.0, 0.0, 0.0, 1.0, loop.angle)
+        return disk
+    return _wire_surface(loop)
 
 
 def _wire_surface(segments) -> int:
@@ -218,15 +221,16 @@ def _wire_surface(segments) -> int:
     return occ.addPlaneSurface([occ.addCurveLoop(curves)])
 
 
-def _name_curves(spec: PartSpec, tags: list[int]) -> dict[str, list[int]]:
+def _name_curves(spec: PartSpec, tags: list[int]) -> dict[EdgeName, list[int]]:
     """Group boundary curves by what they lie on, tested at the curve's parametric midpoint: the held
     and loaded ends, sides, a lug's rounded end, a step's shoulder faces and fillets, a symmetry plane,
-    or the raiser whose edge it is ("hole 2", "notch 1", ...). Every name but "held" and "loaded" is a
-    traction-free edge."""
-    size = max(spec.plate.length, spec.plate.width)
-    path = outline_path(spec)
+    or the raiser whose edge it is (by its RaiserId). Every name but "held" and "loaded" is a traction-free
+    edge."""
+    length, width = outline_size(spec)
+    size = max(length, width)
+    path = outline_of(spec).path(spec)
     features = feature_edges(spec)
-    named: dict[str, list[int]] = {}
+    names: dict[EdgeName, list[int]] = {}
     for tag in tags:
         lo, hi = gmsh.model.getParametrizationBounds(1, tag)
         x, y, _ = gmsh.model.getValue(1, tag, [0.5 * (lo[0] + hi[0])])
@@ -237,11 +241,11 @@ def _name_curves(spec: PartSpec, tags: list[int]) -> dict[str, list[int]]:
             point = Point(x, y)
             gaps = {k: g.distance(point) for k, g in features.items()}
             nearest = min(gaps, key=gaps.get) if gaps else None
-            if nearest is None or gaps[nearest] > FEATURE_TOLERANCE * spec.plate.width:
+            if nearest is None or gaps[nearest] > FEATURE_TOLERANCE * width:
                 raise MeshError(f"a boundary curve through ({x:g}, {y:g}) matches no feature")
             name = nearest
-        named.setdefault(name, []).append(tag)
-    return named
+        names.setdefault(name, []).append(tag)
+    return names
 
 
 def _segment_distance(seg, p) -> float:
@@ -288,12 +292,13 @@ def far_size(spec: PartSpec, scale: float, sizing: Sizing = Sizing()) -> float:
     `scale`."""
     pin = spec.load.pin
     across = pin is not None and abs(math.sin(math.radians(pin.direction))) > 1e-9
+    width = outline_size(spec)[1]
     if spec.load.kind in ("axial", "remote") or (pin is not None and not across):
-        return sizing.far_fraction * spec.plate.width
-    return min(sizing.far_fraction, sizing.bending_far_fraction * scale) * spec.plate.width
+        return sizing.far_fraction * width
+    return min(sizing.far_fraction, sizing.bending_far_fraction * scale) * width
 
 
-def _extract(curves: dict[str, list[int]]) -> tuple[np.ndarray, np.ndarray, dict[str, np.ndarray]]:
+def _extract(curves: dict[EdgeName, list[int]]) -> tuple[np.ndarray, np.ndarray, dict[EdgeName, np.ndarray]]:
     tags, coords, _ = gmsh.model.mesh.getNodes()
     index = np.full(int(tags.max()) + 1, -1, dtype=np.int64)
     index[tags.astype(np.int64)] = np.arange(tags.size)

@@ -12,7 +12,9 @@ from dataclasses import replace
 from typing import TYPE_CHECKING, Any
 
 from .errors import PartError
-from .spec import STRESS_STATES, Hole, Load, Material, MeshControls, PartSpec, Plate
+from .readers import DEFAULT_UNITS, integer, known, number, point, positive, shown, table
+from .registry import TABLES, outline_of, read_raisers
+from .spec import STRESS_STATES, Load, Material, MeshControls, PartSpec, Plate
 from .spec import DESIGN_BEHAVIOURS, NEUBER_STEEL_RANGE_MPA, Q_METHODS, DesignSpec, FatigueSpec
 from .spec import HELD_MODES, PIN_CONTACTS, SYMMETRY_PLANES, Pin, Remote, SectionSpec, Support
 from .spec import MESH_SOLVERS
@@ -21,9 +23,7 @@ from .validate import validate_geometry
 if TYPE_CHECKING:
     from .materials import MaterialRow
 
-TOP_KEYS = {"title", "units", "plate", "hole", "material", "load", "mesh", "design", "fatigue", "support", "section",
-            "ellipse", "slot", "notch", "step", "lug"}  # the last five: geometry/featurefile.py
-DEFAULT_UNITS = "mm-N-MPa"
+TOP_KEYS = {"title", "units", "plate", "material", "load", "mesh", "design", "fatigue", "support", "section"} | TABLES
 MAX_PART_BYTES = 1_000_000  # longest part file read (a real one is a few kB)
 
 
@@ -59,25 +59,23 @@ def parse_part(text: str) -> PartSpec:
 
 def part_from_dict(data: dict[str, Any]) -> PartSpec:
     """Validate a part-file dictionary (as read from TOML) into a PartSpec."""
-    _known(data, TOP_KEYS, "")
+    known(data, TOP_KEYS, "")
     title = data.get("title", "untitled part")
     if not isinstance(title, str):
-        raise PartError(f"title: must be a text string; got {_shown(title)}")
+        raise PartError(f"title: must be a text string; got {shown(title)}")
     units = _units(data.get("units", DEFAULT_UNITS))
     spec = PartSpec(
         title=title,
-        plate=_plate(_table(data, "plate"), units),
-        material=_material(_table(data, "material"), units),
-        load=_load(_table(data, "load"), units),
-        holes=_holes(data.get("hole", []), units),
-        mesh=_mesh(_table(data, "mesh", required=False)),
+        plate=_plate(table(data, "plate"), units),
+        material=_material(table(data, "material"), units),
+        load=_load(table(data, "load"), units),
+        raisers=read_raisers(data, units),
+        mesh=_mesh(table(data, "mesh", required=False)),
         units=units,
-        support=_support(_table(data, "support", required=False)),
+        support=_support(table(data, "support", required=False)),
         sections=_sections(data.get("section", []), units),
     )
-    from .featurefile import raiser_tables
-
-    spec = replace(spec, **raiser_tables(data, units, spec.plate.width, len(spec.holes)))
+    spec = replace(spec, **outline_of(spec).read(data, spec))
     from .resolution import check_feature_count, check_resolution
 
     check_feature_count(spec)  # before the pairwise geometric checks, whose cost grows with the square
@@ -100,14 +98,14 @@ def _units(value: Any) -> str:
 
 
 def _plate(t: dict[str, Any], units: str) -> Plate:
-    _known(t, {"length", "width", "thickness", "condition"}, "plate")
+    known(t, {"length", "width", "thickness", "condition"}, "plate")
     condition = t.get("condition", "plane-stress")
     if condition not in STRESS_STATES:
         raise PartError(f"plate.condition: {condition!r} is not allowed; use one of {', '.join(STRESS_STATES)}")
     return Plate(
-        length=_positive(t, "length", "plate", "length", units),
-        width=_positive(t, "width", "plate", "length", units),
-        thickness=_positive(t, "thickness", "plate", "length", units),
+        length=positive(t, "length", "plate", "length", units),
+        width=positive(t, "width", "plate", "length", units),
+        thickness=positive(t, "thickness", "plate", "length", units),
         condition=condition,
     )
 
@@ -117,30 +115,30 @@ MATERIAL_KEYS = {"grade", "E", "nu", "yield", "ultimate", "family", "ductile", "
 
 def _material(t: dict[str, Any], units: str) -> Material:
     """[material]: a built-in `grade` whose values any key may override, or every value given here."""
-    _known(t, MATERIAL_KEYS, "material")
+    known(t, MATERIAL_KEYS, "material")
     from .materials import DUCTILE_FAMILIES, FAMILIES, lookup_material
 
     row = lookup_material(t["grade"], "material.grade") if "grade" in t else None
-    table = row is not None
-    nu = _number(t, "nu", "material", required=not table, default=row.poisson_ratio if table else None)
+    from_table = row is not None
+    nu = number(t, "nu", "material", required=not from_table, default=row.poisson_ratio if from_table else None)
     if not -1.0 < nu < 0.5:
         raise PartError(f"material.nu: {nu} is outside the allowed range -1 < nu < 0.5")
-    family = t.get("family", row.family if table else None)
+    family = t.get("family", row.family if from_table else None)
     if family is not None and family not in FAMILIES:
         raise PartError(f"material.family: {family!r} is not allowed; use one of {', '.join(FAMILIES)}")
-    ductile = t.get("ductile", row.ductile if table else (True if family in DUCTILE_FAMILIES else None))
+    ductile = t.get("ductile", row.ductile if from_table else (True if family in DUCTILE_FAMILIES else None))
     if not isinstance(ductile, bool | None):
         raise PartError(f"material.ductile: must be true or false; got {ductile!r}")
     strength, life = _fatigue_strength(t, row, units)
     material = Material(
-        E=_or(_positive(t, "E", "material", "stress", units, required=not table),
-              row.youngs_modulus_mpa if table else None),
+        E=_or(positive(t, "E", "material", "stress", units, required=not from_table),
+              row.youngs_modulus_mpa if from_table else None),
         nu=nu,
-        yield_strength=_or(_positive(t, "yield", "material", "stress", units, required=False),
-                           row.yield_mpa if table else None),
-        ultimate=_or(_positive(t, "ultimate", "material", "stress", units, required=False),
-                     row.ultimate_mpa if table else None),
-        grade=row.key if table else None,
+        yield_strength=_or(positive(t, "yield", "material", "stress", units, required=False),
+                           row.yield_mpa if from_table else None),
+        ultimate=_or(positive(t, "ultimate", "material", "stress", units, required=False),
+                     row.ultimate_mpa if from_table else None),
+        grade=row.key if from_table else None,
         family=family,
         ductile=ductile,
         fatigue_strength=strength,
@@ -161,8 +159,8 @@ def _fatigue_strength(t: dict[str, Any], row: MaterialRow | None, units: str) ->
         if "fatigue_life" in t:
             raise PartError("material.fatigue_life: give material.fatigue_strength with it (they are a pair)")
         return (row.fatigue_strength_mpa, row.fatigue_life_cycles) if row is not None else (None, None)
-    strength = _positive(t, "fatigue_strength", "material", "stress", units)
-    life = _positive(t, "fatigue_life", "material", required=False)
+    strength = positive(t, "fatigue_strength", "material", "stress", units)
+    life = positive(t, "fatigue_life", "material", required=False)
     if life is not None and life < 1.0:
         raise PartError(f"material.fatigue_life: a number of cycles of at least 1 is needed; "
                         f"got {t['fatigue_life']!r}")
@@ -190,12 +188,12 @@ def _strengths_in_order(m: Material, units: str) -> None:
 
 def _load(t: dict[str, Any], units: str) -> Load:
     """[load]: end loads (axial, bending, shear, any mix), or a [load.remote] stress state, or a [load.pin]."""
-    _known(t, {"axial", "bending", "shear", "remote", "pin"}, "load")
+    known(t, {"axial", "bending", "shear", "remote", "pin"}, "load")
     ends = [k for k in ("axial", "bending", "shear") if k in t]
     load = Load(
-        axial=_number(t, "axial", "load", "force", units, required=False, default=0.0),
-        bending=_number(t, "bending", "load", "moment", units, required=False, default=0.0),
-        shear=_number(t, "shear", "load", "force", units, required=False, default=0.0),
+        axial=number(t, "axial", "load", "force", units, required=False, default=0.0),
+        bending=number(t, "bending", "load", "moment", units, required=False, default=0.0),
+        shear=number(t, "shear", "load", "force", units, required=False, default=0.0),
         remote=_remote(t["remote"], units) if "remote" in t else None,
         pin=_pin(t["pin"], units) if "pin" in t else None,
     )
@@ -220,8 +218,8 @@ def _remote(t: Any, units: str) -> Remote:
     """[load.remote]: the uniform stress state sx, sy, txy (stresses, default 0) on every outer edge."""
     if not isinstance(t, dict):
         raise PartError("load.remote: must be a table written [load.remote] with sx, sy and txy (stresses)")
-    _known(t, {"sx", "sy", "txy"}, "load.remote")
-    remote = Remote(*(_number(t, k, "load.remote", "stress", units, required=False, default=0.0)
+    known(t, {"sx", "sy", "txy"}, "load.remote")
+    remote = Remote(*(number(t, k, "load.remote", "stress", units, required=False, default=0.0)
                       for k in ("sx", "sy", "txy")))
     if remote.sx == remote.sy == remote.txy == 0.0:
         raise PartError("load.remote: sx, sy and txy are all zero; give at least one non-zero stress")
@@ -233,30 +231,30 @@ def _pin(t: Any, units: str) -> Pin:
     default, or "rigid") and clearance (diametral, a length >= 0, default 0; "rigid" only)."""
     if not isinstance(t, dict):
         raise PartError("load.pin: must be a table written [load.pin] with hole, force and direction")
-    _known(t, {"hole", "force", "direction", "contact", "clearance"}, "load.pin")
+    known(t, {"hole", "force", "direction", "contact", "clearance"}, "load.pin")
     hole = t.get("hole")
     if isinstance(hole, bool) or not isinstance(hole, int) or hole < 1:
         raise PartError(f"load.pin.hole: must be the number of a [[hole]] entry (1 for the first); got {hole!r}")
-    direction = _number(t, "direction", "load.pin", required=False, default=0.0)
+    direction = number(t, "direction", "load.pin", required=False, default=0.0)
     if not -360.0 <= direction <= 360.0:
         raise PartError(f"load.pin.direction: {direction} is outside the allowed range -360 to 360 degrees")
     contact = t.get("contact", Pin.contact)
     if contact not in PIN_CONTACTS:
-        raise PartError(f"load.pin.contact: {_shown(contact)} is not allowed; use one of {', '.join(PIN_CONTACTS)}")
-    clearance = _number(t, "clearance", "load.pin", "length", units, required=False, default=0.0)
+        raise PartError(f"load.pin.contact: {shown(contact)} is not allowed; use one of {', '.join(PIN_CONTACTS)}")
+    clearance = number(t, "clearance", "load.pin", "length", units, required=False, default=0.0)
     if clearance < 0.0:
         raise PartError(f"load.pin.clearance: must be zero or more (the pin's diametral clearance); got "
-                        f"{_shown(t['clearance'])}")
+                        f"{shown(t['clearance'])}")
     if "clearance" in t and contact != "rigid":
         raise PartError("load.pin.clearance: applies only with load.pin.contact = \"rigid\" (the cosine pressure "
                         "has no pin to fit)")
-    return Pin(hole=hole, force=_positive(t, "force", "load.pin", "force", units), direction=direction,
+    return Pin(hole=hole, force=positive(t, "force", "load.pin", "force", units), direction=direction,
                contact=contact, clearance=clearance)
 
 
 def _support(t: dict[str, Any]) -> Support:
     """[support]: held = "x" | "clamped"; symmetry = a list of mirror planes, "x" and/or "y"."""
-    _known(t, {"held", "symmetry"}, "support")
+    known(t, {"held", "symmetry"}, "support")
     held = t.get("held", Support.held)
     if held not in HELD_MODES:
         raise PartError(f"support.held: {held!r} is not allowed; use one of {', '.join(HELD_MODES)}")
@@ -278,7 +276,7 @@ def _sections(items: Any, units: str) -> tuple[SectionSpec, ...]:
     out = []
     for n, item in enumerate(items, start=1):
         where = f"section {n}"
-        _known(item, {"x", "y", "through", "name"}, where)
+        known(item, {"x", "y", "through", "name"}, where)
         given = [k for k in ("x", "y", "through") if k in item]
         if len(given) != 1:
             raise PartError(f"{where}: give exactly one of x, y or through; got {', '.join(given) or 'none'}")
@@ -289,11 +287,11 @@ def _sections(items: Any, units: str) -> tuple[SectionSpec, ...]:
             pair = item["through"]
             if not isinstance(pair, list) or len(pair) != 2:
                 raise PartError(f"{where}.through: must be two points [[x1, y1], [x2, y2]]; got {pair!r}")
-            a = _point({"a": pair[0]}, "a", f"{where}.through", units)
-            b = _point({"b": pair[1]}, "b", f"{where}.through", units)
+            a = point({"a": pair[0]}, "a", f"{where}.through", units)
+            b = point({"b": pair[1]}, "b", f"{where}.through", units)
             section = section_through(a, b, where)
         else:
-            section = section_across(given[0], _number(item, given[0], where, "length", units))
+            section = section_across(given[0], number(item, given[0], where, "length", units))
         out.append(section if name is None else SectionSpec(section.point, section.normal, name))
     return tuple(out)
 
@@ -324,13 +322,13 @@ def parse_section_option(text: str, units: str = DEFAULT_UNITS) -> SectionSpec:
         axis, _, value = spec.partition("=")
         if axis not in ("x", "y") or not value:
             raise PartError(f"{where}: use x=VALUE, y=VALUE or x1,y1:x2,y2")
-        return section_across(axis, _number({axis: _cli_value(value)}, axis, where, "length", units))
+        return section_across(axis, number({axis: _cli_value(value)}, axis, where, "length", units))
     ends = spec.split(":")
     if len(ends) != 2 or any(len(e.split(",")) != 2 for e in ends):
         raise PartError(f"{where}: use x=VALUE, y=VALUE or x1,y1:x2,y2")
     a, b = ({"x": _cli_value(e.split(",")[0]), "y": _cli_value(e.split(",")[1])} for e in ends)
-    pa = (_number(a, "x", where, "length", units), _number(a, "y", where, "length", units))
-    pb = (_number(b, "x", where, "length", units), _number(b, "y", where, "length", units))
+    pa = (number(a, "x", where, "length", units), number(a, "y", where, "length", units))
+    pb = (number(b, "x", where, "length", units), number(b, "y", where, "length", units))
     return section_through(pa, pb, where)
 
 
@@ -351,8 +349,8 @@ def _design(data: dict[str, Any], spec: PartSpec) -> DesignSpec | None:
     strength. Every load kind is checked on its own nominal (compare.signoff)."""
     if "design" not in data:
         return None
-    t = _table(data, "design")
-    _known(t, {"yield_factor", "ultimate_factor", "behaviour", "bearing_strength"}, "design")
+    t = table(data, "design")
+    known(t, {"yield_factor", "ultimate_factor", "behaviour", "bearing_strength"}, "design")
     _no_compression(spec, "[design] check")
     m = spec.material
     if m.yield_strength is None:
@@ -362,7 +360,7 @@ def _design(data: dict[str, Any], spec: PartSpec) -> DesignSpec | None:
     ultimate_factor = _safety_factor(t, "ultimate_factor", "design", None)
     if ultimate_factor is not None and m.ultimate is None:
         raise PartError("material.ultimate: missing; design.ultimate_factor needs the ultimate strength")
-    bearing = _positive(t, "bearing_strength", "design", "stress", spec.units, required=False)
+    bearing = positive(t, "bearing_strength", "design", "stress", spec.units, required=False)
     if bearing is not None and spec.load.pin is None:
         raise PartError(f"design.bearing_strength: applies to a pin's hole ([load.pin]) only; this part's load is "
                         f"{spec.load.kind}")
@@ -401,8 +399,8 @@ def _fatigue(data: dict[str, Any], spec: PartSpec) -> FatigueSpec | None:
     to screen it, and the cyclic stress-strain curve for a yielding notch."""
     if "fatigue" not in data:
         return None
-    t = _table(data, "fatigue")
-    _known(t, FATIGUE_KEYS, "fatigue")
+    t = table(data, "fatigue")
+    known(t, FATIGUE_KEYS, "fatigue")
     _no_compression(spec, "[fatigue] screen (Kt comes from the [load] case; the cycle itself may reach compression)")
     low, high, form = _cycle(t, spec)
     m = spec.material
@@ -410,7 +408,7 @@ def _fatigue(data: dict[str, Any], spec: PartSpec) -> FatigueSpec | None:
     method = t.get("notch_sensitivity", FatigueSpec.notch_sensitivity)
     if method not in Q_METHODS:
         raise PartError(f"fatigue.notch_sensitivity: {method!r} is not allowed; use one of {', '.join(Q_METHODS)}")
-    q = _number(t, "q", "fatigue", required=False)
+    q = number(t, "q", "fatigue", required=False)
     if q is not None and not 0.0 <= q <= 1.0:
         raise PartError(f"fatigue.q: {q} is outside the allowed range 0 to 1")
     if q is not None and "notch_sensitivity" in t:
@@ -443,17 +441,17 @@ def _cycle(t: dict[str, Any], spec: PartSpec) -> tuple[float, float, str]:
         for key in CYCLE_KEYS[form]:
             if key not in t:
                 raise PartError(f"fatigue.{key}: missing; give min_fraction and max_fraction together")
-        low, high = (_number(t, key, "fatigue") for key in CYCLE_KEYS[form])
+        low, high = (number(t, key, "fatigue") for key in CYCLE_KEYS[form])
         _cycle_order(low, high, "min_fraction", "max_fraction", t)
     else:
         force = _load_force(spec, sorted(set(CYCLE_KEYS[form]) & t.keys())[0])
         if form == "forces":
-            low = _number(t, "min_force", "fatigue", "force", spec.units)
-            high = _number(t, "max_force", "fatigue", "force", spec.units)
+            low = number(t, "min_force", "fatigue", "force", spec.units)
+            high = number(t, "max_force", "fatigue", "force", spec.units)
             _cycle_order(low, high, "min_force", "max_force", t)
         else:
-            alternating = _positive(t, "alternating_force", "fatigue", "force", spec.units)
-            mean = _number(t, "mean_force", "fatigue", "force", spec.units, required=False, default=0.0)
+            alternating = positive(t, "alternating_force", "fatigue", "force", spec.units)
+            mean = number(t, "mean_force", "fatigue", "force", spec.units, required=False, default=0.0)
             low, high = mean - alternating, mean + alternating
         low, high = low / force, high / force
     _cycle_fits_load(spec, low, high, CYCLE_KEYS[form][0] if form != "amplitude" else "alternating_force")
@@ -499,8 +497,8 @@ def _cyclic_curve(t: dict[str, Any], m: Material, units: str) -> tuple[float | N
         other = keys[1 - keys.index(given[0])]
         raise PartError(f"fatigue.{other}: missing; give cyclic_strength (K') and cyclic_exponent (n') together")
     if given:
-        strength = _positive(t, "cyclic_strength", "fatigue", "stress", units)
-        exponent = _number(t, "cyclic_exponent", "fatigue")
+        strength = positive(t, "cyclic_strength", "fatigue", "stress", units)
+        exponent = number(t, "cyclic_exponent", "fatigue")
         if not 0.0 < exponent < 1.0:
             raise PartError(f"fatigue.cyclic_exponent: {exponent} is outside the allowed range 0 to 1 (exclusive); "
                             "metals have n' of about 0.05 to 0.3")
@@ -558,7 +556,7 @@ def _no_compression(spec: PartSpec, what: str) -> None:
 
 
 def _safety_factor(t: dict[str, Any], key: str, where: str, default: float | None) -> float | None:
-    value = _number(t, key, where, required=False, default=default)
+    value = number(t, key, where, required=False, default=default)
     if value is not None and not 1.0 <= value <= 100.0:
         raise PartError(f"{where}.{key}: {value} is outside the allowed range 1 to 100")
     return value
@@ -569,136 +567,15 @@ def _left_out(t: dict[str, Any], keys: tuple[str, ...]) -> tuple[str, ...]:
 
 
 def _mesh(t: dict[str, Any]) -> MeshControls:
-    _known(t, {"tolerance", "max_levels", "max_elements", "order", "solver"}, "mesh")
+    known(t, {"tolerance", "max_levels", "max_elements", "order", "solver"}, "mesh")
     default = MeshControls()
-    tol = _number(t, "tolerance", "mesh", required=False, default=default.tolerance)
+    tol = number(t, "tolerance", "mesh", required=False, default=default.tolerance)
     if not 1e-4 <= tol <= 0.2:
         raise PartError(f"mesh.tolerance: {tol} is outside the allowed range 0.0001 to 0.2")
-    levels = _integer(t, "max_levels", "mesh", default.max_levels, 3, 12)
-    elements = _integer(t, "max_elements", "mesh", default.max_elements, 1_000, 20_000_000)
-    order = _integer(t, "order", "mesh", default.order, 1, 2)
+    levels = integer(t, "max_levels", "mesh", default.max_levels, 3, 12)
+    elements = integer(t, "max_elements", "mesh", default.max_elements, 1_000, 20_000_000)
+    order = integer(t, "order", "mesh", default.order, 1, 2)
     solver = t.get("solver", default.solver)
     if solver not in MESH_SOLVERS:
         raise PartError(f"mesh.solver: {solver!r} is not allowed; use one of {', '.join(MESH_SOLVERS)}")
     return MeshControls(tolerance=tol, max_levels=levels, max_elements=elements, order=order, solver=solver)
-
-
-def _holes(items: Any, units: str) -> tuple[Hole, ...]:
-    if not isinstance(items, list) or not all(isinstance(i, dict) for i in items):
-        raise PartError("hole: must be an array of tables, each written [[hole]]")
-    holes = []
-    for n, item in enumerate(items, start=1):
-        where = f"hole {n}"
-        _known(item, {"center", "diameter"}, where)
-        holes.append(Hole(center=_point(item, "center", where, units),
-                          diameter=_positive(item, "diameter", where, "length", units)))
-    return tuple(holes)
-
-
-# --- small readers: each names the key and what is allowed --------------------------------------
-
-
-def _known(t: dict[str, Any], allowed: set[str], where: str) -> None:
-    for key in t:
-        if key not in allowed:
-            shown = key if key.replace("_", "").replace("-", "").isalnum() and key.isascii() else _shown(key)
-            name = f"{where}.{shown}" if where else shown
-            raise PartError(f"{name}: unknown key; allowed here: {', '.join(sorted(allowed))}")
-
-
-def _table(data: dict[str, Any], key: str, required: bool = True) -> dict[str, Any]:
-    if key not in data:
-        if required:
-            raise PartError(f"[{key}]: missing table")
-        return {}
-    value = data[key]
-    if not isinstance(value, dict):
-        raise PartError(f"{key}: must be a table written [{key}]")
-    return value
-
-
-def _number(t: dict[str, Any], key: str, where: str, quantity: str | None = None, units: str = DEFAULT_UNITS,
-            required: bool = True, default: float | None = None) -> float:
-    """A finite number from t[key], converted to mm, N or MPa when `quantity` names one.
-
-    A bare number is in the file's unit system; a string carries its own unit ("12 kN", "0.5 in").
-    Dimensionless values (quantity None) must be bare numbers.
-    """
-    name = f"{where}.{key}"
-    if key not in t:
-        if required:
-            raise PartError(f"{name}: missing; a number is required")
-        return default  # type: ignore[return-value]
-    value = t[key]
-    if quantity is not None and (isinstance(value, str) or units != DEFAULT_UNITS):
-        from .units import parse_quantity  # pint loads only when a file needs it
-
-        value = parse_quantity(value, quantity, name, units)
-    if isinstance(value, bool) or not isinstance(value, (int, float)):
-        raise PartError(f"{name}: must be a number; got {_shown(value)}")
-    try:
-        value = float(value)
-    except OverflowError:  # an integer beyond the float range
-        value = math.inf
-    if not math.isfinite(value):
-        raise PartError(f"{name}: must be a finite number; got {_shown(t[key])}")
-    _in_range(value, name, quantity)
-    if abs(value) > 1e12:
-        raise PartError(f"{name}: must be a finite number of magnitude below 1e12; got {_shown(value)}")
-    return value
-
-
-# Magnitudes the solver handles without overflow, underflow or lost precision, in mm, N, MPa. A zero
-# (where a key allows it) is exact; any other value must lie in this range. Positive dimensions and
-# moduli must reach the low end too (see `_positive`). Wide enough for any real plate.
-MAGNITUDES = {
-    "length": (1e-3, 1e6),     # 1 µm to 1 km
-    "force": (1e-6, 1e12),
-    "stress": (1e-6, 1e7),     # 1 Pa to 10 TPa
-    "moment": (1e-6, 1e15),
-    "area": (1e-6, 1e12),
-}
-UNIT_NAMES = {"length": "mm", "force": "N", "stress": "MPa", "moment": "N*mm", "area": "mm^2"}
-
-
-def _in_range(value: float, name: str, quantity: str | None, positive: bool = False) -> None:
-    """Refuse magnitudes outside MAGNITUDES[quantity]; signed lengths (coordinates) may be small."""
-    if quantity not in MAGNITUDES or value == 0.0:
-        return
-    low, high = MAGNITUDES[quantity]
-    unit = UNIT_NAMES[quantity]
-    if abs(value) > high:
-        raise PartError(f"{name}: {value:.6g} {unit} is beyond the largest magnitude allowed, {high:g} {unit}")
-    if abs(value) < low and (positive or quantity != "length"):
-        raise PartError(f"{name}: {value:.6g} {unit} is below the smallest magnitude allowed, {low:g} {unit}")
-
-
-def _shown(value: Any, limit: int = 60) -> str:
-    """repr of a value cut to one short line for an error message."""
-    text = repr(value)
-    return text if len(text) <= limit else text[:limit] + "..."
-
-
-def _positive(t: dict[str, Any], key: str, where: str, quantity: str | None = None, units: str = DEFAULT_UNITS,
-              required: bool = True) -> float:
-    value = _number(t, key, where, quantity, units, required)
-    if value is not None and value <= 0.0:
-        raise PartError(f"{where}.{key}: must be greater than zero; got {_shown(t[key])}")
-    if value is not None:
-        _in_range(value, f"{where}.{key}", quantity, positive=True)
-    return value
-
-
-def _integer(t: dict[str, Any], key: str, where: str, default: int, low: int, high: int) -> int:
-    value = t.get(key, default)
-    if isinstance(value, bool) or not isinstance(value, int) or not low <= value <= high:
-        raise PartError(f"{where}.{key}: must be a whole number from {low} to {high}; got {value!r}")
-    return value
-
-
-def _point(t: dict[str, Any], key: str, where: str, units: str = DEFAULT_UNITS) -> tuple[float, float]:
-    value = t.get(key)
-    if not isinstance(value, list) or len(value) != 2:
-        raise PartError(f"{where}.{key}: must be a pair of lengths [x, y]; got {value!r}")
-    pair = {"x": value[0], "y": value[1]}
-    return (_number(pair, "x", f"{where}.{key}", "length", units), _number(pair, "y", f"{where}.{key}", "length", units))

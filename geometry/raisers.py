@@ -7,7 +7,9 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .shapes import Arc, EllipseShape, Line, Point, ellipse_shape, notch_shapes, slot_shape, step_shape
+from .kinds.base import CurvedEdges
+from .registry import RaiserId, kind_of, named, outline_raisers, outline_size
+from .shapes import Arc, EllipseShape, Line, Point
 from .spec import PartSpec
 from .validate import feature_gaps
 
@@ -16,16 +18,10 @@ PENALTY = 10.0  # slope of the out-of-span penalty in the arc distance (dimensio
 
 @dataclass(frozen=True)
 class Raiser:
-    """One raiser's curved edge.
+    """One raiser's curved edges (see kinds.base.CurvedEdges) and its thinnest ligament: the clear distance
+    (mm) from the raiser to anything else."""
 
-    arcs: circular arcs with counter-clockwise angles (low, high); the material is outside each circle.
-    strips: straight edges bordered by structured layers, each with its unit normal into the material.
-    ellipse: an elliptical hole's shape, or None.
-    curvature: smallest radius of curvature along the edge (mm).
-    ligament: thinnest clear distance from the raiser to anything else (mm).
-    """
-
-    name: str
+    id: RaiserId
     arcs: tuple[Arc, ...]
     strips: tuple[tuple[Line, Point], ...]
     ellipse: EllipseShape | None
@@ -34,30 +30,17 @@ class Raiser:
 
 
 def part_raisers(spec: PartSpec) -> list[Raiser]:
-    """Every raiser of the part, in a fixed order: holes, ellipses, slots, notches, the step's fillets."""
+    """Every raiser of the part, in a fixed order: spec.raisers (kinds in registry order), then the
+    outline's own (a stepped bar's fillets)."""
     gaps = feature_gaps(spec)
+    width = outline_size(spec)[1]
 
-    def lig(name: str) -> float:
-        return min(gaps[name].values()) if gaps.get(name) else spec.plate.width
+    def raiser(rid: RaiserId, edges: CurvedEdges) -> Raiser:
+        ligament = min(gaps[rid].values()) if gaps.get(rid) else width
+        return Raiser(rid, edges.arcs, edges.strips, edges.ellipse, edges.curvature, ligament)
 
-    out = []
-    for n, h in enumerate(spec.holes, start=1):
-        out.append(Raiser(f"hole {n}", (Arc(h.center, h.radius, 0.0, 2.0 * math.pi),), (), None, h.radius,
-                          lig(f"hole {n}")))
-    for n, e in enumerate(spec.ellipses, start=1):
-        shape = ellipse_shape(e)
-        out.append(Raiser(f"ellipse {n}", (), (), shape, shape.tip_radius, lig(f"ellipse {n}")))
-    for n, s in enumerate(spec.slots, start=1):
-        shape = slot_shape(s)
-        out.append(Raiser(f"slot {n}", shape.ends, shape.sides, None, 0.5 * s.width, lig(f"slot {n}")))
-    for n, notch in enumerate(spec.notches, start=1):
-        roots = tuple(s.root for s in notch_shapes(spec, notch))
-        out.append(Raiser(f"notch {n}", roots, (), None, notch.radius, lig(f"notch {n}")))
-    shape = step_shape(spec)
-    if shape is not None:
-        arcs = tuple(Arc(a.center, a.radius, *a.ccw) for a in shape.fillets)
-        out.append(Raiser(shape.name, arcs, (), None, spec.step.radius, lig(shape.name)))
-    return out
+    out = [raiser(rid, kind_of(item).curved(spec, item)) for rid, item in named(spec)]
+    return out + [raiser(r.id, r.curved) for r in outline_raisers(spec)]
 
 
 def _num(v: float) -> str:
@@ -108,14 +91,12 @@ def _ellipse_distance(e: EllipseShape) -> str:
 
 
 def distance_expression(raiser: Raiser) -> str:
-    """Distance (mm) from (x, y) to the raiser's curved edge, as a gmsh MathEval expression."""
-    if raiser.ellipse is not None:
-        return _ellipse_distance(raiser.ellipse)
-    if raiser.strips:  # a slot: distance to its centre segment less the end radius
-        ends = raiser.arcs
-        r = ends[0].radius
-        return f"Fabs({_segment_distance(ends[1].center, ends[0].center)} - {_num(r)})"
+    """Distance (mm) from (x, y) to the raiser's curved edges, as a gmsh MathEval expression: the least of
+    the distances to its arcs, its straight strips and its ellipse."""
     terms = [_arc_distance(a) for a in raiser.arcs]
+    terms += [_segment_distance(line.start, line.end) for line, _ in raiser.strips]
+    if raiser.ellipse is not None:
+        terms.append(_ellipse_distance(raiser.ellipse))
     expr = terms[0]
     for term in terms[1:]:
         expr = f"Min({expr}, {term})"

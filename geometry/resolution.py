@@ -14,9 +14,8 @@ Two checks, each raising PartError with one line naming the feature and the limi
 
 from __future__ import annotations
 
-from dataclasses import fields
-
 from .errors import PartError
+from .registry import outline_size
 from .spec import PartSpec
 from .validate import FINEST_ELEMENT_FRACTION
 
@@ -26,9 +25,8 @@ MIN_LENGTH_FRACTION = 0.01  # shortest plate, as a fraction of its width
 
 
 def feature_count(spec: PartSpec) -> int:
-    """How many listed items (holes, other cut-outs, notches, sections...) the part has: every tuple
-    field of the PartSpec counts, so feature kinds added later are counted too."""
-    return sum(len(getattr(spec, f.name)) for f in fields(spec) if isinstance(getattr(spec, f.name), tuple))
+    """How many listed items the part has: its raisers of every kind and its section cuts."""
+    return len(spec.raisers) + len(spec.sections)
 
 
 def check_feature_count(spec: PartSpec) -> None:
@@ -40,21 +38,22 @@ def check_feature_count(spec: PartSpec) -> None:
 
 def min_curvature(spec: PartSpec) -> float:
     """Smallest raiser radius of curvature (mm) the mesh resolves."""
-    return MIN_CURVATURE_ELEMENTS * FINEST_ELEMENT_FRACTION * spec.plate.width
+    return MIN_CURVATURE_ELEMENTS * FINEST_ELEMENT_FRACTION * outline_size(spec)[1]
 
 
 def check_resolution(spec: PartSpec) -> None:
     """Refuse a raiser whose smallest radius of curvature is below `min_curvature(spec)`."""
     from .raisers import part_raisers  # raisers imports validate; import here to keep the order one way
 
-    shortest = MIN_LENGTH_FRACTION * spec.plate.width
-    if spec.plate.length < shortest:
-        raise PartError(f"plate.length: {spec.plate.length:g} mm is less than {MIN_LENGTH_FRACTION:.0%} of the width "
+    length, width = outline_size(spec)
+    shortest = MIN_LENGTH_FRACTION * width
+    if length < shortest:
+        raise PartError(f"plate.length: {length:g} mm is less than {MIN_LENGTH_FRACTION:.0%} of the width "
                         f"({shortest:.3g} mm); the mesh cannot grade a strip that short without degenerate elements")
     limit = min_curvature(spec)
     for raiser in part_raisers(spec):
         if not raiser.curvature >= limit:
             raise PartError(
-                f"{raiser.name}: radius {raiser.curvature:.3g} mm is below the smallest the mesh resolves, "
+                f"{raiser.id}: radius {raiser.curvature:.3g} mm is below the smallest the mesh resolves, "
                 f"{limit:.3g} mm ({MIN_CURVATURE_ELEMENTS * FINEST_ELEMENT_FRACTION:.1%} of the plate width "
-                f"{spec.plate.width:g} mm); enlarge it or model a narrower part")
+                f"{outline_size(spec)[1]:g} mm); enlarge it or model a narrower part")

@@ -2,101 +2,36 @@
 
 Coordinates: origin at the plate centre, x along the length (the load direction), y across the
 width. The held end is x = -length/2, the loaded end is x = +length/2.
+
+What each kind of raiser and outline is (its spec dataclass among them) lives in its own module under
+geometry/kinds/, listed by geometry/registry.py.
 """
 
 from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field
+from typing import TYPE_CHECKING, Any
+
+from .kinds.hole import NAME as HOLE
+
+if TYPE_CHECKING:
+    from .kinds.hole import Hole
+    from .kinds.lug_end import Lug
+    from .kinds.stepped import Step
 
 STRESS_STATES = ("plane-stress", "plane-strain")
 
 
 @dataclass(frozen=True)
 class Plate:
-    """Rectangular plate outline: length along x, width along y, thickness (all mm)."""
+    """The plate: thickness (mm) and stress state; for the bar outline (geometry/kinds/bar.py) its length
+    along x and width along y (mm)."""
 
     length: float
     width: float
     thickness: float
     condition: str = "plane-stress"
-
-
-@dataclass(frozen=True)
-class Hole:
-    """Circular through-hole: centre (x, y) in mm and diameter in mm."""
-
-    center: tuple[float, float]
-    diameter: float
-
-    @property
-    def radius(self) -> float:
-        return 0.5 * self.diameter
-
-
-@dataclass(frozen=True)
-class Ellipse:
-    """Elliptical through-hole: centre (x, y) in mm, full length along its own axis and full width across
-    it (mm), and angle in degrees, counter-clockwise from +x to the length axis."""
-
-    center: tuple[float, float]
-    length: float
-    width: float
-    angle: float = 0.0
-
-
-@dataclass(frozen=True)
-class Slot:
-    """Obround slot (two semicircular ends joined by straight sides): centre (x, y) in mm, overall length
-    end to end and width (= twice the end radius) in mm, angle in degrees from +x to the length axis."""
-
-    center: tuple[float, float]
-    length: float
-    width: float
-    angle: float = 0.0
-
-
-NOTCH_SHAPES = ("U", "V", "semicircle")
-NOTCH_SIDES = ("top", "bottom", "both")  # top is the long edge at +y
-
-
-@dataclass(frozen=True)
-class Notch:
-    """Edge notch on a long edge (or a pair, one on each edge): axis at x (mm), depth from the edge to the
-    bottom of the root (mm), root radius (mm) and, for a V, the opening angle between its flanks (degrees).
-    A semicircular notch has depth = radius. A U notch shallower than its radius is a circular arc of that
-    radius cut to that depth."""
-
-    x: float
-    side: str
-    shape: str
-    depth: float
-    radius: float
-    angle: float = 0.0
-
-
-STEP_NARROW_ENDS = ("loaded", "held")
-
-
-@dataclass(frozen=True)
-class Step:
-    """A shoulder step in width, symmetric about the centre line: the width changes from plate.width to the
-    narrow `width` (mm) through shoulder fillets of `radius` (mm) that start at x (mm); `narrow` says which
-    end is narrow. A fillet no larger than the step height h = (plate.width - width)/2 meets a square shoulder
-    face; a larger one is tangent to the narrow edge and meets the wide edge at an angle."""
-
-    x: float
-    width: float
-    radius: float
-    narrow: str = "loaded"
-
-
-@dataclass(frozen=True)
-class Lug:
-    """A lug: the loaded end is a semicircle of half the end's width centred on hole `hole` (1-based), which
-    takes the pin; the part is loaded through the pin ([load.pin]) and held at the far end."""
-
-    hole: int
 
 
 @dataclass(frozen=True)
@@ -319,21 +254,31 @@ class FatigueSpec:
 
 @dataclass(frozen=True)
 class PartSpec:
-    """One plate, its raisers, material, load and mesh controls, validated, in mm, N, MPa."""
+    """One plate, its raisers, material, load and mesh controls, validated, in mm, N, MPa.
+
+    raisers: every raiser of the part file, each the spec dataclass of its kind (its KIND names it); kinds
+        in the order of geometry.registry.RAISER_KINDS, entries of one kind in part-file order (the nth
+        entry of a kind is that kind's raiser n; geometry.registry.named pairs them with their names).
+    outline: the outline kind (geometry.registry.OUTLINE_KINDS); "bar": plate.length x plate.width with an
+        optional shoulder `step` and `lug` end.
+    """
 
     title: str
     plate: Plate
     material: Material
     load: Load
-    holes: tuple[Hole, ...] = ()
+    raisers: tuple[Any, ...] = ()
     mesh: MeshControls = field(default_factory=MeshControls)
     units: str = "mm-N-MPa"  # the unit system the part file was written in (for reporting only)
     design: DesignSpec | None = None  # the static sign-off, when the part file has a [design] table
     fatigue: FatigueSpec | None = None  # the fatigue screen, when the part file has a [fatigue] table
     support: Support = field(default_factory=Support)  # held end and symmetry planes
     sections: tuple[SectionSpec, ...] = ()  # cuts whose resultants the check reports (method of sections)
-    ellipses: tuple[Ellipse, ...] = ()
-    slots: tuple[Slot, ...] = ()
-    notches: tuple[Notch, ...] = ()
+    outline: str = "bar"
     step: Step | None = None
     lug: Lug | None = None
+
+    @property
+    def holes(self) -> tuple[Hole, ...]:
+        """The circular holes in part-file order (pins and lugs refer to them by number)."""
+        return tuple(r for r in self.raisers if r.KIND == HOLE)

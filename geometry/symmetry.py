@@ -1,5 +1,5 @@
-"""Mirror planes of a symmetric part: the region that is meshed, which raiser mirrors which, and the
-names of the cut edges.
+"""Mirror planes of a symmetric part: the region that is meshed, which raiser mirrors which (each kind
+says how it mirrors, geometry/kinds/*.py `mirrored`), and the names of the cut edges.
 
 A plane "x" is the plane x = 0 and "y" the plane y = 0 (the part's centre lines). With planes declared,
 only the part on their positive side is meshed; the cut edges are named "symmetry x" / "symmetry y"
@@ -10,41 +10,59 @@ from __future__ import annotations
 
 import math
 
+import shapely
+
+from .kinds.base import RaiserId
+from .kinds.hole import named as named_hole
+from .outline import cutout_regions, loop_polygon
+from .registry import kind_of, named, outline_of, outline_raisers, outline_size
 from .spec import PartSpec
 
-TOLERANCE_FRACTION = 1e-6  # of the plate's larger dimension: how close counts as "on the plane"
+TOLERANCE_FRACTION = 1e-6  # of the outline's larger extent: how close counts as "on the plane"
+MATCH_FRACTION = 1e-4  # of the outline's larger extent: how far a raiser may lie from another's mirror image
 
 
 def symmetry_tolerance(spec: PartSpec) -> float:
     """Distance (mm) within which a point counts as lying on a plane or two centres as coinciding."""
-    return TOLERANCE_FRACTION * max(spec.plate.length, spec.plate.width)
+    return TOLERANCE_FRACTION * max(outline_size(spec))
 
 
-def mirror_point(point: tuple[float, float], plane: str) -> tuple[float, float]:
-    """The mirror image of a point (mm) in the plane "x" (x -> -x) or "y" (y -> -y)."""
-    x, y = point
-    return (-x, y) if plane == "x" else (x, -y)
+def mirror_names(spec: PartSpec, plane: str) -> dict[RaiserId, RaiserId] | None:
+    """For each raiser the raiser that is its mirror image in `plane` (itself when the plane cuts it into
+    two mirror halves): the raiser of the same kind whose region coincides with its kind's mirror image
+    of it (an outline's raisers: as the outline says). None when some raiser has no mirror image."""
+    regions = {rid: shapely.union_all(polys) for rid, polys in cutout_regions(spec).items()}
+    tolerance = MATCH_FRACTION * max(outline_size(spec))
 
+    def coincide(a, b) -> bool:  # bounding boxes first: cheap, and they tell non-overlapping raisers apart
+        return (max(abs(u - v) for u, v in zip(a.bounds, b.bounds)) <= tolerance
+                and a.hausdorff_distance(b) <= tolerance)
 
-def mirror_holes(spec: PartSpec, plane: str) -> dict[int, int] | None:
-    """For each hole n (1-based) the hole that is its mirror image in `plane` (n itself when it is
-    centred on the plane); None when some hole has no mirror image of the same diameter."""
-    tol = symmetry_tolerance(spec)
-    out: dict[int, int] = {}
-    for n, hole in enumerate(spec.holes, start=1):
-        image = mirror_point(hole.center, plane)
-        for m, other in enumerate(spec.holes, start=1):
-            if math.dist(image, other.center) <= tol and abs(other.diameter - hole.diameter) <= tol:
-                out[n] = m
-                break
-        else:
+    out: dict[RaiserId, RaiserId] = {}
+    for rid, item in named(spec):
+        kind = kind_of(item)
+        image = shapely.union_all([loop_polygon(loop) for loop in kind.loops(spec, kind.mirrored(item, plane))])
+        match = next((other for other in regions if other.kind == rid.kind and coincide(image, regions[other])), None)
+        if match is None:
             return None
+        out[rid] = match
+    for raiser in outline_raisers(spec):
+        image = outline_of(spec).mirrored(spec, raiser.id, plane)
+        if image is None:
+            return None
+        out[raiser.id] = image
     return out
+
+
+def mirror_hole(spec: PartSpec, number: int, plane: str) -> int:
+    """The number of the hole that mirrors hole `number` in `plane` (a symmetric part has one)."""
+    return mirror_names(spec, plane)[named_hole(number)].number
 
 
 def modelled_box(spec: PartSpec) -> tuple[float, float, float, float]:
     """(xmin, ymin, xmax, ymax) in mm of the region that is meshed: the plate, cut at each plane."""
-    half_l, half_w = 0.5 * spec.plate.length, 0.5 * spec.plate.width
+    length, width = outline_size(spec)
+    half_l, half_w = 0.5 * length, 0.5 * width
     planes = spec.support.symmetry
     return (0.0 if "x" in planes else -half_l, 0.0 if "y" in planes else -half_w, half_l, half_w)
 

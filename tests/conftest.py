@@ -1,32 +1,65 @@
-"""Shared helpers for the tests: building parts from dictionaries and the example folder."""
+"""Shared helpers for the tests: the strap every input test starts from, part-file text from a dictionary,
+and the example folder."""
 
 from __future__ import annotations
 
+import copy
+import json
 import random
 from collections.abc import Iterator, Sequence
 from pathlib import Path
+from typing import Any
 
 import pytest
 
 from stressraiser.geometry.partfile import part_from_dict
 
 REPO = Path(__file__).resolve().parents[1]
-
-# The strap of examples/winch_strap.toml as part-file text: the base that input tests corrupt one key at a time.
-STRAP_TEXT = """[plate]
-length = 300.0
-width = 80.0
-thickness = 10.0
-[[hole]]
-center = [0.0, 0.0]
-diameter = 22.0
-[material]
-E = 210000.0
-nu = 0.3
-[load]
-axial = 120000.0
-"""
 EXAMPLES = REPO / "examples"
+
+# The strap of examples/winch_strap.toml: the part the input, failure and sign-off tests start from,
+# changing one table or key at a time.
+STRAP: dict[str, Any] = {
+    "plate": {"length": 300.0, "width": 80.0, "thickness": 10.0},
+    "hole": [{"center": [0.0, 0.0], "diameter": 22.0}],
+    "material": {"E": 210000.0, "nu": 0.3},
+    "load": {"axial": 120000.0},
+}
+
+
+def strap(**tables: Any) -> dict[str, Any]:
+    """A copy of STRAP with top-level tables (or keys) replaced or added; a value of None removes one."""
+    part = copy.deepcopy(STRAP)
+    for key, value in tables.items():
+        if value is None:
+            part.pop(key, None)
+        else:
+            part[key] = copy.deepcopy(value)
+    return part
+
+
+def toml_text(part: dict[str, Any]) -> str:
+    """TOML text of a part-file dictionary: top-level values first, then each table and array of tables
+    in order (a table inside a table is written inline)."""
+    def value(v: Any) -> str:
+        if isinstance(v, dict):
+            return "{ " + ", ".join(f"{k} = {value(x)}" for k, x in v.items()) + " }"
+        return json.dumps(v)
+
+    def is_array_of_tables(v: Any) -> bool:
+        return isinstance(v, list) and bool(v) and all(isinstance(x, dict) for x in v)
+
+    lines = [f"{k} = {value(v)}" for k, v in part.items() if not isinstance(v, dict) and not is_array_of_tables(v)]
+    for key, v in part.items():
+        if isinstance(v, dict):
+            lines += [f"[{key}]"] + [f"{k} = {value(x)}" for k, x in v.items()]
+        elif is_array_of_tables(v):
+            for item in v:
+                lines += [f"[[{key}]]"] + [f"{k} = {value(x)}" for k, x in item.items()]
+    return "\n".join(lines) + "\n"
+
+
+STRAP_TEXT = toml_text(STRAP)  # the base that input tests corrupt one key at a time
 
 
 def plate_with_hole(length=300.0, width=80.0, thickness=10.0, holes=((0.0, 0.0, 22.0),), E=210000.0, nu=0.3,

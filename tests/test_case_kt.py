@@ -17,6 +17,7 @@ from stressraiser.compare.handbook import build_central_hole
 from stressraiser.compare.raiser_cases import build_row
 from stressraiser.compare.suite import builtin_suite, judge, load_suite
 from stressraiser.geometry.partfile import part_from_dict
+from stressraiser.geometry.registry import RaiserId
 
 FAST = 0.02  # mesh.tolerance of these checks (the built-in suite's for a curve fit)
 CASE_COLUMNS = ("case_raiser", "case_kt_net", "case_kt_gross", "case_kt_error", "case_converged")
@@ -60,7 +61,7 @@ def test_central_hole_row_has_case_values_equal_to_the_governing_ones():
 
 def test_row_of_holes_case_kt_is_the_middle_holes_own(row_result):
     row = summary_row(row_result)
-    middle = next(p for p in row_result.peaks if p.feature == "hole 4")
+    middle = next(p for p in row_result.peaks if p.feature == RaiserId("hole", 4))
     assert row["case_raiser"] == "hole 4" and row["feature"] in ("hole 1", "hole 7")
     assert (row["case_kt_net"], row["case_kt_gross"], row["case_kt_error"]) == (middle.kt_net, middle.kt_gross,
                                                                                   middle.error)

@@ -23,9 +23,9 @@ import pytest
 from stressraiser.cli.main import main
 from stressraiser.geometry.errors import MeshError
 from stressraiser.geometry.mesh_guard import checked_expression
-from stressraiser.geometry.spec import Hole
+from stressraiser.geometry.kinds.hole import Hole
 
-from conftest import EXAMPLES, REPO
+from conftest import EXAMPLES, REPO, strap, toml_text
 
 STRAP = EXAMPLES / "winch_strap.toml"
 NUMERICS = 3
@@ -39,23 +39,12 @@ def run_check(tmp_path, capsys, *options, part=STRAP):
     return code, (err[-1] if err else ""), out
 
 
-def part_file(tmp_path, mesh_table: str, plate: str = "length = 300.0\nwidth = 80.0\nthickness = 10.0") -> str:
+def part_file(tmp_path, mesh: dict, length: float = 300.0) -> str:
+    """The strap with the [mesh] table `mesh` and plate.length `length`, as a part file."""
     path = tmp_path / "part.toml"
-    path.write_text(textwrap.dedent(f"""\
-        title = "failure test"
-        [plate]
-        {plate}
-        [[hole]]
-        center = [0.0, 0.0]
-        diameter = 22.0
-        [material]
-        E = 210000.0
-        nu = 0.3
-        [load]
-        axial = 120000.0
-        [mesh]
-        {mesh_table}
-        """))
+    part = strap(title="failure test", mesh=mesh)
+    part["plate"]["length"] = length
+    path.write_text(toml_text(part))
     return str(path)
 
 
@@ -90,13 +79,13 @@ CHILD = textwrap.dedent("""\
     import stressraiser.geometry.partfile as partfile
     import stressraiser.geometry.meshing as meshing
     from stressraiser.cli.main import main
-    from stressraiser.geometry.spec import Hole
+    from stressraiser.geometry.kinds.hole import Hole
     load = partfile.load_part
     case = sys.argv[1]
     if case == "expression":
         meshing.distance_expression = lambda raiser: "x - -1"  # a form gmsh's parser aborts on
     else:
-        partfile.load_part = lambda path: replace(load(path), holes=(Hole((float("nan"), 0.0), 22.0),))
+        partfile.load_part = lambda path: replace(load(path), raisers=(Hole((float("nan"), 0.0), 22.0),))
     sys.exit(main(["check", sys.argv[2], "--quiet"]))
     """)
 
@@ -175,7 +164,7 @@ def test_part_split_in_two(tmp_path, capsys, monkeypatch):
 
     load = partfile.load_part
     holes = (Hole((0.0, -30.0), 30.0), Hole((0.0, 0.0), 30.0), Hole((0.0, 30.0), 30.0))
-    monkeypatch.setattr(partfile, "load_part", lambda path: replace(load(path), holes=holes))
+    monkeypatch.setattr(partfile, "load_part", lambda path: replace(load(path), raisers=holes))
     code, line, out = run_check(tmp_path, capsys)
     assert code == NUMERICS
     assert "piece" in line
@@ -230,7 +219,7 @@ def test_non_finite_stresses(tmp_path, capsys, monkeypatch):
 def test_non_converging_refinement_prints_results_and_exits_3(tmp_path, capsys):
     # A tolerance of 0.01 % is out of reach in three levels: the results are still printed and recorded
     # with a loud warning, and the exit code says they are not for sign-off.
-    part = part_file(tmp_path, "tolerance = 0.0001\nmax_levels = 3")
+    part = part_file(tmp_path, {"tolerance": 0.0001, "max_levels": 3})
     out = tmp_path / "out.json"
     code = main(["check", part, "--json", str(out)])
     captured = capsys.readouterr()
@@ -303,7 +292,7 @@ def test_max_elements_stops_refining(tmp_path, capsys):
 def test_a_huge_part_is_refused_before_meshing(tmp_path, capsys):
     # A 1 km plate 10 mm wide would need millions of elements; it is refused from the estimate, in
     # well under a second, instead of gmsh running for minutes.
-    part = part_file(tmp_path, "max_levels = 3", plate="length = 1000000.0\nwidth = 80.0\nthickness = 10.0")
+    part = part_file(tmp_path, {"max_levels": 3}, length=1000000.0)
     code, line, out = run_check(tmp_path, capsys, "--max-elements", "100000", part=part)
     assert code == NUMERICS
     assert "coarsest mesh of this part would have about" in line

@@ -13,6 +13,7 @@ from stressraiser.fem.elasticity import plane_stress_matrix
 from stressraiser.fem.loads import edge_forces
 from stressraiser.fem.solve import solve_constrained
 from stressraiser.geometry.meshing import mesh_part
+from stressraiser.geometry.registry import RaiserId
 
 from analytic import interpolate_nodal, kirsch_polar, kirsch_stress
 from conftest import plate_with_hole
@@ -80,7 +81,7 @@ def test_hole_edge_peak_converges_to_three():
     peaks = []
     for level in range(4):
         mesh, nodal = _solve_kirsch_square(LEVEL_RATIO ** -level)
-        hole = mesh.edge_nodes("hole 1")
+        hole = mesh.edge_nodes(RaiserId("hole", 1))
         peaks.append(nodal[hole, 0].max())
     estimate = richardson(peaks)
     assert estimate.value == pytest.approx(3.0, rel=0.01)

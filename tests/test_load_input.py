@@ -10,9 +10,9 @@ import pytest
 from stressraiser.geometry.errors import PartError
 from stressraiser.geometry.partfile import part_from_dict
 
-BASE = {"plate": {"length": 300.0, "width": 80.0, "thickness": 10.0},
-        "hole": [{"center": [0.0, 0.0], "diameter": 22.0}],
-        "material": {"E": 210000.0, "nu": 0.3}}
+from conftest import strap
+
+BASE = strap(load=None)
 
 
 def _part(load, **extra):

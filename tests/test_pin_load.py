@@ -15,6 +15,7 @@ from stressraiser.compare.check import check_part
 from stressraiser.fem.loads import part_loads, pin_peak_pressure
 from stressraiser.geometry.meshing import mesh_part
 from stressraiser.geometry.partfile import part_from_dict
+from stressraiser.geometry.registry import RaiserId
 
 P, D, T = 24000.0, 20.0, 8.0
 
@@ -32,7 +33,7 @@ def test_pin_pressure_sums_to_the_pin_force(direction):
     spec = _clevis(direction)
     mesh = mesh_part(spec, 0.7)
     f = part_loads(spec, mesh)
-    hole = mesh.edge_nodes("hole 1")
+    hole = mesh.edge_nodes(RaiserId("hole", 1))
     fx, fy = f[0::2][hole].sum(), f[1::2][hole].sum()
     a = math.radians(direction)
     # the pressure's resultant is the pin force along its direction (statics); the cosine distribution

@@ -15,6 +15,7 @@ from stressraiser.fem.quadratic import SAMPLE_POINTS, quadratic_edge_forces, qua
 from stressraiser.fem.solve import solve_constrained
 from stressraiser.geometry.meshing import mesh_part
 from stressraiser.geometry.quadratic import sub_triangles
+from stressraiser.geometry.registry import RaiserId
 
 from analytic import kirsch_stress
 from conftest import plate_with_hole
@@ -113,7 +114,7 @@ def test_curved_edge_length_and_loads():
     spec = plate_with_hole(length=160.0, width=160.0, thickness=2.0, holes=((0.0, 0.0, 16.0),))
     spec = dataclasses.replace(spec, mesh=dataclasses.replace(spec.mesh, order=2))
     mesh = mesh_part(spec, 1.0)
-    edges3 = mesh.quadratic_edges["hole 1"]
+    edges3 = mesh.quadratic_edges[RaiserId("hole", 1)]
     outward = lambda p: -p / np.linalg.norm(p, axis=1)[:, None]  # noqa: E731 - pressure pushes away from the centre
     f = quadratic_edge_forces(mesh.nodes, edges3, lambda p: -outward(p), 2.0)
     assert abs(f[0::2].sum()) < 1e-9 and abs(f[1::2].sum()) < 1e-9
@@ -144,7 +145,7 @@ def _kirsch_peak_t6(scale):
     u = solve_constrained(K, f, np.array([2 * p, 2 * p + 1, 2 * q + 1]), nodes=mesh.nodes)
     from stressraiser.fem.quadratic import sub_triangle_stresses
     nodal = recover_nodal(mesh, sub_triangle_stresses(mesh.nodes, mesh.quadratic, D, u), u, E)
-    hole = mesh.edge_nodes("hole 1")
+    hole = mesh.edge_nodes(RaiserId("hole", 1))
     top = hole[np.argmax(mesh.nodes[hole, 1])]
     return nodal[top, 0]  # s_xx = s_tt at (0, a)
 

@@ -10,6 +10,7 @@ from stressraiser.cli.main import main
 from stressraiser.compare.handbook import BUILDERS, CASES, evaluate, handbook_matches
 from stressraiser.compare.raiser_cases import build_row, inglis_kt
 from stressraiser.geometry.partfile import part_from_dict
+from stressraiser.geometry.registry import RaiserId
 
 
 @pytest.mark.parametrize("h_r, x, expected", [(1.0, 0.2, 2.422), (2.0, 0.3, 2.780), (10.0, 0.4, 4.436)])
@@ -121,7 +122,7 @@ def test_nothing_else_matches(part):
 
 def test_row_needs_an_even_pitch_and_seven_holes():
     row = build_row({"d/l": 0.4, "holes": 7})
-    assert handbook_matches(part_from_dict(row))[0].recognised.raiser == "hole 4"
+    assert handbook_matches(part_from_dict(row))[0].recognised.raiser == RaiserId("hole", 4)
     row["hole"][2]["center"][1] += 2.0  # one hole out of pitch by 1/70 of the width (tolerance 1/100)
     assert handbook_matches(part_from_dict(row)) == []
     assert handbook_matches(part_from_dict(build_row({"d/l": 0.4, "holes": 5}))) == []

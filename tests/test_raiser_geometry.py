@@ -9,7 +9,8 @@ import numpy as np
 import pytest
 
 from stressraiser.geometry.meshing import mesh_part
-from stressraiser.geometry.outline import part_polygon, plate_polygon, raiser_sections
+from stressraiser.geometry.outline import part_polygon, plate_polygon
+from stressraiser.geometry.registry import cuts
 from stressraiser.geometry.partfile import part_from_dict
 
 L, W, T = 300.0, 80.0, 10.0
@@ -72,8 +73,8 @@ def test_sections_of_each_raiser():
              slot=[{"center": [-50.0, 10.0], "length": 30.0, "width": 8.0, "angle": 90.0}],
              notch=[{"x": 20.0, "side": "both", "shape": "U", "depth": 6.0, "radius": 2.0}],
              step={"x": 60.0, "width": 50.0, "radius": 8.0})
-    sections = {name: x for name, x, _ in raiser_sections(s)}
-    assert sections == {"ellipse 1": -100.0, "slot 1": -50.0, "notch 1": 20.0, "fillet at x = 60": 68.0}
+    sections = {str(name): cut.point[0] for name, cut in cuts(s).items()}
+    assert sections == {"ellipse 1": -100.0, "slot 1": -50.0, "notch 1": 20.0, "fillet 1": 68.0, "fillet 2": 68.0}
 
 
 def test_mesh_names_every_edge_and_grades_by_curvature():
@@ -83,13 +84,13 @@ def test_mesh_names_every_edge_and_grades_by_curvature():
              notch=[{"x": 40.0, "side": "top", "shape": "V", "depth": 8.0, "radius": 1.5, "angle": 60.0}],
              step={"x": 90.0, "width": 56.0, "radius": 6.0})
     mesh = mesh_part(s)
-    assert set(mesh.edges) == {"held", "loaded", "side", "hole 1", "ellipse 1", "slot 1", "notch 1",
-                               "fillet at x = 90", "shoulder at x = 90"}
-    radius = {f.name: f.radius for f in mesh.features}
+    assert set(map(str, mesh.edges)) == {"held", "loaded", "side", "hole 1", "ellipse 1", "slot 1", "notch 1",
+                                         "fillet 1", "fillet 2", "shoulder"}
+    radius = {str(f.name): f.radius for f in mesh.features}
     # each raiser graded by its own smallest radius of curvature: the ellipse at the ends of its major axis
     # b^2 / a, the slot by its end radius, the notch and fillet by their root radii
     assert radius == pytest.approx({"hole 1": 6.0, "ellipse 1": 16.0 / 12.0, "slot 1": 4.0, "notch 1": 1.5,
-                                    "fillet at x = 90": 6.0})
+                                    "fillet 1": 6.0, "fillet 2": 6.0})
     for f in mesh.features:
         pairs = mesh.edges[f.name]
         lengths = np.linalg.norm(mesh.nodes[pairs[:, 1]] - mesh.nodes[pairs[:, 0]], axis=1)

@@ -6,20 +6,9 @@ from __future__ import annotations
 import pytest
 
 
-from conftest import assert_refused
+from conftest import assert_refused, strap, toml_text
 
-PLATE = """
-title = "raiser input base"
-[plate]
-length = 300.0
-width = 80.0
-thickness = 10.0
-[material]
-E = 210000.0
-nu = 0.3
-[load]
-axial = 100000.0
-"""
+PLATE = toml_text(strap(title="raiser input base", hole=None, load={"axial": 100000.0}))
 
 
 def part(*tables: str) -> str:
@@ -57,6 +46,20 @@ CASES = [
      ["notch 1", "notch 2", "crosses"]),
     ("notch touches the loaded end", part(SEMI.format(x=144, side="top", r=6)),
      ["notch 1", "crosses", "loaded end x = 150"]),
+    # placement: a raiser off the plate is refused naming it, never ignored (a notch at x = 160 on a plate
+    # ending at 150 gave Kt 1; one at 155 a mesher failure)
+    ("notch beyond the loaded end", part(SEMI.format(x=160, side="top", r=4)),
+     ["notch 1.x", "160 mm lies off the plate", "x = -150 mm to 150 mm"]),
+    ("notch axis past the end, mouth across it", part(NOTCH.format(x=155, side="both", shape="U", h=8, r=8)),
+     ["notch 1.x", "155 mm lies off the plate"]),
+    ("notch mouth across the held end", part(NOTCH.format(x=-146, side="bottom", shape="U", h=8, r=6)),
+     ["notch 1", "crosses", "held end x = -150"]),
+    ("slot off the plate", part(SLOT.format(x=400, y=0, l=30, w=8, a=0)), ["slot 1", "off the plate"]),
+    ("ellipse off the plate", part(ELLIPSE.format(x=0, y=90, l=20, w=8, a=0)), ["ellipse 1", "off the plate"]),
+    ("slot across the loaded end", part(SLOT.format(x=145, y=0, l=30, w=8, a=0)),
+     ["slot 1", "crosses", "loaded end x = 150"]),
+    ("ellipse across the side", part(ELLIPSE.format(x=0, y=-38, l=20, w=8, a=0)),
+     ["ellipse 1", "crosses", "the side y = -40"]),
     ("V notch shallower than its root", part(VEE.format(x=0, side="top", h=2, r=3, a=60)),
      ["notch 1.depth", "at least as deep as its root radius"]),
     ("V angle out of range", part(VEE.format(x=0, side="top", h=5, r=1, a=180)), ["notch 1.angle", "0 < angle < 180"]),

@@ -17,6 +17,7 @@ from stressraiser.geometry.errors import PartError
 from conftest import EXAMPLES
 
 
+@pytest.mark.slow  # every family at three points: the sweep; test_raiser_families.py keeps a fast check of each
 def test_builtin_suite_passes(tmp_path, capsys):
     record_path = tmp_path / "builtin.json"
     assert main(["regress", "--builtin", "--workers", "2", "--json", str(record_path)]) == 0

@@ -14,15 +14,15 @@ from stressraiser.compare.check import check_part
 from stressraiser.geometry.errors import PartError
 from stressraiser.geometry.partfile import parse_section_option, part_from_dict
 
+from conftest import strap
+
 CUTS = [{"x": -100.0}, {"x": 0.0}, {"through": [[-20.0, -40.0], [30.0, 40.0]]},
         {"through": [[60.0, 40.0], [120.0, -40.0]]}, {"y": 10.0}]
 
 
 def _part(load, holes, support=None, tolerance=0.01):
-    data = {"plate": {"length": 300.0, "width": 80.0, "thickness": 10.0},
-            "hole": [{"center": list(c), "diameter": d} for c, d in holes],
-            "material": {"E": 210000.0, "nu": 0.3}, "load": load, "section": CUTS,
-            "mesh": {"tolerance": tolerance}}
+    data = strap(hole=[{"center": list(c), "diameter": d} for c, d in holes], load=load, section=CUTS,
+                 mesh={"tolerance": tolerance})
     if support:
         data["support"] = support
     return part_from_dict(data)

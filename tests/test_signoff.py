@@ -32,7 +32,7 @@ from stressraiser.compare.signoff import with_signoff
 from stressraiser.geometry.partfile import parse_part, part_from_dict
 from stressraiser.geometry.spec import DesignSpec
 
-from conftest import EXAMPLES
+from conftest import EXAMPLES, strap
 
 EXACT = 1e-6  # hand-computed from exact geometry (the net width comes from a fine polygon, 2e-5 r)
 KT_REL = 0.01  # figures that carry the FE Kt, against the chart 4.1 fit
@@ -47,14 +47,7 @@ def peterson_chart_4_1(x: float) -> float:
 
 # --- the design check: hand-computed definitions on a converged part ------------------------------------
 
-STRAP = {
-    "title": "design hand case",
-    "plate": {"length": 300.0, "width": 80.0, "thickness": 10.0},
-    "hole": [{"center": [0.0, 0.0], "diameter": 22.0}],
-    "material": {"grade": "s355"},
-    "load": {"axial": 120_000.0},
-    "design": {"yield_factor": 1.5, "ultimate_factor": 2.0},
-}
+STRAP = strap(title="design hand case", material={"grade": "s355"}, design={"yield_factor": 1.5, "ultimate_factor": 2.0})
 
 
 @pytest.fixture(scope="module")

@@ -12,33 +12,13 @@ import pytest
 from stressraiser.geometry.errors import PartError
 from stressraiser.geometry.partfile import parse_part
 
-from conftest import assert_refused
+from conftest import STRAP, assert_refused, strap, toml_text
 
 PSI = 4.4482216152605 / 25.4**2  # MPa per psi (NIST SP 811, exact)
 
-BASE = """
-title = "sign-off input base"
-[plate]
-length = 300.0
-width = 80.0
-thickness = 10.0
-[[hole]]
-center = [0.0, 0.0]
-diameter = 22.0
-[material]
-E = 210000.0
-nu = 0.3
-yield = 355.0
-ultimate = 470.0
-family = "steel"
-[load]
-axial = 120000.0
-[design]
-yield_factor = 1.5
-[fatigue]
-min_force = 0.0
-max_force = 60000.0
-"""
+BASE = toml_text(strap(title="sign-off input base",
+                      material={**STRAP["material"], "yield": 355.0, "ultimate": 470.0, "family": "steel"},
+                      design={"yield_factor": 1.5}, fatigue={"min_force": 0.0, "max_force": 60000.0}))
 
 
 def _swap(old: str, new: str, text: str = BASE) -> str:

@@ -20,8 +20,9 @@ from stressraiser.fem.supports import part_supports
 from stressraiser.geometry.errors import PartError
 from stressraiser.geometry.meshing import mesh_part
 from stressraiser.geometry.partfile import part_from_dict
+from stressraiser.geometry.registry import RaiserId
 
-from conftest import plate_with_hole
+from conftest import plate_with_hole, strap
 
 D = plane_stress_matrix(210000.0, 0.3)
 
@@ -49,7 +50,7 @@ def pardiso_everywhere(monkeypatch):
 
 def _edge_strain(mesh, u):
     """Tangential strain of every hole-edge segment (the quantity the peak is made from)."""
-    e = mesh.edges["hole 1"]
+    e = mesh.edges[RaiserId("hole", 1)]
     chord = mesh.nodes[e[:, 1]] - mesh.nodes[e[:, 0]]
     du = u.reshape(-1, 2)[e[:, 1]] - u.reshape(-1, 2)[e[:, 0]]
     return np.einsum("ij,ij->i", du, chord) / np.einsum("ij,ij->i", chord, chord)
@@ -150,5 +151,4 @@ def test_solver_is_recorded_and_results_agree():
 ])
 def test_bad_mesh_options_name_the_key(key, value, words):
     with pytest.raises(PartError, match=words):
-        part_from_dict({"plate": {"length": 300.0, "width": 80.0, "thickness": 10.0},
-                        "material": {"E": 210000.0, "nu": 0.3}, "load": {"axial": 1000.0}, "mesh": {key: value}})
+        part_from_dict(strap(hole=None, load={"axial": 1000.0}, mesh={key: value}))
