@@ -12,12 +12,12 @@ from __future__ import annotations
 
 from typing import Any
 
-from .kinds import bar, ellipse, hole, notch, slot
+from .kinds import bar, ellipse, hole, notch, slot, window
 from .kinds.base import NetCut, OutlineKind, OutlineRaiser, RaiserId, RaiserKind, raiser_label
 from .readers import array_of_tables
 from .spec import PartSpec
 
-RAISER_KINDS: tuple[RaiserKind, ...] = (hole, ellipse, slot, notch)
+RAISER_KINDS: tuple[RaiserKind, ...] = (hole, ellipse, slot, notch, window)
 OUTLINE_KINDS: tuple[OutlineKind, ...] = (bar,)
 
 __all__ = ["RAISER_KINDS", "OUTLINE_KINDS", "RaiserId", "raiser_label", "raiser_kind", "kind_of", "outline_of",
