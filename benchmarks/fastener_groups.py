@@ -33,10 +33,11 @@ LOAD = (150000.0, 20000.0, 1.5e6)  # N, N, N mm on the plate through the right-h
 
 
 def part():
-    from stressraiser.geometry.spec import Hole, Load, Material, PartSpec, Plate
+    from stressraiser.geometry.kinds.hole import Hole
+    from stressraiser.geometry.spec import Load, Material, PartSpec, Plate
 
     holes = tuple(Hole(c, 16.0) for c in HOLD) + tuple(Hole(c, 16.3) for c in PULL)
-    return PartSpec("spreader splice plate", Plate(420.0, 160.0, 12.0), Material(210000.0, 0.3), Load(), holes=holes)
+    return PartSpec("spreader splice plate", Plate(420.0, 160.0, 12.0), Material(210000.0, 0.3), Load(), raisers=holes)
 
 
 def groups(spec):

@@ -34,9 +34,10 @@ from shapely.geometry import LinearRing, Polygon
 
 from .arcfit import ArcChain, distance_to
 from .errors import PartError
-from .outline import hole_polygon, segment_coords, wire_polygon
+from .kinds.hole import Hole
+from .kinds.hole import circle as hole_circle
+from .outline import loop_polygon, segment_coords, wire_polygon
 from .shapes import Arc, Line, Point, Segment, segment_points
-from .spec import Hole
 
 FULL_TURN = 2.0 * math.pi
 CHORD_TOLERANCE = 0.01  # mm: default largest distance between a fitted arc and its ellipse or spline
@@ -152,7 +153,7 @@ def check_positive(key: str, value: float) -> None:
 def cut_polygon(loops: CutLoops) -> Polygon:
     """The part's material region as a shapely polygon: the outline less the holes and cut-outs (curves as
     fine polygons, chord error about 2e-5 of the radius, geometry/outline.py)."""
-    inner = [hole_polygon(h) for h in loops.holes] + [wire_polygon(c) for c in loops.cutouts]
+    inner = [loop_polygon((hole_circle(h),)) for h in loops.holes] + [wire_polygon(c) for c in loops.cutouts]
     outline = wire_polygon(loops.outline)
     return outline.difference(shapely.union_all(inner)) if inner else outline
 

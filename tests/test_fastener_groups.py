@@ -23,7 +23,8 @@ from stressraiser.fem.solve import SolverError
 from stressraiser.fem.supports import held_end_dofs, part_supports
 from stressraiser.geometry.errors import PartError
 from stressraiser.geometry.meshing import mesh_part
-from stressraiser.geometry.spec import Hole, Load, Material, PartSpec, Plate, Support
+from stressraiser.geometry.kinds.hole import Hole
+from stressraiser.geometry.spec import Load, Material, PartSpec, Plate, Support
 from stressraiser.geometry.symmetry import symmetry_tolerance
 
 STEEL, ALUMINIUM, NU = 210000.0, 70000.0, 0.3
@@ -33,7 +34,7 @@ NOTHING = np.zeros(0, dtype=np.int64)  # no support: the groups alone hold the p
 def plate(length, width, thickness, centres, diameter, E=STEEL, symmetry=()):
     """A plate with holes of one diameter at `centres` (mm)."""
     return PartSpec("test plate", Plate(length, width, thickness), Material(E, NU), Load(),
-                    holes=tuple(Hole(c, diameter) for c in centres), support=Support("x", tuple(symmetry)))
+                    raisers=tuple(Hole(c, diameter) for c in centres), support=Support("x", tuple(symmetry)))
 
 
 def system(spec, scale=1.0):
@@ -250,7 +251,7 @@ def link():
     clearance (a force and a moment) and a three-bolt group with Huth-flexible bolts (a force and a moment
     about a point off the group)."""
     spec = PartSpec("link", Plate(240.0, 90.0, 8.0), Material(STEEL, NU), Load(),
-                    holes=tuple(Hole(c, 10.2) for c in LINK[:6]) + tuple(Hole(c, 10.0) for c in LINK[6:]))
+                    raisers=tuple(Hole(c, 10.2) for c in LINK[:6]) + tuple(Hole(c, 10.0) for c in LINK[6:]))
     mesh, K = system(spec)
     stiffness, source = huth_stiffness(10.0, 8.0, STEEL, 8.0, STEEL, STEEL)
     groups = [
