@@ -11,7 +11,9 @@ its numbers keep their kind, so the summary and the report show them in the part
   curvature and REACH_ELEMENTS of its edge elements. With raisers present, a peak elsewhere (at a support,
   a loaded end, or inside the material) points to a load or support effect, or a fault of the model.
 - A refinement that did not refine: two successive levels with (nearly) the same element count, or the
-  same peak to the last digit. Richardson extrapolation then reads an unchanged value as converged.
+  same peak to the last digit. Richardson extrapolation then reads an unchanged value as converged. The
+  far zones of a long plate (geometry/far_field.py) keep their elements from level to level, so they are
+  left out of the count.
 """
 
 from __future__ import annotations
@@ -36,7 +38,7 @@ def result_warnings(spec: PartSpec, study: Study, solution: Solution, peak, sect
     far = _away_from_raisers(spec, solution, peak.location)
     if far:
         out.append(far)
-    out += _stalled(study)
+    out += _stalled(spec, study, solution)
     return out
 
 
@@ -96,13 +98,31 @@ def _away_from_raisers(spec: PartSpec, solution: Solution, location: tuple[float
                   "end effect is expected to govern there")
 
 
-def _stalled(study: Study) -> list[Notice]:
+def _stalled(spec: PartSpec, study: Study, solution: Solution) -> list[Notice]:
     levels = study.levels
+    far = far_zone_elements(spec, solution) * levels[-1].elements / max(solution.mesh.n_elements, 1)  # modelled
     for a, b in zip(levels, levels[1:]):
-        if b.elements < MIN_GROWTH * a.elements:
-            return [notice(f"mesh refinement stalled: a level has {b.elements} elements after {a.elements}; the "
-                           "convergence estimate is not reliable")]
+        if b.elements - far < MIN_GROWTH * (a.elements - far):
+            where = " away from the far zones of the long plate" if far else ""
+            return [notice(f"mesh refinement stalled: a level has {b.elements - far:.0f} elements{where} after "
+                           f"{a.elements - far:.0f}; the convergence estimate is not reliable")]
     if len(levels) >= 2 and levels[-1].peak == levels[-2].peak:
         return [notice("the last two mesh levels gave exactly the same peak; the refinement may not have changed "
                        "the mesh at the peak, and the convergence estimate is not reliable")]
     return []
+
+
+def far_zone_elements(spec: PartSpec, solution: Solution) -> int:
+    """Triangles of the solution's (full-part) mesh whose centroid lies in a far zone of the long plate
+    or its mirror image in a symmetry plane x = 0: elements that no level refines."""
+    from ..geometry.far_field import far_zones
+
+    zones = far_zones(spec)
+    if not zones:
+        return 0
+    mesh = solution.mesh
+    x = mesh.nodes[mesh.triangles, 0].mean(axis=1)
+    if "x" in spec.support.symmetry:
+        x = abs(x)
+    inside = sum(((x > a) & (x < b)).astype(int) for a, b in zones)
+    return int(inside.sum())

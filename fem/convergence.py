@@ -25,6 +25,7 @@ from .budget import BudgetError, check_first_level, level_over_budget
 from .equivalent_peak import von_mises_peak
 from .guards import check_fields
 from .raiser_peaks import raiser_peaks
+from .solve import RoundOffError
 
 LEVEL_RATIO = math.sqrt(2.0)  # element size ratio between successive levels
 FIRST_SCALE = 1.0  # element-size scale of the coarsest level
@@ -110,7 +111,7 @@ def converge(spec: PartSpec, report: Callable[[Level], None] | None = None) -> t
             break
         try:
             level_solution = solve_part(spec, mesh, _contact_start(solution))
-        except BudgetError as exc:  # memory: keep the levels solved so far, unless there are none
+        except (BudgetError, RoundOffError) as exc:  # memory or round-off: keep the levels solved so far, if any
             if not levels:
                 raise
             stop = str(exc)

@@ -21,6 +21,7 @@ import numpy as np
 
 from shapely.geometry import Point
 
+from .far_field import FarGrading, across_cut, far_cuts, grown_size_expression
 from .bands import Piece, add_tools, ellipse_layers, make_transfinite, raiser_pieces
 from .mesh import EdgeName, Feature, Mesh
 from .quadratic import QUADRATIC_SIZE, elevate_and_extract, sub_edges, sub_triangles
@@ -56,6 +57,7 @@ class Sizing:
     band_share: the layered band takes at most this fraction of the raiser's thinnest ligament.
     bending_far_fraction: under bending, shear or a pin load, the far-field size at scale 1 as a fraction
         of the plate width; it follows `scale` (see `far_size`).
+    far_grading: how the size grows along the far zones of a long plate (geometry/far_field.py).
     """
 
     edge_fraction: float = 0.12
@@ -67,6 +69,7 @@ class Sizing:
     layers: int = 8
     band_share: float = 0.3
     bending_far_fraction: float = 0.1
+    far_grading: FarGrading = FarGrading()
 
 
 from .errors import MeshError  # noqa: E402  (defined with PartError; kept importable from here)
@@ -131,7 +134,7 @@ def mesh_part(spec: PartSpec, scale: float = 1.0, sizing: Sizing = Sizing()) -> 
     pieces = band_pieces(raisers, features, sizing)
     with _gmsh_session():
         try:
-            boundary = _build(spec, pieces)
+            boundary = _build(spec, pieces, far_cuts(spec, sizing.far_grading))
             curves = _name_curves(spec, boundary)
             _size_field(spec, raisers, features, scale, sizing)
             gmsh.model.mesh.generate(2)
@@ -153,9 +156,10 @@ def mesh_part(spec: PartSpec, scale: float = 1.0, sizing: Sizing = Sizing()) -> 
     return mesh
 
 
-def _build(spec: PartSpec, pieces: list[Piece]) -> list[int]:
-    """Create the OCC surfaces (the outline less the cut-outs, split by the bands' curves); set the band
-    pieces transfinite; return the tags of the curves on the part's boundary."""
+def _build(spec: PartSpec, pieces: list[Piece], cuts: tuple[float, ...] = ()) -> list[int]:
+    """Create the OCC surfaces (the outline less the cut-outs, split by the bands' curves and by lines
+    across the far zones of a long plate at x = each of `cuts`); set the band pieces transfinite; return
+    the tags of the curves on the part's boundary."""
     occ = gmsh.model.occ
     plate = _wire_surface([e.segment for e in outline_of(spec).path(spec)])
     part = occ.cut([(2, plate)], _cutouts(spec))[0] if spec.raisers else [(2, plate)]
@@ -166,7 +170,7 @@ def _build(spec: PartSpec, pieces: list[Piece]) -> list[int]:
     def skip(a, b) -> bool:  # a line across a band that lies along the outline is the outline itself
         return outline.distance(Point(0.5 * (a[0] + b[0]), 0.5 * (a[1] + b[1]))) <= on_outline
 
-    tools = add_tools(pieces, skip)
+    tools = add_tools(pieces, skip) + [(1, _line(*across_cut(spec, x))) for x in cuts]
     if tools:
         part = [d for d in occ.fragment(part, tools)[0] if d[0] == 2]
     if spec.support.symmetry:  # keep the positive side of each symmetry plane
@@ -175,9 +179,15 @@ def _build(spec: PartSpec, pieces: list[Piece]) -> list[int]:
     occ.synchronize()
     surfaces = gmsh.model.getEntities(2)
     found = make_transfinite(pieces, surfaces, PIECE_TOLERANCE * max(length, width))
-    if len(surfaces) != 1 + found:
-        raise MeshError(f"the part split into {len(surfaces) - found} pieces; features must leave it in one piece")
+    if len(surfaces) != 1 + found + len(cuts):
+        raise MeshError(f"the part split into {len(surfaces) - found - len(cuts)} pieces; features must leave it in one piece")
     return [abs(t) for _, t in gmsh.model.getBoundary(surfaces, combined=True, oriented=False)]
+
+
+def _line(a: tuple[float, float], b: tuple[float, float]) -> int:
+    """An OCC line from a to b (mm)."""
+    occ = gmsh.model.occ
+    return occ.addLine(occ.addPoint(a[0], a[1], 0.0), occ.addPoint(b[0], b[1], 0.0))
 
 
 def _cutouts(spec: PartSpec) -> list[tuple[int, int]]:
@@ -266,7 +276,8 @@ def _size_field(spec: PartSpec, raisers: list[Raiser], features: tuple[Feature, 
                 sizing: Sizing) -> None:
     """Element size grows linearly with distance from each raiser edge, capped far away.
 
-    The far-field cap is `far_size`. Distances are exact MathEval expressions (far cheaper to evaluate
+    The far-field cap is `far_size`, growing along the far zones of a long plate (geometry/far_field.py).
+    Distances are exact MathEval expressions (far cheaper to evaluate
     than a sampled Distance field).
     """
     field = gmsh.model.mesh.field
@@ -278,7 +289,7 @@ def _size_field(spec: PartSpec, raisers: list[Raiser], features: tuple[Feature, 
             f"{feature.edge_size!r} + {scale * sizing.growth!r} * {distance_expression(raiser)}"))
         graded.append(grade)
     cap = field.add("MathEval")
-    field.setString(cap, "F", checked_expression(repr(far)))
+    field.setString(cap, "F", checked_expression(grown_size_expression(spec, far, sizing.far_grading)))
     smallest = field.add("Min")
     field.setNumbers(smallest, "FieldsList", graded + [cap])
     field.setAsBackgroundMesh(smallest)
