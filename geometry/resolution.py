@@ -1,6 +1,6 @@
-"""Limits that keep a valid-looking part inside what the mesher can resolve in bounded time.
+"""Limits that keep a valid-looking part inside what the mesher and the elements can resolve.
 
-Two checks, each raising PartError with one line naming the feature and the limit:
+Three checks, each raising PartError with one line naming the feature and the limit:
 
 - `check_feature_count`, run before any geometric check: the geometric checks compare every feature
   with every other one and the size field evaluates one expression per raiser at every mesh point, so
@@ -10,6 +10,16 @@ Two checks, each raising PartError with one line naming the feature and the limi
   width). A smaller raiser, say a 1e-6 mm hole in an 80 mm strap, cannot be meshed around at all. And the
   plate must be at least MIN_LENGTH_FRACTION of its width long: the far-field elements are 15 % of the
   width, and a shorter strip (1 mm long, 1000 mm wide) came out of gmsh with degenerate triangles.
+  Also `check_locking`: linear triangles in plane strain lock as Poisson's ratio nears 1/2 (volumetric
+  locking: a nearly incompressible material makes the constant-strain triangle far too stiff), so a part
+  with nu above LOCKING_NU in plane strain with mesh.order = 1 is refused and pointed to quadratic
+  triangles. Measured (benchmarks/model_limits.py: three bundled parts, a hole in tension, a hole in a
+  clamped arm under end shear and tension, U and V notches in tension; converged at 1 %, against the same
+  part in plane stress, whose Kt is the same exactly, docs/references.md [Michell]): with linear triangles
+  the Kt error grows roughly like 1 / (1 - 2 nu): -0.24 to -0.45 % at nu = 0.45, which every band still
+  covered; -0.45 to -0.63 % at 0.47, outside two of the three bands; -0.8 to -1.4 % at 0.49; at 0.499 the
+  strap's Kt was 6.6 % low and "converged" with a band of 0.8 %. Quadratic triangles stayed within 0.22 %
+  of the reference up to nu = 0.499.
 """
 
 from __future__ import annotations
@@ -22,6 +32,7 @@ from .validate import FINEST_ELEMENT_FRACTION
 MAX_FEATURES = 200  # features and sections in one part file, all kinds together
 MIN_CURVATURE_ELEMENTS = 2.0  # smallest raiser radius, in finest elements
 MIN_LENGTH_FRACTION = 0.01  # shortest plate, as a fraction of its width
+LOCKING_NU = 0.45  # largest Poisson's ratio for linear triangles in plane strain (see the module docstring)
 
 
 def feature_count(spec: PartSpec) -> int:
@@ -42,7 +53,9 @@ def min_curvature(spec: PartSpec) -> float:
 
 
 def check_resolution(spec: PartSpec) -> None:
-    """Refuse a raiser whose smallest radius of curvature is below `min_curvature(spec)`."""
+    """Refuse a raiser whose smallest radius of curvature is below `min_curvature(spec)`, a plate too
+    short for its width, and a plane-strain part that would lock linear triangles (`check_locking`)."""
+    check_locking(spec)
     from .raisers import part_raisers  # raisers imports validate; import here to keep the order one way
 
     length, width = outline_size(spec)
@@ -57,3 +70,13 @@ def check_resolution(spec: PartSpec) -> None:
                 f"{raiser.id}: radius {raiser.curvature:.3g} mm is below the smallest the mesh resolves, "
                 f"{limit:.3g} mm ({MIN_CURVATURE_ELEMENTS * FINEST_ELEMENT_FRACTION:.1%} of the plate width "
                 f"{outline_size(spec)[1]:g} mm); enlarge it or model a narrower part")
+
+
+def check_locking(spec: PartSpec) -> None:
+    """Refuse plane strain with nu above LOCKING_NU on linear triangles (volumetric locking)."""
+    nu = spec.material.nu
+    if spec.plate.condition == "plane-strain" and spec.mesh.order == 1 and nu > LOCKING_NU:
+        raise PartError(f"material.nu: {nu:g} in plane strain locks linear triangles (volumetric locking: Kt comes out "
+                        f"several per cent low with a band that does not show it); linear triangles allow nu up to "
+                        f"{LOCKING_NU:g} in plane strain: set mesh.order = 2 (quadratic triangles, measured right to "
+                        "nu = 0.499) or use plane stress if the part is thin")
