@@ -14,6 +14,7 @@ its numbers keep their kind, so the summary and the report show them in the part
   same peak to the last digit. Richardson extrapolation then reads an unchanged value as converged. The
   far zones of a long plate (geometry/far_field.py) keep their elements from level to level, so they are
   left out of the count.
+- Inputs that were probably not what was meant, or a part beyond the model's scope: compare/plausibility.py.
 """
 
 from __future__ import annotations
@@ -24,6 +25,7 @@ from ..fem.convergence import Study
 from ..fem.analysis import Solution
 from ..geometry.spec import PartSpec
 from .notices import Amount, Notice, notice
+from .plausibility import input_warnings
 
 KT_SLACK = 0.02  # Kt(net) may fall this far below 1 (plus twice the equilibrium error) before a warning
 REACH_ELEMENTS = 4.0  # a peak within this many edge elements of a raiser's edge belongs to it
@@ -39,7 +41,7 @@ def result_warnings(spec: PartSpec, study: Study, solution: Solution, peak, sect
     if far:
         out.append(far)
     out += _stalled(spec, study, solution)
-    return out
+    return out + input_warnings(spec, solution, peak.stress)
 
 
 def _non_finite(peak, section, kt) -> list[Notice]:
