@@ -38,7 +38,10 @@ import math
 import numpy as np
 
 from ..fem.analysis import Solution
+from ..geometry.far_field import narrowest_width
+from ..geometry.kinds import bar
 from ..geometry.materials import MATERIALS
+from ..geometry.registry import RaiserId, outline_size
 from ..geometry.spec import PartSpec
 from .notices import Amount, Notice, notice
 
@@ -105,7 +108,7 @@ def _large_displacement(spec: PartSpec, solution: Solution, check_e: str) -> Not
     if u.size == 0:
         return None
     largest = float(np.max(np.hypot(u[:, 0], u[:, 1])))
-    size = max(spec.plate.length, spec.plate.width)
+    size = max(outline_size(spec))
     if not largest > DISPLACEMENT_LIMIT * size:
         return None
     return notice("the largest displacement, ", Amount(largest, "length"), f", is {largest / size:.0%} of the part's "
@@ -117,7 +120,7 @@ def hole_deformation(spec: PartSpec, solution: Solution, hole: int) -> float:
     """How much the edge of hole `hole` (1-based) changes shape (mm): the spread of its nodes' radial
     displacements relative to their mean displacement (about the change of its diameter)."""
     mesh = solution.mesh
-    name = f"hole {hole}"
+    name = RaiserId("hole", hole)
     if name not in mesh.edges:
         return 0.0
     nodes = mesh.edge_nodes(name)
@@ -180,7 +183,7 @@ def _light_load(spec: PartSpec, peak: float) -> Notice | None:
 def euler_load(spec: PartSpec, length: float) -> float:
     """Euler load (N) of the strap as a pinned-pinned column of `length` (mm) about its weak axis:
     pi^2 E I / L^2 with I = A b^2 / 12, A = w t, b = min(w, t), w the narrowest width (common practice)."""
-    w = min(spec.plate.width, spec.step.width) if spec.step is not None else spec.plate.width
+    w = narrowest_width(spec)
     t = spec.plate.thickness
     inertia = w * t * min(w, t) ** 2 / 12.0
     return math.pi ** 2 * spec.material.E * inertia / length ** 2
@@ -188,7 +191,9 @@ def euler_load(spec: PartSpec, length: float) -> float:
 
 def compression(spec: PartSpec) -> tuple[float, float, str] | None:
     """(compressive force in N, column length in mm, where it acts) of an end or pin load that pushes
-    the strap towards its held end; None when the strap is not compressed that way."""
+    the bar towards its held end; None when the strap is not compressed that way or is no bar."""
+    if spec.outline != bar.NAME:
+        return None
     load, half = spec.load, 0.5 * spec.plate.length
     if load.kind in ("axial", "combined") and load.axial < 0.0:
         return -load.axial, spec.plate.length, "the held end to the loaded end"
@@ -210,7 +215,7 @@ def _buckling(spec: PartSpec) -> Notice | None:
     share = force / critical
     if not share > BUCKLING_SHARE:
         return None
-    inertia = "w t^3 / 12" if spec.plate.thickness <= spec.plate.width else "t w^3 / 12"
+    inertia = "w t^3 / 12" if spec.plate.thickness <= narrowest_width(spec) else "t w^3 / 12"
     verdict = "it buckles before this load is reached" if share >= 1.0 else "it may buckle"
     return notice("the strap is compressed by ", Amount(force, "force"), f", {_times(share)} its Euler load ",
                   Amount(critical, "force"), " (a pinned-pinned column ", Amount(length, "length"), f" long, from "

@@ -14,12 +14,15 @@ from stressraiser.compare.check import check_part
 from stressraiser.geometry.partfile import parse_part
 from stressraiser.geometry.resolution import LOCKING_NU
 
-from conftest import STRAP_TEXT, assert_refused, plate_with_hole
+from conftest import STRAP, assert_refused, plate_with_hole, strap, toml_text
 
 
 def strap_text(nu: float, condition: str = "plane-strain", order: int | None = None) -> str:
-    text = STRAP_TEXT.replace("nu = 0.3", f"nu = {nu}").replace("thickness = 10.0", f'thickness = 10.0\ncondition = "{condition}"')
-    return text + (f"[mesh]\norder = {order}\n" if order is not None else "")
+    """The bundled strap (examples/winch_strap.toml) with Poisson's ratio `nu`, the stress state and the
+    element order."""
+    part = strap(plate={**STRAP["plate"], "condition": condition}, material={**STRAP["material"], "nu": nu},
+                 mesh={"order": order} if order is not None else None)
+    return toml_text(part)
 
 
 def test_near_incompressible_plane_strain_on_linear_triangles_is_refused(tmp_path, capsys):
