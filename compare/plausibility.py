@@ -17,8 +17,8 @@ a number in a wrong unit, an overload, a load far too small, a strap that buckle
   examples gives Kt 2.661 with E in GPa and 2.657 with a 0.001 mm clearance, against 3.760 with its
   0.1 mm), while at working loads a steel hole deforms by some hundredths of a millimetre: a wrong E or
   load is the likely cause.
-- The elastic peak above the ultimate strength: a stress the material cannot carry, even where local
-  yielding may redistribute it. When only the yield strength is given, above the largest ultimate-to-yield
+- The elastic peak above the ultimate strength: a stress the material cannot carry; the part relies on
+  yielding there, which the static check of a ductile part may accept but no cyclic load does. When only the yield strength is given, above the largest ultimate-to-yield
   ratio of the built-in materials (annealed 304 stainless, about 2.5) times it: above any ultimate that
   yield strength allows. Not above the yield strength itself: a ductile part's elastic peak commonly
   passes it under static load, which the sign-off treats as local yielding (common practice).
@@ -162,8 +162,9 @@ def _beyond_strength(spec: PartSpec, peak: float) -> Notice | None:
         return None
     if not abs(peak) > limit:
         return None
-    return notice("the elastic peak ", Amount(peak, "stress"), " exceeds ", *words, ": the material cannot carry it, "
-                  "even with local yielding; check the load and its units, and the part's size")
+    return notice("the elastic peak ", Amount(peak, "stress"), " exceeds ", *words, ": no real stress reaches it, "
+                  "the part relies on yielding there (a static check of a ductile part may accept it on the net "
+                  "section; a cyclic load will not); check the load and its units, and the part's size")
 
 
 LOAD_KEYS = {"axial": "load.axial", "combined": "load.axial", "bending": "load.bending and load.shear",
