@@ -29,6 +29,11 @@ source of the reference:
     tolerance = 0.01
     source = "Howland (1930), as tabulated"
 
+A `set` key may hold `*` for every entry of an array of tables, as a sweep's --vary key does
+(`"hole.*.diameter" = 8.0` sets every hole's diameter). A family's parameters are checked before anything
+runs: each must be one the family takes, inside the range of the family's published cases, and the part
+they make must pass the part-file reader.
+
 A case passes when its check converged and its FE Kt is within the tolerance of the reference.
 
 Which FE Kt: `kt_of = "case"` compares the Kt of the raiser the part's handbook case describes (the middle
@@ -57,9 +62,10 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
-from ..geometry.errors import PartError
-from ..geometry.partfile import part_from_dict
-from ..geometry.partkeys import check_key_known, flatten_keys, resolve_key, set_value
+from ..geometry.errors import PartError, clipped
+from ..geometry.partfile import MAX_PART_BYTES, part_from_dict
+from ..geometry.partkeys import check_key_known, expand_key, flatten_keys, resolve_key, set_value
+from ..geometry.textfile import read_input_text
 from . import handbook
 from .handbook import Case, handbook_matches
 
@@ -68,6 +74,7 @@ CASE_KEYS = {"name", "part", "set", "family", "parameters", "reference", "defini
              "kt_of"}
 KT_OF = ("case", "part")  # the raiser the handbook case describes, or the part's governing peak
 TOP_KEYS = {"title", "defaults", "case"}
+MAX_SUITE_BYTES = 4_000_000  # longest suite file read (thousands of cases)
 
 POINT_FRACTIONS = (0.2, 0.5, 0.8)  # where the built-in points sit inside each parameter's range
 TABLE_TOLERANCE = 0.01  # tabulated solutions (Howland's table): 1 % (docs/references.md)
@@ -163,11 +170,7 @@ def load_suite(path: str | Path) -> Suite:
     """Read and validate a suite file; every mistake raises PartError naming the case and the key."""
     path = Path(path)
     try:
-        data = tomllib.loads(path.read_text(encoding="utf-8"))
-    except FileNotFoundError:
-        raise PartError(f"{path}: no such suite file") from None
-    except (OSError, UnicodeDecodeError) as exc:
-        raise PartError(f"{path}: cannot be read as UTF-8 text ({exc.__class__.__name__})") from None
+        data = tomllib.loads(read_input_text(path, "suite file", MAX_SUITE_BYTES))
     except tomllib.TOMLDecodeError as exc:
         raise PartError(f"{path}: not valid TOML: {exc}") from None
     _known(data, TOP_KEYS, f"{path}")
@@ -197,7 +200,7 @@ def _suite_case(row: dict[str, Any], where: str, folder: Path) -> SuiteCase:
     name = row.get("name")
     if not isinstance(name, str) or not name.strip():
         raise PartError(f"{where}: name: a non-empty text naming the case is required")
-    where = f"{where} ({name})"
+    where = f"{where} ({clipped(name, 60)})"
     _known(row, CASE_KEYS, where)
     if ("part" in row) == ("family" in row):
         raise PartError(f"{where}: give either part (a part file) or family (a handbook family), not "
@@ -209,11 +212,17 @@ def _suite_case(row: dict[str, Any], where: str, folder: Path) -> SuiteCase:
                         "set = { \"hole.1.diameter\" = 14.0 }")
     for text, value in flatten_keys(overrides).items():
         try:
-            key = resolve_key(part, text)
-            check_key_known(part, key, value, part_from_dict)
+            for each in expand_key(part, text):  # hole.*.diameter: every [[hole]] entry
+                key = resolve_key(part, each)
+                check_key_known(part, key, value, part_from_dict)
+                part = set_value(part, key, value)
         except PartError as exc:
             raise PartError(f"{where}: set: {exc}") from None
-        part = set_value(part, key, value)
+    if "family" in row:
+        try:
+            part_from_dict(part)
+        except PartError as exc:
+            raise PartError(f"{where}: parameters: the {row['family']} part they make is refused: {exc}") from None
     definition = row.get("definition")
     if definition not in DEFINITIONS:
         raise PartError(f"{where}: definition: {definition!r} is not allowed; use \"net\" or \"gross\" "
@@ -237,10 +246,10 @@ def _row_part(row: dict[str, Any], where: str, folder: Path) -> dict[str, Any]:
             raise PartError(f"{where}: part: must be the path of a part file (relative to the suite file)")
         path = folder / name
         try:
-            return tomllib.loads(path.read_text(encoding="utf-8"))
-        except FileNotFoundError:
-            raise PartError(f"{where}: part: {path}: no such part file") from None
-        except (OSError, UnicodeDecodeError, tomllib.TOMLDecodeError) as exc:
+            return tomllib.loads(read_input_text(path, "part file", MAX_PART_BYTES))
+        except PartError as exc:
+            raise PartError(f"{where}: part: {exc}") from None
+        except tomllib.TOMLDecodeError as exc:
             raise PartError(f"{where}: part: {path}: cannot be read as TOML ({exc})") from None
     family = row["family"]
     if family not in handbook.BUILDERS:
@@ -251,11 +260,40 @@ def _row_part(row: dict[str, Any], where: str, folder: Path) -> dict[str, Any]:
             isinstance(v, (int, float)) and not isinstance(v, bool) for v in params.values()):
         raise PartError(f"{where}: parameters: a table of the family's numbers is required, e.g. "
                         "parameters = { \"d/W\" = 0.3 }")
+    check_family_parameters(family, params, f"{where}: parameters")
     try:
         return handbook.BUILDERS[family]({k: float(v) for k, v in params.items()})
-    except Exception as exc:  # the builder's own refusal (a missing or impossible parameter)
+    except KeyError as exc:
+        raise PartError(f"{where}: parameters: {exc.args[0]} is missing; the {family} family takes "
+                        f"{', '.join(family_ranges(family))}") from None
+    except Exception as exc:  # the builder's own refusal (an impossible combination)
         raise PartError(f"{where}: parameters: the {family} builder cannot make this part "
                         f"({type(exc).__name__}: {exc})") from None
+
+
+def family_ranges(family: str) -> dict[str, tuple[float, float]]:
+    """Each parameter of a handbook family and the widest range its published cases cover."""
+    ranges: dict[str, tuple[float, float]] = {}
+    for case in handbook.CASES:
+        if case.family == family:
+            for name, (lo, hi) in case.ranges.items():
+                low, high = ranges.get(name, (lo, hi))
+                ranges[name] = (min(low, lo), max(high, hi))
+    return ranges
+
+
+def check_family_parameters(family: str, params: Mapping[str, float], where: str) -> None:
+    """Refuse, before anything runs, a parameter the family does not take or a value outside the range of
+    every published case of the family (naming the parameter and the range)."""
+    ranges = family_ranges(family)
+    for name, value in params.items():
+        if name not in ranges:
+            raise PartError(f"{where}: {clipped(name, 60)!r} is not a parameter of the {family} family; it takes "
+                            f"{', '.join(ranges)}")
+        lo, hi = ranges[name]
+        if not lo <= value <= hi:
+            raise PartError(f"{where}: {name} = {value:g} is outside the range of the {family} family's published "
+                            f"cases, {lo:g} <= {name} <= {hi:g}")
 
 
 def _number(row: dict[str, Any], key: str, where: str, low: float, high: float) -> float:
@@ -270,7 +308,7 @@ def _number(row: dict[str, Any], key: str, where: str, low: float, high: float) 
 def _known(t: dict[str, Any], allowed: set[str], where: str) -> None:
     for key in t:
         if key not in allowed:
-            raise PartError(f"{where}: {key}: unknown key; allowed here: {', '.join(sorted(allowed))}")
+            raise PartError(f"{where}: {clipped(str(key), 60)}: unknown key; allowed here: {', '.join(sorted(allowed))}")
 
 
 # --- the built-in suite --------------------------------------------------------------------------------

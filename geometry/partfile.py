@@ -28,22 +28,11 @@ MAX_PART_BYTES = 1_000_000  # longest part file read (a real one is a few kB)
 
 
 def load_part(path: str | Path) -> PartSpec:
-    """Read and validate the part file at `path`."""
-    path = Path(path)
-    try:
-        with path.open("rb") as handle:
-            raw = handle.read(MAX_PART_BYTES + 1)  # bounded: a device or a huge file cannot hang the reader
-    except FileNotFoundError:
-        raise PartError(f"{path}: no such part file") from None
-    except OSError as exc:
-        raise PartError(f"{path}: cannot be read ({exc.__class__.__name__})") from None
-    if len(raw) > MAX_PART_BYTES:
-        raise PartError(f"{path}: longer than {MAX_PART_BYTES} bytes; a part file is a short text description")
-    try:
-        text = raw.decode("utf-8")
-    except UnicodeDecodeError as exc:
-        raise PartError(f"{path}: cannot be read as UTF-8 text ({exc.__class__.__name__})") from None
-    return parse_part(text)
+    """Read and validate the part file at `path` (a regular file, UTF-8 with or without a byte-order mark;
+    geometry/textfile.py)."""
+    from .textfile import read_input_text
+
+    return parse_part(read_input_text(path, "part file", MAX_PART_BYTES))
 
 
 def parse_part(text: str) -> PartSpec:

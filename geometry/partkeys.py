@@ -7,6 +7,7 @@ tables and `x` or `y` for a component of a point:
     hole.2.diameter        the diameter of the second [[hole]] entry
     hole.1.center.y        the y coordinate of the first hole's centre
     mesh.tolerance         created when the part file has no [mesh] table or no tolerance in it
+    hole.*.diameter        every [[hole]] entry's diameter, set together (`expand_key`)
 
 A key must end at a single number (or a quantity string such as "22 mm"). A key that names a value the part
 file does not have is accepted only where a table can hold it (the table is created if missing); whether the
@@ -25,6 +26,7 @@ from typing import Any
 from .errors import PartError
 
 POINT_AXES = ("x", "y")
+EVERY_ENTRY = "*"  # in place of an entry number: every entry of an array of tables, set together
 _QUANTITY = re.compile(r"^\s*[-+]?(\d|\.\d)")
 
 
@@ -65,6 +67,32 @@ def resolve_key(part: Mapping[str, Any], text: str) -> KeyPath:
         if last:
             _check_leaf(text, node)
     return KeyPath(text, tuple(steps), True)
+
+
+def expand_key(base: Mapping[str, Any], text: str) -> list[str]:
+    """The dotted keys that `text` stands for (a sweep's --vary key, a suite's `set` key): itself, or, with
+    its one `*`, every entry number (1-based) of the array of tables it stands in, e.g. hole.*.diameter ->
+    hole.1.diameter, hole.2.diameter."""
+    segments = text.split(".")
+    stars = [i for i, seg in enumerate(segments) if seg == EVERY_ENTRY]
+    if not stars:
+        return [text]
+    if len(stars) > 1:
+        raise PartError(f"{text}: a key may hold one {EVERY_ENTRY} (every entry of one array of tables)")
+    prefix = segments[:stars[0]]
+    node: Any = base
+    for seg in prefix:
+        if isinstance(node, dict) and seg in node:
+            node = node[seg]
+        elif isinstance(node, list) and seg.isdigit() and 1 <= int(seg) <= len(node):
+            node = node[int(seg) - 1]
+        else:
+            node = None
+            break
+    if not prefix or not isinstance(node, list) or not node or not all(isinstance(v, dict) for v in node):
+        raise PartError(f"{text}: {EVERY_ENTRY} stands for every entry of an array of tables (e.g. hole.*.diameter "
+                        f"for every [[hole]]); {'.'.join(prefix) or 'the start of the key'} is not one in this part file")
+    return [".".join([*prefix, str(n), *segments[stars[0] + 1:]]) for n in range(1, len(node) + 1)]
 
 
 def set_value(part: Mapping[str, Any], key: KeyPath, value: Any) -> dict[str, Any]:

@@ -12,7 +12,7 @@ from __future__ import annotations
 import math
 from typing import Any
 
-from .errors import PartError
+from .errors import PartError, clipped
 
 DEFAULT_UNITS = "mm-N-MPa"
 
@@ -40,7 +40,7 @@ def known(t: dict[str, Any], allowed: set[str], where: str) -> None:
     """Refuse the first key of `t` not in `allowed`."""
     for key in t:
         if key not in allowed:
-            name = key if key.replace("_", "").replace("-", "").isalnum() and key.isascii() else shown(key)
+            name = clipped(key, 60) if key.replace("_", "").replace("-", "").isalnum() and key.isascii() else shown(key)
             name = f"{where}.{name}" if where else name
             raise PartError(f"{name}: unknown key; allowed here: {', '.join(sorted(allowed))}")
 

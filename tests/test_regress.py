@@ -14,7 +14,7 @@ from stressraiser.compare.suite import (CURVE_FIT_TOLERANCE, POINT_FRACTIONS, TA
                                         case_tolerance, load_suite)
 from stressraiser.geometry.errors import PartError
 
-from conftest import EXAMPLES
+from conftest import EXAMPLES, STRAP_TEXT
 
 
 @pytest.mark.slow  # every family at three points: the sweep; test_raiser_families.py keeps a fast check of each
@@ -110,6 +110,21 @@ def test_wrong_reference_fails_with_exit_1_and_names_the_row(tmp_path, capsys):
     ('[[case]]\nname = "a"\npart = "nowhere.toml"\nreference = 3.1\n'
      'definition = "net"\ntolerance = 0.01\nsource = "s"\n', "nowhere.toml: no such part file"),
     ('title = "empty"\n', "the suite needs at least one case"),
+    # a family's parameters, checked before any case runs: the published range of the family's cases
+    # (Howland's table and Peterson's chart 4.1 fit together cover 0 <= d/W <= 1, compare/handbook.py)
+    ('[[case]]\nname = "a"\nfamily = "central-hole-tension"\nparameters = { "d/W" = 1.5 }\nreference = 3.1\n'
+     'definition = "net"\ntolerance = 0.01\nsource = "s"\n',
+     "case 1 (a): parameters: d/W = 1.5 is outside the range of the central-hole-tension family's published "
+     "cases, 0 <= d/W <= 1"),
+    ('[[case]]\nname = "a"\nfamily = "central-hole-tension"\nparameters = { "d/w" = 0.3 }\nreference = 3.1\n'
+     'definition = "net"\ntolerance = 0.01\nsource = "s"\n',
+     "case 1 (a): parameters: 'd/w' is not a parameter of the central-hole-tension family; it takes d/W"),
+    ('[[case]]\nname = "a"\nfamily = "opposite-u-notches"\nparameters = { "h/r" = 2.0 }\nreference = 3.1\n'
+     'definition = "net"\ntolerance = 0.01\nsource = "s"\n',
+     "case 1 (a): parameters: 2h/D is missing; the opposite-u-notches family takes h/r, 2h/D"),
+    ('[[case]]\nname = "a"\nfamily = "central-hole-tension"\nparameters = { "d/W" = 0.0 }\nreference = 3.1\n'
+     'definition = "net"\ntolerance = 0.01\nsource = "s"\n',
+     "case 1 (a): parameters: the central-hole-tension part they make is refused: hole 1.diameter"),
 ])
 def test_bad_suite_is_refused_in_one_line_with_exit_2(tmp_path, capsys, body, words):
     suite = tmp_path / "bad.toml"
@@ -140,3 +155,17 @@ def test_load_suite_refuses_duplicate_names(tmp_path):
     (tmp_path / "dup.toml").write_text(row + row)
     with pytest.raises(PartError, match="case 2: name 'same' is used by an earlier case"):
         load_suite(tmp_path / "dup.toml")
+
+
+def test_suite_set_keys_take_a_star_as_sweeps_do(tmp_path):
+    # `set = { "hole.*.diameter" = 8.0 }` sets every hole's diameter, as `--vary hole.*.diameter=...` does
+    part = tmp_path / "two_holes.toml"
+    part.write_text(STRAP_TEXT + "[[hole]]\ncenter = [60.0, 0.0]\ndiameter = 10.0\n")
+    suite = tmp_path / "suite.toml"
+    suite.write_text('[[case]]\nname = "both holes 8 mm"\npart = "two_holes.toml"\nset = { "hole.*.diameter" = 8.0 }\n'
+                     'reference = 2.6\ndefinition = "net"\ntolerance = 0.05\nsource = "in-house"\n')
+    (case,) = load_suite(suite).cases
+    assert [h["diameter"] for h in case.part["hole"]] == [8.0, 8.0]
+    suite.write_text(suite.read_text().replace("hole.*.diameter", "plate.*.width"))
+    with pytest.raises(PartError, match=r"case 1 \(both holes 8 mm\): set: plate.\*.width: \* stands for every entry"):
+        load_suite(suite)
