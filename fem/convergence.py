@@ -18,7 +18,8 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ..geometry.kinds.base import RaiserId
-from ..geometry.meshing import mesh_part
+from ..geometry.mesh import Mesh
+from ..geometry.mesh_process import MeshProcess
 from ..geometry.spec import PartSpec
 from .analysis import Solution, solve_part
 from .budget import BudgetError, check_first_level, level_over_budget
@@ -95,8 +96,15 @@ def converge(spec: PartSpec, report: Callable[[Level], None] | None = None) -> t
     """Solve on finer and finer meshes until the peak's estimated error is below spec.mesh.tolerance.
 
     Stops unconverged at spec.mesh.max_levels levels, or when the next level would exceed
-    spec.mesh.max_elements. Returns the study and the finest solution.
+    spec.mesh.max_elements. Returns the study and the finest solution. Each level is meshed in a child
+    process (geometry/mesh_process.py): an interrupt stops gmsh at once, and a crash in it is a MeshError.
     """
+    with MeshProcess() as mesher:
+        return _study(spec, report, mesher.mesh)
+
+
+def _study(spec: PartSpec, report: Callable[[Level], None] | None, mesh_level: Callable[..., Mesh]
+           ) -> tuple[Study, Solution]:
     levels: list[Level] = []
     solution: Solution | None = None
     scale = FIRST_SCALE
@@ -104,7 +112,7 @@ def converge(spec: PartSpec, report: Callable[[Level], None] | None = None) -> t
     check_first_level(spec, scale)  # refuse a hopeless coarsest mesh before gmsh spends minutes on it
     while True:
         clock = time.perf_counter()
-        mesh = mesh_part(spec, scale)
+        mesh = mesh_level(spec, scale)
         meshed = time.perf_counter() - clock
         stop = level_over_budget(spec, mesh.n_elements, first=not levels)
         if stop:
