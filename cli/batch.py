@@ -162,15 +162,16 @@ def run_batch(jobs: Sequence[tuple[str, dict]], execution: Execution, on_done: C
               label: str, runner: Runner = run_case, show_progress: bool = True) -> dict[str, dict]:
     """Run the jobs with a progress bar on stderr (cases done, failed, remaining; shown on a terminal).
     `on_done(key, row)` is called in this process as each case finishes. Returns every row by key."""
-    from rich.console import Console
     from rich.progress import BarColumn, Progress, TextColumn, TimeElapsedColumn
+
+    from .terminal import err_console
 
     rows: dict[str, dict] = {}
     failed = 0
     columns = (TextColumn("{task.description}"), BarColumn(),
                TextColumn("{task.fields[done]} done, {task.fields[failed]} failed, {task.fields[left]} remaining"),
                TimeElapsedColumn())
-    console = Console(stderr=True)
+    console = err_console()
     # live on a terminal only (as cli/progress.py): redirected output stays clean, and the command's
     # summary on stdout gives the same counts
     progress = Progress(*columns, console=console, disable=not (show_progress and console.is_terminal))
@@ -255,7 +256,8 @@ def _one_pool(keys: list[str], pending: dict[str, dict], size: int, runner: Runn
     not finished."""
     context = _pool_context()
     starts = context.SimpleQueue()
-    pool = ProcessPoolExecutor(max_workers=size, mp_context=context, initializer=_worker_setup, initargs=(starts,))
+    pool = ProcessPoolExecutor(max_workers=size, mp_context=context, initializer=_worker_setup,
+                               initargs=(starts, os.getpid()))
     clean = False
     try:
         futures = {pool.submit(_tracked, runner, key, pending[key]): key for key in keys}
@@ -288,12 +290,17 @@ def _one_pool(keys: list[str], pending: dict[str, dict], size: int, runner: Runn
 _STARTS = None  # in a worker: where it reports the key of each case it starts
 
 
-def _worker_setup(starts) -> None:
-    """In each worker: keep the queue for start reports, and ignore Ctrl-C (the terminal sends it to the
-    whole process group; the parent stops the workers)."""
+def _worker_setup(starts, command: int) -> None:
+    """In each worker: keep the queue for start reports, ignore Ctrl-C (the terminal sends it to the whole
+    process group; the parent stops the workers), and end with the command's process `command` however it
+    ends, even by SIGKILL (geometry/process_lifetime.py): a worker left behind holds its memory and the
+    terminal's standard error. The pool's fork server ends by itself once no worker is left."""
+    from ..geometry.process_lifetime import end_with
+
     global _STARTS
     _STARTS = starts
     signal.signal(signal.SIGINT, signal.SIG_IGN)
+    end_with(command)
 
 
 def _tracked(runner: Runner, key: str, part: dict) -> dict:

@@ -20,7 +20,6 @@ def _range_text(ranges: dict[str, tuple[float, float]]) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
-    from rich.console import Console
     from rich.markup import escape
 
     from ..compare.handbook import BUILDERS, case_table
@@ -32,7 +31,9 @@ def run(args: argparse.Namespace) -> int:
         cases = [c for c in cases if c.family == args.family]
         if not cases:
             raise CommandLineError(f"--family: {args.family!r} is not a case family; use one of {', '.join(families)}")
-    out = Console(highlight=False, soft_wrap=True)
+    from .terminal import out_console
+
+    out = out_console()
     out.print(f"[bold]{len(cases)} handbook cases[/bold] (a part is compared with a case only when its geometry "
               "is that case)")
     for case in cases:

@@ -3,9 +3,9 @@
 from __future__ import annotations
 
 import argparse
+import os
 from pathlib import Path
 
-from .errors import OutputError
 from ..geometry.spec import MeshControls
 
 NAME = "check"
@@ -30,32 +30,51 @@ def add_parser(commands) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from rich.console import Console
-
     from ..compare.check import check_part
     from ..geometry.partfile import load_part
-    from .files import write_json
+    from .errors import OutputError
+    from .files import output_file, write_json
+    from .main import EXIT_INPUT
     from .progress import LevelProgress
     from .record import check_record
     from .summary import print_summary, verdict
+    from .terminal import err_console, out_console, shown_path
 
     spec = with_max_elements(with_sections(load_part(args.part), args.section), args.max_elements)
-    report_dir = _report_folder(args.report) if args.report else None
-    out = Console(highlight=False, soft_wrap=True)
-    with LevelProgress(Console(stderr=True, highlight=False), enabled=not args.quiet, units=spec.units) as progress:
+    # every output is checked before any work, so that a long run never ends unable to write
+    report_dir = report_folder(args.report) if args.report is not None else None
+    json_path = output_file(args.json, "--json", inputs=(args.part,))
+    if json_path is not None and report_dir is not None and json_path.is_relative_to(os.path.realpath(report_dir)):
+        raise OutputError(f"--json {args.json}: lies inside the --report folder, which the report replaces whole "
+                          "(the report holds its own check.json)")
+    out = out_console()
+    failed: list[OutputError] = []
+    written = None
+    with LevelProgress(err_console(), enabled=not args.quiet, units=spec.units) as progress:
         result = check_part(spec, progress)
         if report_dir is not None:
-            progress.stage(f"drawing the figures and writing the report to {report_dir}")
-            written = _write_report(result, report_dir, args.part)
-    if args.json:
-        write_json(args.json, check_record(result))
+            progress.stage(f"drawing the figures and writing the report to {shown_path(report_dir)}")
+            try:
+                written = _write_report(result, report_dir, args.part)
+            except OutputError as exc:
+                failed.append(exc)
+    if json_path is not None:
+        try:
+            write_json(json_path, check_record(result))
+        except OutputError as exc:
+            failed.append(exc)
+    # the results are shown even when an output could not be written, so that the run is not lost
     if args.quiet:
         out.print(verdict(result), markup=False)
     else:
         print_summary(result, out)
-        if report_dir is not None:
-            out.print(f"report: {written.report} ({len(written.paths)} files in {report_dir})", markup=False)
-    return unconverged_exit(result)
+        if written is not None:
+            out.print(f"report: {report_dir / written.report.name} ({len(written.paths)} files in {report_dir})",
+                      markup=False)
+    for exc in failed:
+        err_console().print(f"stressraiser: {exc}", markup=False)
+    code = unconverged_exit(result)
+    return EXIT_INPUT if failed else code  # an output to fix: another path, or space freed
 
 
 def with_sections(spec, options: list[str]):
@@ -72,21 +91,56 @@ def with_sections(spec, options: list[str]):
     return spec
 
 
-def _report_folder(value: str) -> Path:
-    """The --report folder, refused before any work if it names an existing file."""
-    folder = Path(value)
-    if folder.exists() and not folder.is_dir():
-        raise OutputError(f"--report {value}: this is a file; give a folder (it is created if missing)")
-    return folder
+
+
+def report_folder(value: str) -> Path:
+    """The --report folder, checked before any work: a folder or a new path in a folder that can be
+    written in. The report replaces its folder whole, so an existing folder must be empty or hold only an
+    earlier report's files; a folder with anything else in it (the part file, notes) is refused."""
+    from .errors import OutputError
+    from .files import output_folder
+
+    folder = output_folder(value, "--report")
+    stray = _not_of_a_report(folder) if folder.is_dir() else None
+    if stray is not None:
+        raise OutputError(f"--report {value}: the folder holds {stray!r}, which is not part of a report; the report "
+                          "replaces its folder whole: give a new folder, an empty one or an earlier report's")
+    return Path(value)
+
+
+def _not_of_a_report(folder: Path) -> str | None:
+    """The first entry of `folder` that an earlier report did not write, or None."""
+    from .report import FIELDS_NAME, FIGURES_DIR, RECORD_NAME, REPORT_NAME
+
+    for entry in folder.iterdir():
+        name = entry.name
+        if name.startswith(".") and name.endswith(".part"):  # a temporary file a killed run left
+            continue
+        if name in (REPORT_NAME, RECORD_NAME, FIELDS_NAME) and entry.is_file() and not entry.is_symlink():
+            continue
+        if name == FIGURES_DIR and entry.is_dir() and not entry.is_symlink():
+            inside = next((f.name for f in entry.iterdir() if not (f.is_file() and f.suffix in (".png", ".svg")
+                                                                    or f.name.endswith(".part"))), None)
+            if inside is None:
+                continue
+            return f"{FIGURES_DIR}/{inside}"
+        return name
+    return None
 
 
 def _write_report(result, folder: Path, part: str):
+    """Write the report into a fresh folder beside `folder` and swap it in whole (cli/files.py
+    `atomic_folder`); what was written (report.ReportFiles, its paths as they were in the fresh folder)."""
+    from .errors import OutputError
+    from .files import atomic_folder
     from .report import write_report
 
     try:
-        return write_report(result, folder, part_file=part)
-    except OSError as exc:
+        with atomic_folder(folder) as fresh:
+            written = write_report(result, fresh, part_file=part)
+    except OSError as exc:  # a library writing by itself (not through cli/files.py)
         raise OutputError(f"--report {folder}: cannot write the report ({exc.strerror or exc})") from None
+    return written
 
 
 MAX_ELEMENTS_RANGE = (1_000, 20_000_000)  # as mesh.max_elements in the part file
@@ -116,16 +170,15 @@ def with_max_elements(spec, value: int | None):
 def unconverged_exit(result) -> int:
     """0 when the peak converged; else one line on stderr saying so and why, and exit code 3. The summary
     and any output files are still written (with the same warning), so the levels can be reviewed."""
-    from rich.console import Console
-
     from .main import EXIT_NUMERICS
+    from .terminal import err_console
 
     if result.kt.converged:
         return 0
     study = result.study
     error = study.estimate.error
     shown = f"estimated error {error:.2%}" if error < float("inf") else "error unknown with fewer than three levels"
-    Console(stderr=True, highlight=False, soft_wrap=True).print(
+    err_console().print(
         f"stressraiser: the peak did not converge to mesh.tolerance = {result.spec.mesh.tolerance:.2%} "
         f"({study.stop_reason or 'too few levels'}; {shown}); the results above are for review only, not for "
         "sign-off", markup=False)

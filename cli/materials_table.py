@@ -16,14 +16,15 @@ def add_parser(commands) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from rich.console import Console
     from rich.markup import escape
     from rich.table import Table
 
     from ..geometry.materials import MATERIALS
     from ..geometry.units import format_quantity, unit_label
 
-    out = Console(highlight=False, soft_wrap=True)
+    from .terminal import out_console
+
+    out = out_console()
     stress = unit_label("stress", args.units)
     table = Table(title=f"Built-in materials (stresses in {stress}; name one with material.grade)",
                   title_justify="left", box=None)

@@ -16,6 +16,7 @@ from .batch import add_execution_options, execution_from_args
 NAME = "regress"
 SCHEMA = "stressraiser.regress/1"
 EXIT_FAILED = 1
+TEXT_LIMIT = 120  # characters of a suite's title, case name or source shown on the terminal (the record has all)
 
 
 def add_parser(commands) -> None:
@@ -31,26 +32,27 @@ def add_parser(commands) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from rich.console import Console
-
     from ..compare.suite import builtin_suite, judge, load_suite, part_digest
     from .batch import run_batch
+    from .files import output_file
+    from .terminal import out_console
 
     if bool(args.suite) == bool(args.builtin):
         raise CommandLineError("command line: give a suite file or --builtin (one of them)")
     execution = execution_from_args(args)
     suite = builtin_suite() if args.builtin else load_suite(args.suite)
-    out = Console(highlight=False, soft_wrap=True)
+    record = output_file(args.json, "--json", inputs=() if args.builtin else (args.suite,))  # before any case runs
+    out = out_console()
     runnable = {part_digest(c.part): c.part for c in suite.cases if not c.problem}
     rows = run_batch(list(runnable.items()), execution, lambda key, row: None,
                      f"regress: {len(runnable)} parts")
     case_rows = [{} if c.problem else rows[part_digest(c.part)] for c in suite.cases]
     verdicts = [judge(c, row) for c, row in zip(suite.cases, case_rows)]
-    print_verdicts(out, suite.title, verdicts)
-    if args.json:
+    print_verdicts(out, suite.title, verdicts)  # before the record: shown even if the record cannot be written
+    if record is not None:
         from .files import write_json
 
-        write_json(args.json, regress_record(suite.title, verdicts, [r.get("seconds") for r in case_rows]))
+        write_json(record, regress_record(suite.title, verdicts, [r.get("seconds") for r in case_rows]))
     return 0 if all(v.passed for v in verdicts) else EXIT_FAILED
 
 
@@ -61,16 +63,20 @@ def print_verdicts(console, title: str, verdicts: list) -> None:
     one where the part's peak is (the middle hole of a row of holes), the Kt carries a mark and a note under
     the table names that raiser and gives the part's own governing Kt and where its peak is, so that the
     case's Kt is never read as the part's peak."""
+    from rich.markup import escape
     from rich.table import Table
 
-    table = Table(title=title, title_justify="left", box=None, pad_edge=False)
+    from ..geometry.errors import clipped
+
+    table = Table(title=escape(clipped(title, TEXT_LIMIT)), title_justify="left", box=None, pad_edge=False)
     for name, justify in (("#", "right"), ("case", "left"), ("reference", "right"), ("on", "left"),
                           ("FE Kt", "right"), ("difference", "right"), ("tolerance", "right"), ("result", "left")):
         table.add_column(name, justify=justify, overflow="fold")
     for n, v in enumerate(verdicts, start=1):
         c = v.case
         kt = f"{v.kt:.3f}" + ("*" if _apart(v) else "") if v.kt is not None else "—"
-        table.add_row(str(n), c.name, f"{c.reference:.3f}" if math.isfinite(c.reference) else "—", c.definition,
+        table.add_row(str(n), escape(clipped(c.name, TEXT_LIMIT)),
+                      f"{c.reference:.3f}" if math.isfinite(c.reference) else "—", c.definition,
                       kt, f"{v.difference:+.2%}" if v.difference is not None else "—", f"±{c.tolerance:.1%}",
                       "[green]pass[/green]" if v.passed else "[bold red]FAIL[/bold red]")
     console.print(table)
@@ -80,7 +86,8 @@ def print_verdicts(console, title: str, verdicts: list) -> None:
                           f"{v.governing_feature}, Kt {v.governing_kt:.3f}", markup=False)
     failed = [(n, v) for n, v in enumerate(verdicts, start=1) if not v.passed]
     for n, v in failed:
-        console.print(f"FAILED row {n} {v.case.name!r}: {v.reason} (reference from {v.case.source})", markup=False)
+        console.print(f"FAILED row {n} {clipped(v.case.name, TEXT_LIMIT)!r}: {v.reason} (reference from "
+                      f"{clipped(v.case.source, TEXT_LIMIT)})", markup=False)
     console.print(f"{len(verdicts)} cases: {len(verdicts) - len(failed)} passed, {len(failed)} failed", markup=False)
 
 

@@ -7,6 +7,7 @@ from rich.markup import escape
 from rich.table import Table
 
 from ..compare.check import CheckResult
+from ..geometry.errors import clipped
 from ..geometry.registry import raiser_label
 from .citation import short_source
 from .display_units import label, point_text, quantity_text, shown, warning_text
@@ -40,7 +41,7 @@ Row = tuple[str, str, str]
 
 def print_heading(result: CheckResult, console: Console) -> None:
     """Title, the verdict line and any warnings."""
-    console.print(f"[bold]{escape(result.spec.title)}[/bold]")
+    console.print(f"[bold]{escape(clipped(result.spec.title))}[/bold]")  # the JSON record has it whole
     console.print(verdict(result), markup=False, soft_wrap=False)
     for warning in result.warnings:
         text = warning_text(warning, result.spec.units)

@@ -47,7 +47,6 @@ TABLE_FIELDS = (  # kt_* / converged: the part's governing peak; case_*: the rai
     "case_converged", "handbook_difference", "peak", "average", "gross_average", "peak_fe",
     "peak_x", "peak_y", "feature", "equilibrium_error", "levels", "elements", "seconds", "error",
 )
-EVERY_ENTRY = "*"  # in a --vary key: every entry of an array of tables, set together
 
 
 @dataclass(frozen=True)
@@ -101,20 +100,23 @@ def add_parser(commands) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from rich.console import Console
-
     from .batch import run_batch
+    from .files import output_folder
+    from .main import EXIT_INPUT
+    from .terminal import err_console, out_console
 
-    out, err = Console(highlight=False, soft_wrap=True), Console(stderr=True, highlight=False, soft_wrap=True)
+    out, err = out_console(), err_console()
     execution = execution_from_args(args)
     base = read_part_dict(args.part)
     varies = [parse_vary(text, base) for text in args.vary]
     points = sweep_points(base, varies)
-    folder = Path(args.out) if args.out else Path(f"{Path(args.part).stem}-sweep")
+    folder = Path(args.out if args.out is not None else f"{Path(args.part).stem}-sweep")
+    # checked before any case runs: the folder, and each file the sweep writes in it
+    output_folder(str(folder), "--out", files=(LOG_NAME, CSV_NAME, JSON_NAME, f"{PLOT_NAME}.png", f"{PLOT_NAME}.svg"))
     log = folder / LOG_NAME
     if log.exists() and not args.resume:
         raise CommandLineError(f"--out: {log} already holds a sweep log; pass --resume to finish that sweep, "
-                        "or choose another --out")
+                               "or choose another --out")
     done = finished_rows(log) if args.resume else {}
     keys = {p.key for p in points}
     kept = {k: r for k, r in done.items() if k in keys and r["status"] not in RETRY_ON_RESUME}
@@ -133,12 +135,20 @@ def run(args: argparse.Namespace) -> int:
         run_batch(jobs, execution, lambda key, row: append_row(handle, key, inputs[key], row),
                   f"sweep of {len(points)} cases")
     rows = table_rows(points, finished_rows(log))
-    write_tables(folder, args.part, base, varies, rows)
-    plot_note = _plot(folder, base, varies, rows)
+    try:  # the table is shown even when the files cannot be written, so that the sweep is not lost
+        write_tables(folder, args.part, base, varies, rows)
+        plot_note = _plot(folder, base, varies, rows)
+        written: OutputError | None = None
+    except OutputError as exc:
+        written = exc
     print_table(out, varies, rows)
     failed = sum(r["status"] != STATUS_OK for r in rows)
-    out.print(f"{len(rows)} cases: {len(rows) - failed} ok, {failed} failed. Wrote {folder / CSV_NAME}, "
-              f"{folder / JSON_NAME}{plot_note} (log {log}).", markup=False)
+    wrote = (f"Wrote {folder / CSV_NAME}, {folder / JSON_NAME}{plot_note} (log {log})." if written is None
+             else f"The tables were not written (log {log}).")
+    out.print(f"{len(rows)} cases: {len(rows) - failed} ok, {failed} failed. {wrote}", markup=False)
+    if written is not None:
+        err.print(f"stressraiser: {written}", markup=False)
+        return EXIT_INPUT
     return 0 if failed == 0 else 1
 
 
@@ -146,16 +156,18 @@ def run(args: argparse.Namespace) -> int:
 
 def read_part_dict(path: str | Path) -> dict[str, Any]:
     """The part file as a dictionary, after checking that it is a valid part file itself."""
-    from ..geometry.partfile import load_part
+    from ..geometry.partfile import MAX_PART_BYTES, parse_part
+    from ..geometry.textfile import read_input_text
 
-    load_part(path)  # one-line PartError for anything wrong with the file
-    return tomllib.loads(Path(path).read_text(encoding="utf-8"))
+    text = read_input_text(path, "part file", MAX_PART_BYTES)
+    parse_part(text)  # one-line PartError for anything wrong with the file
+    return tomllib.loads(text)
 
 
 def parse_vary(text: str, base: dict[str, Any]) -> Vary:
     """KEY=VALUES checked against the part-file dictionary `base`."""
     from ..geometry.partfile import part_from_dict
-    from ..geometry.partkeys import check_key_known, resolve_key
+    from ..geometry.partkeys import check_key_known, expand_key, resolve_key
 
     name, sep, spec = text.partition("=")
     if not sep or not name.strip() or not spec.strip():
@@ -168,31 +180,6 @@ def parse_vary(text: str, base: dict[str, Any]) -> Vary:
     except PartError as exc:
         raise PartError(f"--vary {exc}") from None
     return Vary(VaryKey(name.strip(), tuple(paths)), values)
-
-
-def expand_key(base: dict[str, Any], text: str) -> list[str]:
-    """The dotted keys a --vary key stands for: itself, or with its one `*` replaced by every entry number
-    (1-based) of the array of tables it stands in, e.g. hole.*.diameter -> hole.1.diameter, hole.2.diameter."""
-    segments = text.split(".")
-    stars = [i for i, seg in enumerate(segments) if seg == EVERY_ENTRY]
-    if not stars:
-        return [text]
-    if len(stars) > 1:
-        raise PartError(f"{text}: a key may hold one {EVERY_ENTRY} (every entry of one array of tables)")
-    prefix = segments[:stars[0]]
-    node: Any = base
-    for seg in prefix:
-        if isinstance(node, dict) and seg in node:
-            node = node[seg]
-        elif isinstance(node, list) and seg.isdigit() and 1 <= int(seg) <= len(node):
-            node = node[int(seg) - 1]
-        else:
-            node = None
-            break
-    if not prefix or not isinstance(node, list) or not node or not all(isinstance(v, dict) for v in node):
-        raise PartError(f"{text}: {EVERY_ENTRY} stands for every entry of an array of tables (e.g. hole.*.diameter "
-                        f"for every [[hole]]); {'.'.join(prefix) or 'the start of the key'} is not one in this part file")
-    return [".".join([*prefix, str(n), *segments[stars[0] + 1:]]) for n in range(1, len(node) + 1)]
 
 
 def parse_values(text: str) -> tuple[int | float, ...]:
@@ -264,9 +251,12 @@ def append_row(handle, key: str, inputs: dict[str, Any], row: dict[str, Any]) ->
     """Append one finished case to the log and push it to the disk before the next one."""
     record = {"key": key, "inputs": inputs, "finished": datetime.now(timezone.utc).isoformat(timespec="seconds"),
               **row}
-    handle.write((json.dumps(record, allow_nan=False) + "\n").encode("utf-8"))
-    handle.flush()
-    os.fsync(handle.fileno())
+    try:
+        handle.write((json.dumps(record, allow_nan=False) + "\n").encode("utf-8"))
+        handle.flush()
+        os.fsync(handle.fileno())
+    except OSError as exc:  # a full disk: the cases logged so far stay, --resume goes on from them
+        raise OutputError(f"--out: cannot append to the sweep log {handle.name} ({exc.strerror or exc})") from None
 
 
 def finished_rows(path: Path) -> dict[str, dict[str, Any]]:
@@ -376,12 +366,13 @@ def print_table(console, varies: list[Vary], rows: list[dict[str, Any]]) -> None
     When a handbook case describes a raiser other than the one where the part's peak is (the middle hole
     of a row of holes), the table shows both: the part's governing Kt and where its peak is, and the Kt
     of the case's raiser, which the handbook difference is taken on."""
+    from rich.markup import escape
     from rich.table import Table
 
     split = any(case_raiser_differs(r) for r in rows)
     table = Table(box=None, pad_edge=False)
     for v in varies:
-        table.add_column(v.key.text, justify="right", no_wrap=True, min_width=len(v.key.text))
+        table.add_column(escape(v.key.text), justify="right", no_wrap=True, min_width=len(v.key.text))
     names = (("part Kt net", "band", "Kt gross", "peak at", "case raiser", "its Kt net", "its band")
              if split else ("Kt net", "band", "Kt gross"))
     for name in (*names, "handbook Kt net", "its Kt vs handbook" if split else "FE vs handbook", "status"):

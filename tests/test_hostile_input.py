@@ -5,14 +5,19 @@ is valid, a correct result.
 
 from __future__ import annotations
 
+import io
+import json
 import os
+import subprocess
+import sys
 
 import pytest
 
 from stressraiser.cli.main import main
 from stressraiser.compare.check import check_part
+from stressraiser.geometry.partfile import load_part
 
-from conftest import EXAMPLES, STRAP_TEXT, assert_refused, plate_with_hole
+from conftest import EXAMPLES, REPO, STRAP_TEXT, assert_refused, plate_with_hole
 
 BASE = 'title = "hostile input base"\n' + STRAP_TEXT
 
@@ -54,9 +59,9 @@ def test_oversized_and_endless_part_files(tmp_path, capsys):
     big.write_text(BASE + "# padding\n" * 200_000)
     assert main(["check", str(big)]) == 2
     assert "longer than 1000000 bytes" in capsys.readouterr().err
-    if os.path.exists("/dev/zero"):  # an endless file: read in bounded time, refused
+    if os.path.exists("/dev/zero"):  # an endless device: refused before a byte is read (only read, never written)
         assert main(["check", "/dev/zero"]) == 2
-        assert "longer than" in capsys.readouterr().err
+        assert "it is a character device" in capsys.readouterr().err
     assert main(["check", str(tmp_path)]) == 2  # a folder
     assert "cannot be read" in capsys.readouterr().err
 
@@ -67,7 +72,9 @@ def test_output_file_that_cannot_be_written(tmp_path, capsys):
     code = main(["check", str(EXAMPLES / "winch_strap.toml"), "--json", str(folder), "--quiet"])
     err = capsys.readouterr().err.strip().splitlines()
     assert code == 2
-    assert err[-1].startswith(f"stressraiser: {folder}: cannot write this output file")
+    # refused before any work, naming the option and the path
+    assert err == [f"stressraiser: --json {folder}: is a folder; an output is written only onto a regular file or a "
+                   "new path"]
 
 
 def test_markup_in_the_title_is_printed_as_text(tmp_path, capsys):
@@ -85,3 +92,91 @@ def test_small_hole_is_refined_not_frozen():
     result = check_part(spec)
     assert result.kt.converged
     assert result.kt.gross == pytest.approx(3.00, rel=0.01)
+
+
+# --- what the tool prints of a user's strings -------------------------------------------------------
+
+CONTROLS = "\x1b[31mred\x1b]0;new window title\x07 \u202eright-to-left\u202c \x9b2J \x08\r"
+
+
+def _raw_controls(text: str) -> list[str]:
+    """The terminal control characters in `text` other than line breaks: C0 and C1 controls, DEL, and the
+    bidirectional-text overrides and isolates (Unicode Standard Annex #9)."""
+    bidi = set("\u202a\u202b\u202c\u202d\u202e\u2066\u2067\u2068\u2069")
+    return [c for c in text if (ord(c) < 0x20 and c != "\n") or 0x7F <= ord(c) <= 0x9F or c in bidi]
+
+
+def test_terminal_controls_in_the_title_are_shown_escaped(tmp_path, capsys):
+    # A title holding ESC sequences (colour, a window-title OSC), a CSI in its C1 form and a right-to-left
+    # override reached the terminal raw: the terminal obeyed them. Now each is printed as its escape.
+    part = tmp_path / "part.toml"
+    part.write_text(BASE.replace('"hostile input base"', json.dumps(CONTROLS)))
+    assert main(["check", str(part)]) == 0
+    out = capsys.readouterr().out
+    assert not _raw_controls(out)
+    assert out.splitlines()[0] == "\\x1b[31mred\\x1b]0;new window title\\x07 \\u202eright-to-left\\u202c \\x9b2J \\x08\\r"
+
+
+def test_terminal_controls_and_markup_in_suite_names_are_printed_as_text():
+    # a suite case named with rich markup ("[/bold]") crashed the table (exit 4); with controls, they were raw
+    from rich.console import Console
+
+    from stressraiser.cli.regress import print_verdicts
+    from stressraiser.cli.terminal import SafeConsole
+    from stressraiser.compare.suite import SuiteCase, Verdict
+
+    case = SuiteCase(name="[/bold] " + CONTROLS, part={}, reference=3.0, definition="net", tolerance=0.01,
+                     source="in-house record " + CONTROLS)
+    verdict = Verdict(case, 3.01, 0.0033, True, True, "within ±1.00%")
+    shown = io.StringIO()
+    print_verdicts(SafeConsole(file=shown, width=200, highlight=False), "suite [/x] " + CONTROLS, [verdict])
+    text = shown.getvalue()
+    assert not _raw_controls(text)
+    assert "[/bold] \\x1b[31mred" in text and "suite [/x] \\x1b[31mred" in text
+    assert isinstance(SafeConsole(), Console)
+
+
+def test_fifo_as_part_file_is_refused_at_once(tmp_path):
+    # The reader opened a named pipe and waited for a writer forever; now it is refused before it is read.
+    fifo = tmp_path / "part.toml"
+    os.mkfifo(fifo)
+    done = subprocess.run([sys.executable, "-m", "stressraiser", "check", str(fifo)], capture_output=True, text=True,
+                          cwd=REPO, timeout=60)
+    assert done.returncode == 2
+    assert done.stderr.strip() == (f"stressraiser: {fifo}: cannot be read as a part file: it is a named pipe (FIFO); "
+                                   "a part file is a regular text file")
+
+
+def test_byte_order_mark_is_accepted(tmp_path):
+    # Some editors start a UTF-8 file with a byte-order mark; it gave "Invalid statement (at line 1, column 1)"
+    plain, marked = tmp_path / "plain.toml", tmp_path / "marked.toml"
+    plain.write_text(BASE, encoding="utf-8")
+    marked.write_text(BASE, encoding="utf-8-sig")
+    assert marked.read_bytes().startswith(b"\xef\xbb\xbf")
+    assert load_part(marked) == load_part(plain)
+
+
+def test_sweep_reads_a_part_file_with_a_byte_order_mark(tmp_path):
+    from stressraiser.cli.sweep import read_part_dict
+
+    marked = tmp_path / "marked.toml"
+    marked.write_text(BASE, encoding="utf-8-sig")
+    assert read_part_dict(marked)["plate"]["width"] == 80.0
+
+
+def test_long_unknown_key_is_shortened_in_the_message(tmp_path, capsys):
+    # a 5000-character unknown key was echoed whole: one line of 5100 characters
+    key = "k" * 5000
+    assert_refused(tmp_path, capsys, BASE.replace("nu = 0.3", f"nu = 0.3\n{key} = 1"),
+                   ["material.kkkk", "(5000 characters): unknown key"])
+    part = tmp_path / "part.toml"
+    assert main(["check", str(part)]) == 2
+    assert len(capsys.readouterr().err) < 300
+
+
+def test_every_long_word_of_a_message_is_shortened():
+    # whatever the source of an overlong word (a key, a path, an option's value), a message stays short
+    from stressraiser.geometry.errors import LONGEST_WORD, PartError
+
+    message = str(PartError(f"--section {'1' * 3000}: use x=VALUE"))
+    assert len(message) < LONGEST_WORD + 60 and message.endswith("1…" + "1" * 39 + ": (3001 characters) use x=VALUE")
