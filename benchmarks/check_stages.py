@@ -1,7 +1,7 @@
 """Wall time of the whole `stressraiser check` process on the bundled examples, and of each stage.
 
-For each part: the whole console process (interpreter start, imports, meshing, solving, output), best of
-n, then the per-level stage times measured in-process (mesh, assemble, solve, recover) with the solver
+First the start-up of the command-line process (see `startup`). For each part: the whole console process
+(interpreter start, imports, meshing, solving, output), best of n, then the per-level stage times measured in-process (mesh, assemble, solve, recover) with the solver
 each level used, and Kt against the preferred handbook case. `--order 2` checks a copy of each part file
 with quadratic triangles. Prints figures only; asserts nothing about time. Usage:
 
@@ -54,6 +54,31 @@ def whole_process(part: Path, repeat: int) -> tuple[list[float], dict]:
     return times, record
 
 
+LIBRARIES = "import rich.console, stressraiser.fem.solve, stressraiser.geometry.meshing"
+
+
+def startup(repeat: int) -> None:
+    """Start-up of the command-line process: `stressraiser --version` as the console script runs it
+    (cli.main.entry loads the libraries with the cyclic garbage collector paused, then freezes them), and,
+    in the same run, the same libraries loaded with the collector running and with it paused: what the
+    pause saves."""
+    env = {k: v for k, v in os.environ.items() if k != "PYTHONDONTWRITEBYTECODE"}
+    commands = {
+        "stressraiser --version (entry point)": [sys.executable, "-m", "stressraiser", "--version"],
+        "the libraries, collector running": [sys.executable, "-c", LIBRARIES],
+        "the libraries, collector paused": [sys.executable, "-c", f"import gc; gc.disable(); {LIBRARIES}; "
+                                            "gc.freeze(); gc.enable()"],
+    }
+    best = dict.fromkeys(commands, float("inf"))
+    for counted in [False] + [True] * repeat:  # the first round writes the bytecode caches
+        for name, command in commands.items():
+            start = time.perf_counter()
+            subprocess.run(command, check=False, capture_output=True, env=env)
+            if counted:
+                best[name] = min(best[name], time.perf_counter() - start)
+    print(f"start-up, best of {repeat}: " + "; ".join(f"{name} {t:.3f} s" for name, t in best.items()))
+
+
 def stages(part: Path) -> list[dict]:
     """Per-level stage times measured in-process."""
     from stressraiser.compare.check import check_part
@@ -96,6 +121,7 @@ def main() -> None:
     parts = [Path(p) for p in args.parts] or sorted(EXAMPLES.glob("*.toml"))
     print(f"machine: {machine()}")
     print(f"element order {args.order}")
+    startup(args.repeat)
     with tempfile.TemporaryDirectory() as tmp:
         for part in parts:
             if args.order != 1:

@@ -22,6 +22,7 @@ prints the cost per level on the bundled example).
 
 from __future__ import annotations
 
+import gc
 import os
 import pickle
 import select
@@ -138,6 +139,7 @@ def _serve(parent: int, requests: int, answers: int) -> None:
     code = 0
     try:
         end_with_parent(parent)
+        gc.freeze()  # the parent's objects stay out of this process's collections: their pages stay shared
         signal.set_wakeup_fd(-1)  # the parent's signal watcher reads that pipe, not this process's signals
         signal.signal(signal.SIGINT, signal.SIG_IGN)  # Ctrl-C reaches the whole process group: the parent decides
         signal.signal(signal.SIGTERM, signal.SIG_DFL)

@@ -63,9 +63,18 @@ def _alive(pid: int) -> bool:
     return True
 
 
-def _parent_death_signal(signum: int) -> None:
+def _find_prctl():
+    """The C library's prctl, looked up once on import: a child forked from a process with other threads
+    must not call the dynamic loader, whose lock another thread may have held at the fork."""
     try:
-        prctl = ctypes.CDLL(None, use_errno=True).prctl
+        return ctypes.CDLL(None, use_errno=True).prctl
     except (OSError, AttributeError):  # not Linux
-        return
-    prctl(PR_SET_PDEATHSIG, int(signum), 0, 0, 0)
+        return None
+
+
+_PRCTL = _find_prctl()
+
+
+def _parent_death_signal(signum: int) -> None:
+    if _PRCTL is not None:
+        _PRCTL(PR_SET_PDEATHSIG, int(signum), 0, 0, 0)

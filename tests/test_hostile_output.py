@@ -147,13 +147,19 @@ def _listing(folder: Path) -> dict[str, bytes]:
     return {str(p.relative_to(folder)): p.read_bytes() for p in sorted(folder.rglob("*")) if p.is_file()}
 
 
-def test_rerun_report_leaves_no_stale_figure(tmp_path, capsys):
-    # the first part has a requested cut (its figure figures/cut_1.*), the second none: the second report
-    # must not keep the first part's cut figure
-    first = tmp_path / "first.toml"
+def _two_parts(folder: Path) -> tuple[Path, Path]:
+    """Two strap part files in `folder`: the first with a requested cut (its report has the figure
+    figures/cut_1.*), the second without."""
+    first = folder / "first.toml"
     first.write_text('title = "first part"\n' + STRAP_TEXT + "[[section]]\nx = -60.0\n")
-    second = tmp_path / "second.toml"
+    second = folder / "second.toml"
     second.write_text('title = "second part"\n' + STRAP_TEXT)
+    return first, second
+
+
+def test_rerun_report_leaves_no_stale_figure(tmp_path, capsys):
+    # the second report must not keep the first part's cut figure
+    first, second = _two_parts(tmp_path)
     folder = tmp_path / "review"
     _report(first, folder)
     assert (folder / "figures" / "cut_1.png").exists()
@@ -166,10 +172,7 @@ def test_rerun_report_leaves_no_stale_figure(tmp_path, capsys):
 def test_report_killed_while_written_is_the_old_one_whole(tmp_path):
     # A run killed (SIGKILL: no clean-up) while it writes a new report over an earlier one must leave the
     # earlier report exactly as it was (or the new one whole): never a mix of two parts' figures.
-    first = tmp_path / "first.toml"
-    first.write_text('title = "first part"\n' + STRAP_TEXT + "[[section]]\nx = -60.0\n")
-    second = tmp_path / "second.toml"
-    second.write_text('title = "second part"\n' + STRAP_TEXT)
+    first, second = _two_parts(tmp_path)
     folder = tmp_path / "review"
     _report(first, folder)
     before = _listing(folder)
