@@ -91,8 +91,6 @@ def with_sections(spec, options: list[str]):
     return spec
 
 
-
-
 def report_folder(value: str) -> Path:
     """The --report folder, checked before any work: a folder or a new path in a folder that can be
     written in. The report replaces its folder whole, so an existing folder must be empty or hold only an

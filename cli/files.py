@@ -139,7 +139,11 @@ def _swap(a: Path, b: Path) -> None:
         if code not in (errno.ENOSYS, errno.EINVAL, errno.ENOTSUP):
             raise OSError(code, os.strerror(code), str(b))
     parked = Path(tempfile.mkdtemp(prefix=f".{b.name}.", suffix=".swap", dir=b.parent))
-    os.rename(b, parked)  # replaces the empty folder just made
+    try:
+        os.rename(b, parked)  # replaces the empty folder just made
+    except OSError:
+        parked.rmdir()
+        raise
     try:
         os.rename(a, b)
     except OSError:

@@ -224,3 +224,27 @@ def test_closed_pipe_on_standard_output_is_an_output_error(tmp_path):
         os.close(write_end)
     assert done.returncode == 2
     assert done.stderr.strip().splitlines() == ["stressraiser: standard output: cannot be written (Broken pipe)"]
+
+
+@pytest.mark.parametrize("one_step", [True, False], ids=["exchange", "two renames"])
+def test_atomic_folder(tmp_path, monkeypatch, one_step):
+    # the report folder's swap, with Linux's one-step exchange and with the two renames used elsewhere
+    if not one_step:
+        import ctypes
+
+        def no_c_library(*args, **kwargs):
+            raise OSError("no C library here")
+        monkeypatch.setattr(ctypes, "CDLL", no_c_library)
+    target = tmp_path / "out"
+    with files.atomic_folder(target) as fresh:
+        (fresh / "a.txt").write_text("first")
+    assert _listing(target) == {"a.txt": b"first"}
+    with files.atomic_folder(target) as fresh:
+        (fresh / "b.txt").write_text("second")
+    assert _listing(target) == {"b.txt": b"second"}  # nothing of the first is left
+    with pytest.raises(KeyboardInterrupt):
+        with files.atomic_folder(target) as fresh:
+            (fresh / "c.txt").write_text("half")
+            raise KeyboardInterrupt
+    assert _listing(target) == {"b.txt": b"second"}
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["out"]  # no hidden folder left either
