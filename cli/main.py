@@ -33,7 +33,7 @@ NEGATIVE_VALUE_OPTIONS = ("--section",)
 _NEGATIVE_VALUE = re.compile(r"^-\.?\d")
 
 # What every command needs loaded: the terminal, numerical and meshing libraries (see `entry`).
-LIBRARIES = ("rich.console", "stressraiser.fem.solve", "stressraiser.geometry.meshing")
+LIBRARIES = ("rich.console", "..fem.solve", "..geometry.meshing")  # relative ones: of this package
 
 
 class _Parser(argparse.ArgumentParser):
@@ -132,7 +132,7 @@ def entry() -> None:
     gc.disable()
     try:
         for name in LIBRARIES:
-            importlib.import_module(name)
+            importlib.import_module(name, __package__)
         command_modules()
     finally:
         gc.freeze()
