@@ -27,6 +27,7 @@ from conftest import EXAMPLES, REPO, STRAP_TEXT
 from process_tree import start_command, stop_tree, wait_until
 
 STRAP = EXAMPLES / "winch_strap.toml"
+QUICK = "[mesh]\ntolerance = 0.05\n"  # three levels: the report is what these tests look at
 
 
 @pytest.fixture
@@ -151,35 +152,25 @@ def _two_parts(folder: Path) -> tuple[Path, Path]:
     """Two strap part files in `folder`: the first with a requested cut (its report has the figure
     figures/cut_1.*), the second without."""
     first = folder / "first.toml"
-    first.write_text('title = "first part"\n' + STRAP_TEXT + "[[section]]\nx = -60.0\n")
+    first.write_text('title = "first part"\n' + STRAP_TEXT + "[[section]]\nx = -60.0\n" + QUICK)
     second = folder / "second.toml"
-    second.write_text('title = "second part"\n' + STRAP_TEXT)
+    second.write_text('title = "second part"\n' + STRAP_TEXT + QUICK)
     return first, second
 
 
-def test_rerun_report_leaves_no_stale_figure(tmp_path, capsys):
-    # the second report must not keep the first part's cut figure
+def test_report_folder_is_replaced_whole(tmp_path):
+    # A run killed (SIGKILL: no clean-up) while it writes a new report over an earlier one must leave the
+    # earlier report exactly as it was (or the new one whole): never a mix of two parts' figures. And a
+    # complete re-run must leave no figure of the earlier part (here its cut figure, figures/cut_1.*).
     first, second = _two_parts(tmp_path)
     folder = tmp_path / "review"
     _report(first, folder)
     assert (folder / "figures" / "cut_1.png").exists()
-    _report(second, folder)
-    assert not list((folder / "figures").glob("cut_*"))
-    assert json.loads((folder / "check.json").read_text())["title"] == "second part"
-    assert sorted(p.name for p in tmp_path.iterdir()) == ["first.toml", "review", "second.toml"]  # no leftovers
-
-
-def test_report_killed_while_written_is_the_old_one_whole(tmp_path):
-    # A run killed (SIGKILL: no clean-up) while it writes a new report over an earlier one must leave the
-    # earlier report exactly as it was (or the new one whole): never a mix of two parts' figures.
-    first, second = _two_parts(tmp_path)
-    folder = tmp_path / "review"
-    _report(first, folder)
     before = _listing(folder)
     started = time.time()
     process = start_command(["check", str(second), "--report", str(folder), "--quiet"])
     try:
-        def writing() -> bool:  # a fresh folder beside it, or any file of the folder touched
+        def writing() -> bool:  # a fresh folder beside it with a figure in it, or any file of the folder touched
             fresh = [p for p in tmp_path.iterdir() if p.name.startswith(".review.")]
             touched = [p for p in folder.rglob("*") if p.stat().st_mtime >= started] if folder.exists() else []
             return bool(fresh and list(fresh[0].rglob("*.png")) or touched)
@@ -194,6 +185,12 @@ def test_report_killed_while_written_is_the_old_one_whole(tmp_path):
         assert after == before
     else:  # the kill came after the swap: the new report, whole
         assert title == "second part" and not any(name.startswith("figures/cut_") for name in after)
+    _report(second, folder)
+    assert json.loads((folder / "check.json").read_text())["title"] == "second part"
+    assert not list((folder / "figures").glob("cut_*"))
+    # nothing beside it but what the kill may leave: the hidden fresh folder it was writing into
+    assert sorted(p.name for p in tmp_path.iterdir() if not p.name.startswith(".review.")) == \
+        ["first.toml", "review", "second.toml"]
 
 
 class _FullStream(io.StringIO):
