@@ -11,6 +11,7 @@ far-field size within `reach` widths of everything whose stress is read:
 - every raiser (the x extent of its edge),
 - both ends (loads, supports, a clamped end's corners), and a symmetry plane across the length (x = 0),
 - every section cut (its x extent across the part),
+- every stretch of the boundary a [[hold]] or a [[load.edge]] of any load case acts on (its x extent),
 
 and between those near zones, in the far zones, lets the size grow linearly with the distance from the
 nearest near zone (slope `growth`) up to `largest` times the part's narrowest width. A part with no far
@@ -29,6 +30,7 @@ from dataclasses import dataclass
 
 from shapely.geometry import box
 
+from .boundary import boundary_picks, stretch
 from .kinds import bar
 from .outline import feature_edges, part_polygon
 from .registry import outline_size
@@ -75,6 +77,7 @@ def far_zones(spec: PartSpec, grading: FarGrading = FarGrading()) -> tuple[tuple
             lo, _, hi, _ = edge.bounds
             near.append((lo, hi))
     near += [_cut_extent(spec, s.point, s.normal) for s in spec.sections]
+    near += [_stretch_extent(spec, pick) for pick in boundary_picks(spec)]
     near.sort()
     zones = []
     reached = near[0][1] + margin
@@ -83,6 +86,12 @@ def far_zones(spec: PartSpec, grading: FarGrading = FarGrading()) -> tuple[tuple
             zones.append((reached, lo - margin))
         reached = max(reached, hi + margin)
     return tuple(z for z in zones if z[1] - z[0] >= grading.shortest * narrowest_width(spec))
+
+
+def _stretch_extent(spec: PartSpec, pick) -> tuple[float, float]:
+    """(x_min, x_max) in mm of a picked stretch of the boundary."""
+    x = stretch(spec, pick).samples()[:, 0]
+    return float(x.min()), float(x.max())
 
 
 def far_cuts(spec: PartSpec, grading: FarGrading = FarGrading()) -> tuple[float, ...]:

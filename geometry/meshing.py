@@ -23,6 +23,7 @@ from shapely.geometry import Point
 
 from .far_field import FarGrading, across_cut, far_cuts, grown_size_expression
 from .bands import Piece, add_tools, ellipse_layers, make_transfinite, raiser_pieces
+from .boundary import split_points
 from .mesh import EdgeName, Feature, Mesh
 from .quadratic import QUADRATIC_SIZE, elevate_and_extract, sub_edges, sub_triangles
 from .mesh_guard import check_finite, check_mesh, checked_expression
@@ -163,6 +164,7 @@ def _build(spec: PartSpec, pieces: list[Piece], cuts: tuple[float, ...] = ()) ->
     occ = gmsh.model.occ
     plate = _wire_surface([e.segment for e in outline_of(spec).path(spec)])
     part = occ.cut([(2, plate)], _cutouts(spec))[0] if spec.raisers else [(2, plate)]
+    part = _split_boundary(spec, part)
     outline = plate_polygon(spec).boundary
     length, width = outline_size(spec)
     on_outline = ON_OUTLINE * width
@@ -188,6 +190,19 @@ def _line(a: tuple[float, float], b: tuple[float, float]) -> int:
     """An OCC line from a to b (mm)."""
     occ = gmsh.model.occ
     return occ.addLine(occ.addPoint(a[0], a[1], 0.0), occ.addPoint(b[0], b[1], 0.0))
+
+
+def _split_boundary(spec: PartSpec, part: list[tuple[int, int]]) -> list[tuple[int, int]]:
+    """The part with a vertex added on its boundary at every end of a held or loaded stretch that lies
+    inside a line or arc (geometry.boundary.split_points), so that the stretch ends at a mesh node."""
+    x0, y0, x1, y1 = modelled_box(spec)
+    tol = PIECE_TOLERANCE * max(outline_size(spec))
+    points = [p for p in split_points(spec) if x0 - tol <= p[0] <= x1 + tol and y0 - tol <= p[1] <= y1 + tol]
+    if not points:
+        return part
+    occ = gmsh.model.occ
+    tags = [(0, occ.addPoint(p[0], p[1], 0.0)) for p in points]
+    return [d for d in occ.fragment(part, tags)[0] if d[0] == 2]
 
 
 def _cutouts(spec: PartSpec) -> list[tuple[int, int]]:
@@ -298,15 +313,21 @@ def _size_field(spec: PartSpec, raisers: list[Raiser], features: tuple[Feature, 
 def far_size(spec: PartSpec, scale: float, sizing: Sizing = Sizing()) -> float:
     """Largest element size (mm). Under axial or remote loads the far field carries a near-uniform stress
     that linear triangles represent exactly, so the cap does not follow `scale`: refining it buys
-    nothing. Under bending or shear (or a pin pulling across the part) the far-field stress varies across
-    the width, which constant-strain triangles only approximate, so the cap is finer and shrinks with
-    `scale`."""
-    pin = spec.load.pin
-    across = pin is not None and abs(math.sin(math.radians(pin.direction))) > 1e-9
+    nothing. Under bending or shear (or a pin pulling across the part, or loads and supports on the
+    boundary, which spread through the part as they will) the far-field stress varies across the width,
+    which constant-strain triangles only approximate, so the cap is finer and shrinks with `scale`. With
+    several load cases the mesh (one for all) is the finest any case needs."""
     width = outline_size(spec)[1]
-    if spec.load.kind in ("axial", "remote") or (pin is not None and not across):
-        return sizing.far_fraction * width
-    return min(sizing.far_fraction, sizing.bending_far_fraction * scale) * width
+    if spec.support.holds or not all(_uniform_far_field(case.load) for case in spec.load_cases):
+        return min(sizing.far_fraction, sizing.bending_far_fraction * scale) * width
+    return sizing.far_fraction * width
+
+
+def _uniform_far_field(load) -> bool:
+    """Whether a load leaves a near-uniform stress away from the raisers: axial, remote, or a pin along x."""
+    pin = load.pin
+    across = pin is not None and abs(math.sin(math.radians(pin.direction))) > 1e-9
+    return load.kind in ("axial", "remote") or (load.kind == "pin" and not across)
 
 
 def _extract(curves: dict[EdgeName, list[int]]) -> tuple[np.ndarray, np.ndarray, dict[EdgeName, np.ndarray]]:

@@ -16,14 +16,16 @@ from .readers import DEFAULT_UNITS, integer, known, number, point, positive, sho
 from .registry import TABLES, outline_of, read_raisers
 from .spec import STRESS_STATES, Load, Material, MeshControls, PartSpec, Plate
 from .spec import DESIGN_BEHAVIOURS, NEUBER_STEEL_RANGE_MPA, Q_METHODS, DesignSpec, FatigueSpec
-from .spec import HELD_MODES, PIN_CONTACTS, SYMMETRY_PLANES, Pin, Remote, SectionSpec, Support
+from .spec import HELD_MODES, NO_HELD_END, PIN_CONTACTS, SINGLE_CASE, SYMMETRY_PLANES, LoadCase, Pin, Remote
+from .spec import SectionSpec, Support
 from .spec import MESH_SOLVERS
 from .validate import validate_geometry
 
 if TYPE_CHECKING:
     from .materials import MaterialRow
 
-TOP_KEYS = {"title", "units", "plate", "material", "load", "mesh", "design", "fatigue", "support", "section"} | TABLES
+TOP_KEYS = {"title", "units", "plate", "material", "load", "mesh", "design", "fatigue", "support", "section",
+            "hold"} | TABLES  # hold: geometry/boundaryfile.py
 MAX_PART_BYTES = 1_000_000  # longest part file read (a real one is a few kB)
 
 
@@ -53,16 +55,20 @@ def part_from_dict(data: dict[str, Any]) -> PartSpec:
     if not isinstance(title, str):
         raise PartError(f"title: must be a text string; got {shown(title)}")
     units = _units(data.get("units", DEFAULT_UNITS))
+    plate = _plate(table(data, "plate"), units)
+    material = _material(table(data, "material"), units)
+    cases = _load_cases(data, units)
     spec = PartSpec(
         title=title,
-        plate=_plate(table(data, "plate"), units),
-        material=_material(table(data, "material"), units),
-        load=_load(table(data, "load"), units),
+        plate=plate,
+        material=material,
+        load=cases[0].load,
         raisers=read_raisers(data, units),
         mesh=_mesh(table(data, "mesh", required=False)),
         units=units,
-        support=_support(table(data, "support", required=False)),
+        support=_support(table(data, "support", required=False), data.get("hold"), units),
         sections=_sections(data.get("section", []), units),
+        cases=cases if isinstance(data.get("load"), list) else (),
     )
     spec = replace(spec, **outline_of(spec).read(data, spec))
     from .resolution import check_feature_count, check_resolution
@@ -175,78 +181,120 @@ def _strengths_in_order(m: Material, units: str) -> None:
                         f"above the ultimate strength {format_quantity(m.ultimate, 'stress', units)}")
 
 
-def _load(t: dict[str, Any], units: str) -> Load:
-    """[load]: end loads (axial, bending, shear, any mix), or a [load.remote] stress state, or a [load.pin]."""
-    known(t, {"axial", "bending", "shear", "remote", "pin"}, "load")
+def _load_cases(data: dict[str, Any], units: str) -> tuple[LoadCase, ...]:
+    """One [load] table (one case, named "load" unless it says otherwise), or [[load]] entries: several
+    named load cases on the part's one stiffness."""
+    from .boundaryfile import case_name
+
+    if "load" not in data:
+        raise PartError("[load]: missing table")
+    items = data["load"]
+    if isinstance(items, dict):
+        return (LoadCase(case_name(items, "load", SINGLE_CASE), _load(items, units, "load")),)
+    if not isinstance(items, list) or not items or not all(isinstance(i, dict) for i in items):
+        raise PartError("load: must be a table written [load], or load cases written [[load]] (one table each)")
+    cases = []
+    for n, item in enumerate(items, start=1):
+        where = f"load {n}"
+        name = case_name(item, where, f"load {n}")
+        if any(c.name == name for c in cases):
+            raise PartError(f"{where}.name: {name!r} names another load case too; each case needs its own name")
+        cases.append(LoadCase(name, _load(item, units, where)))
+    if len({c.load.remote is None for c in cases}) > 1:
+        first = next(n for n, c in enumerate(cases, start=1) if c.load.remote is not None)
+        raise PartError(f"load {first}.remote: a remote stress state is held only against rigid-body motion, so it "
+                        "cannot share a part (one stiffness, one set of supports) with load cases that need the "
+                        "held end; check them as separate parts")
+    return tuple(cases)
+
+
+def _load(t: dict[str, Any], units: str, where: str = "load") -> Load:
+    """A [load] table: end loads (axial, bending, shear, any mix), or a [load.remote] stress state, or a
+    [load.pin]; [[load.edge]] loads on the boundary, alone or with a pin. `where` names the table."""
+    from .boundaryfile import read_edge_loads
+
+    known(t, {"axial", "bending", "shear", "remote", "pin", "edge", "name"}, where)
     ends = [k for k in ("axial", "bending", "shear") if k in t]
     load = Load(
-        axial=number(t, "axial", "load", "force", units, required=False, default=0.0),
-        bending=number(t, "bending", "load", "moment", units, required=False, default=0.0),
-        shear=number(t, "shear", "load", "force", units, required=False, default=0.0),
-        remote=_remote(t["remote"], units) if "remote" in t else None,
-        pin=_pin(t["pin"], units) if "pin" in t else None,
+        axial=number(t, "axial", where, "force", units, required=False, default=0.0),
+        bending=number(t, "bending", where, "moment", units, required=False, default=0.0),
+        shear=number(t, "shear", where, "force", units, required=False, default=0.0),
+        remote=_remote(t["remote"], units, f"{where}.remote") if "remote" in t else None,
+        pin=_pin(t["pin"], units, f"{where}.pin") if "pin" in t else None,
+        edges=read_edge_loads(t["edge"], where, units) if "edge" in t else (),
     )
-    if load.remote is not None and (ends or load.pin is not None):
-        other = ends[0] if ends else "pin"
-        raise PartError(f"load.remote: cannot be combined with load.{other}; the remote state loads every outer "
-                        "edge and needs no held end")
+    if load.remote is not None and (ends or load.pin is not None or load.edges):
+        other = ends[0] if ends else "pin" if load.pin is not None else "edge"
+        raise PartError(f"{where}.remote: cannot be combined with {where}.{other}; the remote state loads every "
+                        "outer edge and needs no held end")
     if load.pin is not None and ends:
-        raise PartError(f"load.pin: cannot be combined with load.{ends[0]}; check the pin load and the end loads "
-                        "as separate parts")
-    if load.remote is None and load.pin is None and not load.has_end_loads:
-        name = f"load.{ends[0]}" if ends else "load"
-        raise PartError(f"{name}: every load is zero; give a non-zero load.axial (N, positive in tension), "
-                        "load.bending (N mm) or load.shear (N), or a [load.remote] or [load.pin] table")
+        raise PartError(f"{where}.pin: cannot be combined with {where}.{ends[0]}; check the pin load and the end "
+                        "loads as separate load cases")
+    if load.remote is None and load.pin is None and not load.has_end_loads and not load.edges:
+        name = f"{where}.{ends[0]}" if ends else where
+        raise PartError(f"{name}: every load is zero; give a non-zero {where}.axial (N, positive in tension), "
+                        f"{where}.bending (N mm) or {where}.shear (N), a [load.remote] or [load.pin] table, or "
+                        "[[load.edge]] loads")
     return load
 
 
 # --- loads, supports and sections beyond axial tension ------------------------------------------------
 
 
-def _remote(t: Any, units: str) -> Remote:
+def _remote(t: Any, units: str, where: str = "load.remote") -> Remote:
     """[load.remote]: the uniform stress state sx, sy, txy (stresses, default 0) on every outer edge."""
     if not isinstance(t, dict):
-        raise PartError("load.remote: must be a table written [load.remote] with sx, sy and txy (stresses)")
-    known(t, {"sx", "sy", "txy"}, "load.remote")
-    remote = Remote(*(number(t, k, "load.remote", "stress", units, required=False, default=0.0)
+        raise PartError(f"{where}: must be a table written [load.remote] with sx, sy and txy (stresses)")
+    known(t, {"sx", "sy", "txy"}, where)
+    remote = Remote(*(number(t, k, where, "stress", units, required=False, default=0.0)
                       for k in ("sx", "sy", "txy")))
     if remote.sx == remote.sy == remote.txy == 0.0:
-        raise PartError("load.remote: sx, sy and txy are all zero; give at least one non-zero stress")
+        raise PartError(f"{where}: sx, sy and txy are all zero; give at least one non-zero stress")
     return remote
 
 
-def _pin(t: Any, units: str) -> Pin:
+def _pin(t: Any, units: str, where: str = "load.pin") -> Pin:
     """[load.pin]: hole (1-based), force (> 0), direction (degrees from +x, default 0), contact ("cosine",
     default, or "rigid") and clearance (diametral, a length >= 0, default 0; "rigid" only)."""
     if not isinstance(t, dict):
-        raise PartError("load.pin: must be a table written [load.pin] with hole, force and direction")
-    known(t, {"hole", "force", "direction", "contact", "clearance"}, "load.pin")
+        raise PartError(f"{where}: must be a table written [load.pin] with hole, force and direction")
+    known(t, {"hole", "force", "direction", "contact", "clearance"}, where)
     hole = t.get("hole")
     if isinstance(hole, bool) or not isinstance(hole, int) or hole < 1:
-        raise PartError(f"load.pin.hole: must be the number of a [[hole]] entry (1 for the first); got {hole!r}")
-    direction = number(t, "direction", "load.pin", required=False, default=0.0)
+        raise PartError(f"{where}.hole: must be the number of a [[hole]] entry (1 for the first); got {hole!r}")
+    direction = number(t, "direction", where, required=False, default=0.0)
     if not -360.0 <= direction <= 360.0:
-        raise PartError(f"load.pin.direction: {direction} is outside the allowed range -360 to 360 degrees")
+        raise PartError(f"{where}.direction: {direction} is outside the allowed range -360 to 360 degrees")
     contact = t.get("contact", Pin.contact)
     if contact not in PIN_CONTACTS:
-        raise PartError(f"load.pin.contact: {shown(contact)} is not allowed; use one of {', '.join(PIN_CONTACTS)}")
-    clearance = number(t, "clearance", "load.pin", "length", units, required=False, default=0.0)
+        raise PartError(f"{where}.contact: {shown(contact)} is not allowed; use one of {', '.join(PIN_CONTACTS)}")
+    clearance = number(t, "clearance", where, "length", units, required=False, default=0.0)
     if clearance < 0.0:
-        raise PartError(f"load.pin.clearance: must be zero or more (the pin's diametral clearance); got "
+        raise PartError(f"{where}.clearance: must be zero or more (the pin's diametral clearance); got "
                         f"{shown(t['clearance'])}")
     if "clearance" in t and contact != "rigid":
-        raise PartError("load.pin.clearance: applies only with load.pin.contact = \"rigid\" (the cosine pressure "
+        raise PartError(f"{where}.clearance: applies only with {where}.contact = \"rigid\" (the cosine pressure "
                         "has no pin to fit)")
-    return Pin(hole=hole, force=positive(t, "force", "load.pin", "force", units), direction=direction,
+    return Pin(hole=hole, force=positive(t, "force", where, "force", units), direction=direction,
                contact=contact, clearance=clearance)
 
 
-def _support(t: dict[str, Any]) -> Support:
-    """[support]: held = "x" | "clamped"; symmetry = a list of mirror planes, "x" and/or "y"."""
+def _support(t: dict[str, Any], hold_items: Any = None, units: str = DEFAULT_UNITS) -> Support:
+    """[support]: held = "x" | "clamped"; symmetry = a list of mirror planes, "x" and/or "y"; with
+    [[hold]] entries (geometry/boundaryfile.py) the part is held by them instead of the held end."""
     known(t, {"held", "symmetry"}, "support")
     held = t.get("held", Support.held)
     if held not in HELD_MODES:
         raise PartError(f"support.held: {held!r} is not allowed; use one of {', '.join(HELD_MODES)}")
+    holds = ()
+    if hold_items is not None:
+        from .boundaryfile import read_holds
+
+        holds = read_holds(hold_items, units)
+        if "held" in t:
+            raise PartError("support.held: the part is held by its [[hold]] entries instead of the held end; hold "
+                            "that end with a [[hold]] too (mode \"fixed\" or \"roller\")")
+        held = NO_HELD_END if holds else held
     planes = t.get("symmetry", [])
     if isinstance(planes, str):
         planes = [planes]
@@ -254,7 +302,7 @@ def _support(t: dict[str, Any]) -> Support:
             or len(set(planes)) != len(planes)):
         raise PartError(f"support.symmetry: must be a list of distinct planes from \"x\" (the plane x = 0) and "
                         f"\"y\" (the plane y = 0); got {t.get('symmetry')!r}")
-    return Support(held=held, symmetry=tuple(sorted(planes)))
+    return Support(held=held, symmetry=tuple(sorted(planes)), holds=holds)
 
 
 def _sections(items: Any, units: str) -> tuple[SectionSpec, ...]:
@@ -350,11 +398,12 @@ def _design(data: dict[str, Any], spec: PartSpec) -> DesignSpec | None:
     if ultimate_factor is not None and m.ultimate is None:
         raise PartError("material.ultimate: missing; design.ultimate_factor needs the ultimate strength")
     bearing = positive(t, "bearing_strength", "design", "stress", spec.units, required=False)
-    if bearing is not None and spec.load.pin is None:
+    pinned = any(case.load.pin is not None for case in spec.load_cases)
+    if bearing is not None and not pinned:
         raise PartError(f"design.bearing_strength: applies to a pin's hole ([load.pin]) only; this part's load is "
                         f"{spec.load.kind}")
     behaviour, basis = _behaviour(t, m, "ductile" in data.get("material", {}))
-    defaults = ("yield_factor", "behaviour") + (("bearing_strength",) if spec.load.pin is not None else ())
+    defaults = ("yield_factor", "behaviour") + (("bearing_strength",) if pinned else ())
     return DesignSpec(yield_factor=yield_factor, ultimate_factor=ultimate_factor, behaviour=behaviour,
                       behaviour_basis=basis, bearing_strength=bearing, defaults=_left_out(t, defaults))
 
@@ -454,6 +503,10 @@ def _cycle_order(low: float, high: float, low_key: str, high_key: str, t: dict[s
 
 def _load_force(spec: PartSpec, key: str) -> float:
     """The one force of the [load] a cycle in forces is divided by: load.axial alone, or the pin's force."""
+    if spec.cases:
+        raise PartError(f"fatigue.{key}: with several load cases a cycle in forces is ambiguous; give "
+                        "fatigue.min_fraction and fatigue.max_fraction, the cycle's extremes as multiples of each "
+                        "case's load")
     if spec.load.kind == "axial":
         return spec.load.axial
     if spec.load.kind == "pin":
@@ -464,8 +517,16 @@ def _load_force(spec: PartSpec, key: str) -> float:
 
 
 def _cycle_fits_load(spec: PartSpec, low: float, high: float, key: str) -> None:
-    """A pin only pushes; a rigid pin with clearance does not scale with its load."""
-    pin = spec.load.pin
+    """A pin only pushes; a rigid pin with clearance does not scale with its load (in every load case); a
+    part held by pins bears on them one way only."""
+    for case in spec.load_cases:
+        _pin_cycle(case.load.pin, low, high, key)
+    if low < 0.0 and any(h.pin is not None for h in spec.support.holds):
+        raise PartError(f"fatigue.{key}: the part bears on its holding pins one way only, so its cycle cannot go "
+                        "below zero (a reversed load presses the other side of the holes, another load case)")
+
+
+def _pin_cycle(pin: Pin | None, low: float, high: float, key: str) -> None:
     if pin is None:
         return
     if low < 0.0:
@@ -537,11 +598,14 @@ def _method_fits(t: dict[str, Any], method: str, m: Material) -> None:
 
 
 def _no_compression(spec: PartSpec, what: str) -> None:
-    """The sign-off needs a tensile axial force where the load has one: a compressed part also needs a buckling
-    check this tool does not make."""
-    if spec.load.kind in ("axial", "combined") and spec.load.axial < 0.0:
-        raise PartError(f"load.axial: the {what} needs a tensile axial force (load.axial > 0); a compressive part "
-                        "also needs a buckling check this tool does not make")
+    """The sign-off needs a tensile axial force where a load case has one: a compressed part also needs a
+    buckling check this tool does not make."""
+    from .loading import case_keys
+
+    for where, case in case_keys(spec):
+        if case.load.kind in ("axial", "combined") and case.load.axial < 0.0:
+            raise PartError(f"{where}.axial: the {what} needs a tensile axial force ({where}.axial > 0); a "
+                            "compressive part also needs a buckling check this tool does not make")
 
 
 def _safety_factor(t: dict[str, Any], key: str, where: str, default: float | None) -> float | None:

@@ -100,7 +100,33 @@ class Remote:
         return centre + radius, centre - radius
 
 
-LOAD_KINDS = ("axial", "bending", "combined", "remote", "pin")
+LOAD_KINDS = ("axial", "bending", "combined", "remote", "pin", "boundary")
+
+
+@dataclass(frozen=True)
+class BoundaryPick:
+    """A stretch of the part's own boundary as the part file picks it (mm): `at`, a point on one piece
+    (the whole line or arc of the outline or of a cut-out nearest it), or `start` and `end`, the boundary
+    from the one to the other walking with the material on the left (counter-clockwise round the outline,
+    clockwise round a hole). `key` is the part-file key that gave it ("hold 2", "load.edge 1"), for
+    messages; geometry.boundary.stretch turns a pick into exact lines and arcs."""
+
+    key: str
+    at: tuple[float, float] | None = None
+    start: tuple[float, float] | None = None
+    end: tuple[float, float] | None = None
+
+
+@dataclass(frozen=True)
+class EdgeLoad:
+    """A load on a stretch of the boundary: a total force (N) in the direction `direction` (degrees,
+    counter-clockwise from +x) spread uniformly over the stretch's length, or a normal pressure (MPa,
+    positive pressing into the material). Exactly one of force and pressure is non-zero."""
+
+    where: BoundaryPick
+    force: float = 0.0
+    direction: float = 0.0
+    pressure: float = 0.0
 
 
 @dataclass(frozen=True)
@@ -113,7 +139,8 @@ class Load:
       shear: transverse force in N along +y (parabolic traction, 3 V / (2 W t) (1 - 4 y^2 / W^2)); it also
              bends the part by V times the lever arm to the loaded end.
     remote: a uniform stress state on every outer edge instead (self-equilibrated: no held end).
-    pin: a pin load through a hole instead, reacted at the held end.
+    pin: a pin load through a hole instead, reacted at the held end (or the part's [[hold]] supports).
+    edges: loads on stretches of the part's own boundary ([[load.edge]]), alone or with a pin.
     """
 
     axial: float = 0.0
@@ -121,6 +148,7 @@ class Load:
     shear: float = 0.0
     remote: Remote | None = None
     pin: Pin | None = None
+    edges: tuple[EdgeLoad, ...] = ()
 
     @property
     def has_end_loads(self) -> bool:
@@ -129,7 +157,10 @@ class Load:
     @property
     def kind(self) -> str:
         """"axial" (axial force only), "bending" (moment and/or shear, no axial force), "combined" (axial with
-        moment or shear), "remote" or "pin"."""
+        moment or shear), "remote", "pin", or "boundary" (loads on stretches of the boundary, with or
+        without a pin)."""
+        if self.edges:
+            return "boundary"
         if self.remote is not None:
             return "remote"
         if self.pin is not None:
@@ -139,8 +170,31 @@ class Load:
         return "bending" if self.axial == 0.0 else "combined"
 
 
-HELD_MODES = ("x", "clamped")
+@dataclass(frozen=True)
+class LoadCase:
+    """One named load case: a Load on the part's one stiffness (the supports are shared by every case)."""
+
+    name: str
+    load: Load
+
+
+HELD_MODES = ("x", "clamped")  # the default held end, as a part file gives it
+NO_HELD_END = "none"  # Support.held when the part is held by [[hold]] supports instead
+HOLD_MODES = ("fixed", "roller")
 SYMMETRY_PLANES = ("x", "y")
+
+
+@dataclass(frozen=True)
+class Hold:
+    """A support on the part's own boundary ([[hold]]): the stretch `where` held "fixed" (both
+    displacements zero) or "roller" (the displacement normal to the edge zero, free along it); or, with
+    `pin`, the hole of that number (1-based) held by a rigid, frictionless, neat-fit pin fixed in space
+    (fem/contact.py: the contact arc comes out of the solve). `key` names it in messages ("hold 2")."""
+
+    key: str
+    where: BoundaryPick | None = None
+    mode: str = "fixed"
+    pin: int | None = None
 
 
 @dataclass(frozen=True)
@@ -149,7 +203,8 @@ class Support:
 
     held: "x" (default: every node of the held end x = -length/2 held in x, free to contract; any
           transverse load is reacted there by the parabolic shear traction statics requires, and one
-          node is held in y against rigid-body motion) or "clamped" (held end fixed in x and y).
+          node is held in y against rigid-body motion) or "clamped" (held end fixed in x and y); "none"
+          (NO_HELD_END) when the part file gives [[hold]] supports instead.
     symmetry: mirror planes the model uses, "x" (the plane x = 0) and/or "y" (the plane y = 0): only the
           part on the positive side is meshed, with rollers on the plane, and every result is reported
           for the full part. Part, holes and loads must be symmetric about each plane.
@@ -157,6 +212,7 @@ class Support:
 
     held: str = "x"
     symmetry: tuple[str, ...] = ()
+    holds: tuple[Hold, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -277,8 +333,23 @@ class PartSpec:
     outline: str = "bar"
     step: Step | None = None
     lug: Lug | None = None
+    cases: tuple[LoadCase, ...] = ()  # every load case when the part file gives [[load]] entries; `load` is the first
 
     @property
     def holes(self) -> tuple[Hole, ...]:
         """The circular holes in part-file order (pins and lugs refer to them by number)."""
         return tuple(r for r in self.raisers if r.KIND == HOLE)
+
+    @property
+    def load_cases(self) -> tuple[LoadCase, ...]:
+        """Every load case of the part: `cases`, or the one `load` (named "load")."""
+        return self.cases or (LoadCase(SINGLE_CASE, self.load),)
+
+    def for_case(self, case: LoadCase) -> PartSpec:
+        """The part under one load case alone (its `load`; `cases` the one case when the part has several)."""
+        from dataclasses import replace
+
+        return replace(self, load=case.load, cases=(case,) if self.cases else ())
+
+
+SINGLE_CASE = "load"  # the name of the one case of a part file with a single [load] table

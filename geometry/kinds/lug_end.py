@@ -89,7 +89,9 @@ def check(spec: PartSpec) -> None:
         raise PartError(f"lug.hole: {named(n)} takes the pin, so its centre must be at ({lug.center[0]:g}, 0), half "
                         f"the width ({lug.radius:g} mm) from the {lug.end} end; got ({hole.center[0]:g}, "
                         f"{hole.center[1]:g})")
-    pin = spec.load.pin
-    if pin is None or pin.hole != n:
-        raise PartError(f"lug: a lug is loaded through its pin; give [load.pin] with hole = {n} (the far end "
-                        "is held and carries the reaction)")
+    held = any(h.pin == n for h in spec.support.holds)
+    for case in spec.load_cases:
+        pin = case.load.pin
+        if not held and (pin is None or pin.hole != n):
+            raise PartError(f"lug: a lug is loaded through its pin; give [load.pin] with hole = {n} (the far end "
+                            f"is held and carries the reaction), or hold it with a [[hold]] pin = {n}")
