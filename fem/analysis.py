@@ -7,16 +7,19 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from ..geometry.boundary import stretch
 from ..geometry.mesh import Mesh
 from ..geometry.spec import PartSpec
 from .assembly import element_stresses, stiffness_matrix
-from .contact import PinContact, contact_pressure, full_part_contact, rigid_pin, solve_pin_contact
+from .contact import (HeldPin, PinContact, contact_pressure, full_part_contact, group_forces, has_contact, held_pins,
+                      rigid_pin, solve_contact)
 from .elasticity import constitutive_matrix
-from .loads import loaded_edge_names, part_loads, pin_pressure_at_nodes
+from .loads import edge_loads, loaded_edge_names, part_loads, pin_pressure_at_nodes
 from .recovery import free_edge_stress, patch_recovery, principal_stresses, tresca, von_mises
 from .quadratic import quadratic_stiffness, sub_triangle_stresses
 from .solve import SolveReport, solve_system
-from .supports import part_supports, singular_zone
+from .stretches import on_point, segment_edges
+from .supports import Supports, singular_zone, skew_transform, support_set
 from .symmetry import Fields, unfold
 
 LOADED_EDGES = ("held", "loaded", "symmetry x", "symmetry y")  # not traction-free unless told otherwise
@@ -49,7 +52,9 @@ class Solution:
     reactions: np.ndarray | None = None
     excluded: np.ndarray | None = None  # (n,) bool: nodes left out of the peak search (support singularities)
     solver: SolveReport | None = None  # how the system was solved (fem/solve.py)
-    contact: PinContact | None = None  # a rigid pin's contact, for the full part (fem/contact.py)
+    contact: PinContact | None = None  # a rigid loading pin's contact, for the full part (fem/contact.py)
+    held_pins: tuple[HeldPin, ...] = ()  # the contact of every pin hold (their forces are reactions)
+    contact_arcs: tuple | None = None  # per fastener of the contact solve, its arcs (the next level's start)
 
     def peak_node(self) -> int:
         """Index of the node with the governing principal stress: the largest maximum principal stress,
@@ -76,41 +81,112 @@ class Solution:
 
 
 def solve_part(spec: PartSpec, mesh: Mesh, contact_start: tuple[float, float] | None = None) -> Solution:
-    """Assemble, load, support and solve the part on `mesh`; recover nodal stresses. A rigid pin's contact
-    is found by fem.contact, starting from `contact_start` (a coarser mesh's contact arc, degrees from the
-    pin's direction) when given, else from the loaded half of the hole."""
+    """Assemble, load, support and solve the part (its first load case) on `mesh`; recover nodal stresses.
+    A rigid pin's contact is found by fem.contact, starting from `contact_start` (a coarser mesh's contact
+    arc, degrees from the pin's direction) when given, else from the loaded half of the hole."""
+    case = spec.load_cases[0]
+    return solve_cases(spec.for_case(case), mesh, None if contact_start is None else [((contact_start,),)])[0]
+
+
+def solve_cases(spec: PartSpec, mesh: Mesh, contact_starts: list | None = None) -> tuple[Solution, ...]:
+    """Solve every load case of the part on `mesh`, in the order of spec.load_cases.
+
+    One stiffness is assembled and one set of supports built for all cases. The cases without rigid pins
+    are the columns of one solve (fem.solve: one factorisation, or one multigrid hierarchy); a case with a
+    rigid pin (a loading pin with contact "rigid", or any pin hold) is nonlinear and runs its own
+    active-set iteration (fem.contact) on the same assembled stiffness, each pass a solve of its own.
+    contact_starts: per case, a coarser mesh's contact arcs (per fastener, fem.contact.solve_contact) or None."""
     clock = time.perf_counter()
-    seconds = {}
+    seconds: dict[str, float] = {}
     D = constitutive_matrix(spec.material.E, spec.material.nu, spec.plate.condition)
     t = spec.plate.thickness
     quadratic = mesh.quadratic is not None  # 6-node triangles; mesh.triangles are then their sub-triangles
     K = quadratic_stiffness(mesh.nodes, mesh.quadratic, D, t) if quadratic else stiffness_matrix(mesh.nodes, mesh.triangles, D, t)
-    f = part_loads(spec, mesh)
+    cases = [spec.for_case(c) for c in spec.load_cases]
+    forces = [part_loads(case, mesh) for case in cases]
     seconds["assemble"], clock = time.perf_counter() - clock, time.perf_counter()
-    fixed = part_supports(spec, mesh)
-    contact = None
-    if rigid_pin(spec):
-        solved = solve_pin_contact(K, f, fixed, spec, mesh, contact_start)
-        u, solver, applied = solved.displacement, solved.report, f + solved.forces
-        pressure = contact_pressure(mesh, solved, spec)
-        contact = full_part_contact(spec, mesh, solved, pressure)
-    else:
-        u, solver = solve_system(K, f, fixed, spec.mesh.solver, mesh.nodes)
-        applied, pressure = f, pin_pressure_at_nodes(spec, mesh)
-    reactions = np.zeros_like(f)
-    reactions[fixed] = (K @ u - applied)[fixed]
+    supports = support_set(spec, mesh)
+    turn = skew_transform(K.shape[0], supports.skew_nodes, supports.skew_normals) if supports.skew_nodes.size else None
+    K_s = (turn.T @ K @ turn).tocsr() if turn is not None else K
+    fixed = np.union1d(supports.fixed, 2 * supports.skew_nodes + 1).astype(np.int64)
+    solved: list = [None] * len(cases)
+    linear = [k for k, case in enumerate(cases) if not has_contact(case)]
+    if linear:
+        F = forces[linear[0]] if len(linear) == 1 else np.column_stack([forces[k] for k in linear])
+        U, report = solve_system(K_s, F if turn is None else turn.T @ F, fixed, spec.mesh.solver, mesh.nodes)
+        U = U if turn is None else turn @ U
+        for j, k in enumerate(linear):
+            solved[k] = (U if U.ndim == 1 else U[:, j], report, None)
+    for k, case in enumerate(cases):
+        if solved[k] is None:
+            start = contact_starts[k] if contact_starts is not None else None
+            f_s = forces[k] if turn is None else turn.T @ forces[k]
+            contact = solve_contact(K_s, f_s, fixed, case, mesh, start)
+            u = contact.displacement if turn is None else turn @ contact.displacement
+            solved[k] = (u, contact.report, contact)
     seconds["solve"], clock = time.perf_counter() - clock, time.perf_counter()
-    sigma_e = sub_triangle_stresses(mesh.nodes, mesh.quadratic, D, u) if quadratic else element_stresses(mesh.nodes, mesh.triangles, D, u)
+    quadratic = mesh.quadratic is not None
+    sigma = [sub_triangle_stresses(mesh.nodes, mesh.quadratic, D, s[0]) if quadratic
+             else element_stresses(mesh.nodes, mesh.triangles, D, s[0]) for s in solved]
+    patched = patch_recovery(mesh.nodes, mesh.triangles, np.hstack(sigma), mesh.boundary_nodes())  # all cases at once
+    seconds["recover"] = (time.perf_counter() - clock) / len(cases)
+    return tuple(_case_solution(case, mesh, K, forces[k], supports, solved[k], sigma[k], patched[:, 3 * k:3 * k + 3],
+                                dict(seconds)) for k, case in enumerate(cases))
+
+
+def _case_solution(spec: PartSpec, mesh: Mesh, K, f: np.ndarray, supports: Supports, solved, sigma_e: np.ndarray,
+                   patched: np.ndarray, seconds: dict[str, float]) -> Solution:
+    """One case's Solution from its displacements, element stresses and patch-recovered nodal stresses:
+    reactions, the exact edge states, the full part's fields of a symmetric model, and the nodes the peak
+    search skips."""
+    clock = time.perf_counter()
+    u, report, contact_solve = solved
+    applied, pressure, loading, holding, arcs = f, pin_pressure_at_nodes(spec, mesh), None, (), None
+    if contact_solve is not None:
+        applied = f + group_forces(contact_solve, spec, holding=False)
+        pressure = contact_pressure(mesh, contact_solve, spec)
+        loading = full_part_contact(spec, mesh, contact_solve, pressure) if rigid_pin(spec) else None
+        holding = held_pins(contact_solve, spec)
+        arcs = tuple(f.arcs for f in contact_solve.fasteners)
+    residual = K @ u - applied
+    reactions = np.zeros_like(f)
+    reactions[supports.fixed] = residual[supports.fixed]
+    for c in (0, 1):
+        reactions[2 * supports.skew_nodes + c] = residual[2 * supports.skew_nodes + c]
+    if contact_solve is not None:
+        reactions += group_forces(contact_solve, spec, holding=True)
+    skip, keep, edge_pressure = _edge_states(spec, mesh, supports)
+    pressure = np.maximum(pressure, edge_pressure)
     nodal = recover_nodal(mesh, sigma_e, u, edge_modulus(spec), tuple(loaded_edge_names(spec)),
-                          pressure, poisson_coupling(spec), held_corners(spec))
+                          pressure, poisson_coupling(spec), held_corners(spec), skip, keep, patched)
     if spec.support.symmetry:
         full = unfold(spec, Fields(mesh, u, sigma_e, nodal, reactions))
         mesh, u, sigma_e, nodal, reactions = full.mesh, full.displacement, full.element_stress, full.nodal_stress, full.reactions
     szz = spec.material.nu * (nodal[:, 0] + nodal[:, 1]) if spec.plate.condition == "plane-strain" else 0.0
     vm = von_mises(nodal, szz)
-    seconds["recover"] = time.perf_counter() - clock
+    seconds["recover"] += time.perf_counter() - clock
     return Solution(mesh, u, sigma_e, nodal, principal_stresses(nodal), vm, seconds, tresca(nodal, szz), reactions,
-                    singular_zone(spec, mesh), solver, contact)
+                    singular_zone(spec, mesh), report, loading, holding, arcs)
+
+
+def _edge_states(spec: PartSpec, mesh: Mesh, supports: Supports) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """(edges that are not traction-free beyond the named ones: the holds' and the edge forces'; nodes that
+    keep the patch-recovered stress: a fixed hold's and a pressure's ends; (n,) edge pressure in MPa)."""
+    skip = [supports.edges]
+    keep = [supports.fixed_nodes]
+    pressure = np.zeros(mesh.n_nodes)
+    for bl in edge_loads(spec):
+        on = segment_edges(mesh, bl.piece)
+        if bl.pressure == 0.0:
+            skip.append(on)
+            continue
+        nodes = np.unique(on)
+        pressure[nodes] = np.maximum(pressure[nodes], bl.pressure)
+    for edge in spec.load.edges:
+        if edge.pressure != 0.0:
+            ends = stretch(spec, edge.where).ends
+            keep += [np.flatnonzero(on_point(mesh, e)) for e in ends]
+    return np.vstack(skip), np.concatenate(keep).astype(np.int64), pressure
 
 
 def edge_modulus(spec: PartSpec) -> float:
@@ -138,16 +214,31 @@ def held_corners(spec: PartSpec) -> tuple[str, ...]:
 
 def recover_nodal(mesh: Mesh, element_stress: np.ndarray, displacement: np.ndarray, modulus: float,
                   loaded: tuple[str, ...] = LOADED_EDGES, pressure: np.ndarray | None = None,
-                  coupling: float = 0.0, corners: tuple[str, ...] | None = None) -> np.ndarray:
+                  coupling: float = 0.0, corners: tuple[str, ...] | None = None,
+                  skip: np.ndarray | None = None, keep: np.ndarray | None = None,
+                  patched: np.ndarray | None = None) -> np.ndarray:
     """Patch-recovered nodal stresses, with the exact edge state on the traction-free edges (every named
-    edge not in `loaded`; where `pressure` (n,) MPa is non-zero, the edge state under that contact
-    pressure). Corners of free edges with the edges named in `corners` keep the patch-recovered stress
-    (default: every edge in `loaded` except the symmetry planes, which are mirrors)."""
-    nodal = patch_recovery(mesh.nodes, mesh.triangles, element_stress, mesh.boundary_nodes())
+    edge not in `loaded`, less the edges in `skip` (k, 2); where `pressure` (n,) MPa is non-zero, the edge
+    state under that contact pressure). Corners of free edges with the edges named in `corners` (default:
+    every edge in `loaded` except the symmetry planes, which are mirrors), and the nodes in `keep`, keep
+    the patch-recovered stress. `patched`: the patch-recovered stress when already computed (several load
+    cases recover together: fem.recovery.patch_recovery takes their stresses side by side)."""
+    nodal = patch_recovery(mesh.nodes, mesh.triangles, element_stress, mesh.boundary_nodes()) if patched is None \
+        else patched.copy()
     free = [e for name, e in mesh.edges.items() if name not in loaded]
     if corners is None:
         corners = tuple(name for name in loaded if name not in SYMMETRY_EDGES)
     other = [mesh.edges[name].ravel() for name in corners if name in mesh.edges]
+    if keep is not None and keep.size:
+        other.append(keep)
     free_edges = np.concatenate(free) if free else np.zeros((0, 2), dtype=np.int32)
+    if skip is not None and skip.size and free_edges.size:
+        free_edges = free_edges[~np.isin(_edge_keys(free_edges, mesh.n_nodes), _edge_keys(skip, mesh.n_nodes))]
     return free_edge_stress(mesh.nodes, nodal, displacement, free_edges,
                             np.concatenate(other) if other else np.zeros(0, int), modulus, pressure, coupling)
+
+
+def _edge_keys(edges: np.ndarray, n: int) -> np.ndarray:
+    """One integer per edge, whatever the order of its two nodes."""
+    lo, hi = np.minimum(edges[:, 0], edges[:, 1]).astype(np.int64), np.maximum(edges[:, 0], edges[:, 1]).astype(np.int64)
+    return lo * n + hi

@@ -10,6 +10,10 @@ A symmetric model holds the part of the pin on its side of the planes: P/2 with 
 pin's centre lies on it: the group is its own mirror image), the whole pin with the plane x = 0 (the pin's
 hole lies on the side x > 0 and its mirror image carries the mirrored pin). `PinContact` describes the full
 part.
+
+A pin hold ([[hold]] pin = N) is a one-fastener group that holds the part: a rigid, neat-fit, frictionless
+pin whose member is fixed in space. Its contact forces are support reactions; the contact arc comes out
+of the solve. The loading pin and every pin hold of a load case are solved together (`solve_contact`).
 """
 
 from __future__ import annotations
@@ -54,9 +58,76 @@ class PinContact:
     peak_pressure: float
 
 
+@dataclass(frozen=True)
+class HeldPin:
+    """A pin hold's contact after the solve (mm, N, MPa, degrees): its hole, the pin's force on the part
+    (2,) N (the support's reaction), each contiguous stretch of contact (first, last) from the direction it
+    was seated in (fem.fastener_groups), its peak contact pressure, the passes and the penetration left."""
+
+    hole: int
+    force: np.ndarray
+    arcs: tuple[tuple[float, float], ...]
+    seat: float
+    peak_pressure: float
+    passes: int
+    penetration: float
+
+    @property
+    def arc(self) -> tuple[float, float]:
+        """(first, last) angle of the contact from the seat (degrees), (0, 0) for none."""
+        return (self.arcs[0][0], self.arcs[-1][1]) if self.arcs else (0.0, 0.0)
+
+
 def rigid_pin(spec: PartSpec) -> bool:
     """True when the part is loaded through a rigid-contact pin."""
     return spec.load.pin is not None and spec.load.pin.contact == "rigid"
+
+
+def held_pin_groups(spec: PartSpec) -> tuple[FastenerGroup, ...]:
+    """Each pin hold as a one-fastener group that holds the part (its member fixed): a rigid, neat-fit pin."""
+    return tuple(FastenerGroup(hold.key, group_holes(spec.holes, [hold.pin]),
+                               Fastener(spec.holes[hold.pin - 1].diameter, 0.0))
+                 for hold in spec.support.holds if hold.pin is not None)
+
+
+def contact_groups(spec: PartSpec) -> tuple[FastenerGroup, ...]:
+    """The fastener groups of spec.load's case: its rigid loading pin first, then every pin hold."""
+    return ((pin_group(spec),) if rigid_pin(spec) else ()) + held_pin_groups(spec)
+
+
+def has_contact(spec: PartSpec) -> bool:
+    """True when solving the case needs the contact iteration: a rigid loading pin or any pin hold."""
+    return bool(contact_groups(spec))
+
+
+def solve_contact(K: sp.spmatrix, f: np.ndarray, fixed: np.ndarray, spec: PartSpec, mesh: Mesh,
+                  start=None) -> GroupsSolve:
+    """Displacements of the part with its loading pin and pin holds in contact (fem.fastener_groups).
+    start: per fastener (in contact_groups order), a coarser mesh's contact arcs, or None."""
+    return solve_fastener_groups(K, f, fixed, mesh, contact_groups(spec), spec.plate.thickness,
+                                 spec.support.symmetry, symmetry_tolerance(spec), spec.mesh.solver, start)
+
+
+def group_forces(solved: GroupsSolve, spec: PartSpec, holding: bool) -> np.ndarray:
+    """(2n,) the contact forces on the part of the holding groups (`holding`) or of the loading pin."""
+    groups = contact_groups(spec)
+    fastener_holds = np.array([groups[f.group].holding for f in solved.fasteners], dtype=bool)
+    mine = fastener_holds[solved.contact.fastener] == holding
+    nodes = solved.contact.nodes[mine]
+    out = np.zeros_like(solved.forces)
+    out[2 * nodes], out[2 * nodes + 1] = solved.forces[2 * nodes], solved.forces[2 * nodes + 1]
+    return out
+
+
+def held_pins(solved: GroupsSolve, spec: PartSpec) -> tuple[HeldPin, ...]:
+    """The contact of every pin hold (fem.fastener_groups results, whole fasteners)."""
+    groups = contact_groups(spec)
+    out = []
+    for f in solved.fasteners:
+        if groups[f.group].holding:
+            number = next(h.pin for h in spec.support.holds if h.key == groups[f.group].name)
+            out.append(HeldPin(number, f.force.copy(), f.arcs, f.seat, f.peak_pressure, solved.passes, f.penetration))
+    return tuple(out)
 
 
 def pin_group(spec: PartSpec) -> FastenerGroup:
@@ -82,15 +153,17 @@ def solve_pin_contact(K: sp.spmatrix, f: np.ndarray, fixed: np.ndarray, spec: Pa
 
 def contact_pressure(mesh: Mesh, solved: GroupsSolve, spec: PartSpec) -> np.ndarray:
     """(n,) contact pressure (MPa, >= 0) at each node of the modelled mesh: node force / tributary length
-    / thickness on the pin's hole, zero elsewhere (for the exact edge state, fem.recovery)."""
-    return fastener_contact_pressure(mesh, solved.contact, solved.normal_force, (pin_group(spec),),
+    / thickness on the holes of the pin and the pin holds, zero elsewhere (for the exact edge state,
+    fem.recovery)."""
+    return fastener_contact_pressure(mesh, solved.contact, solved.normal_force, contact_groups(spec),
                                      spec.plate.thickness)
 
 
 def full_part_contact(spec: PartSpec, mesh: Mesh, solved: GroupsSolve, pressure: np.ndarray) -> PinContact:
-    """The contact of the full part: the modelled contact forces with their mirror images (a node on a
-    plane gathers both halves, as the plane's reactions do: fem.symmetry), and its arc."""
-    on = solved.active
+    """The loading pin's contact on the full part: the modelled contact forces with their mirror images (a
+    node on a plane gathers both halves, as the plane's reactions do: fem.symmetry), and its arc. The pin
+    is the first fastener of the solve (fem.contact.contact_groups)."""
+    on = solved.active & (solved.contact.fastener == 0)
     points = mesh.nodes[solved.contact.nodes[on]]
     forces = solved.normal_force[on, None] * solved.contact.normal[on]
     tol = symmetry_tolerance(spec)
@@ -109,7 +182,8 @@ def full_part_contact(spec: PartSpec, mesh: Mesh, solved: GroupsSolve, pressure:
     own = np.linalg.norm(rel, axis=1) <= 1.5 * hole.radius  # the pin's own hole, not a mirror image's
     angles = np.degrees(np.angle(np.exp(1j * (np.arctan2(rel[own, 1], rel[own, 0]) - pin.angle))))
     arc = (float(angles.min()), float(angles.max())) if angles.size else (0.0, 0.0)
-    (fastener,) = solved.fasteners
+    fastener = solved.fasteners[0]
+    own_nodes = solved.contact.nodes[solved.contact.fastener == 0]
     return PinContact(pin.clearance, points, forces, arc, solved.passes,
                       (float(fastener.displacement[0]), float(fastener.displacement[1])),
-                      fastener.penetration, float(pressure.max()))
+                      fastener.penetration, float(pressure[own_nodes].max()))

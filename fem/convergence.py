@@ -21,7 +21,7 @@ from ..geometry.kinds.base import RaiserId
 from ..geometry.mesh import Mesh
 from ..geometry.mesh_process import MeshProcess
 from ..geometry.spec import PartSpec
-from .analysis import Solution, solve_part
+from .analysis import Solution, solve_cases
 from .budget import BudgetError, check_first_level, level_over_budget
 from .equivalent_peak import von_mises_peak
 from .guards import check_fields
@@ -92,21 +92,27 @@ def richardson(values: list[float] | np.ndarray, ratio: float = LEVEL_RATIO) -> 
     return Estimate(f3, SAFETY * max(abs(e21), abs(e32)) / size, None, "oscillating")
 
 
-def converge(spec: PartSpec, report: Callable[[Level], None] | None = None) -> tuple[Study, Solution]:
-    """Solve on finer and finer meshes until the peak's estimated error is below spec.mesh.tolerance.
+def converge(spec: PartSpec, report: Callable[[Level], None] | None = None
+             ) -> tuple[tuple[Study, ...], tuple[Solution, ...]]:
+    """Solve on finer and finer meshes until every load case's peak has an estimated error below
+    spec.mesh.tolerance.
 
-    Stops unconverged at spec.mesh.max_levels levels, or when the next level would exceed
-    spec.mesh.max_elements. Returns the study and the finest solution. Each level is meshed in a child
-    process (geometry/mesh_process.py): an interrupt stops gmsh at once, and a crash in it is a MeshError.
+    Every case is solved on the same meshes (one stiffness per level, fem.analysis.solve_cases) and
+    followed over the same levels: each has its own peak, levels and estimate. Stops unconverged at
+    spec.mesh.max_levels levels, or when the next level would exceed spec.mesh.max_elements. Returns one
+    study and the finest solution per case, in the order of spec.load_cases. `report` sees each level of
+    the case with the largest peak on it. Each level is meshed in a child process
+    (geometry/mesh_process.py): an interrupt stops gmsh at once, and a crash in it is a MeshError.
     """
     with MeshProcess() as mesher:
         return _study(spec, report, mesher.mesh)
 
 
 def _study(spec: PartSpec, report: Callable[[Level], None] | None, mesh_level: Callable[..., Mesh]
-           ) -> tuple[Study, Solution]:
-    levels: list[Level] = []
-    solution: Solution | None = None
+           ) -> tuple[tuple[Study, ...], tuple[Solution, ...]]:
+    cases = [spec.for_case(case) for case in spec.load_cases]
+    levels: list[list[Level]] = [[] for _ in cases]
+    solutions: tuple[Solution, ...] = ()
     scale = FIRST_SCALE
     stop = ""
     check_first_level(spec, scale)  # refuse a hopeless coarsest mesh before gmsh spends minutes on it
@@ -114,51 +120,64 @@ def _study(spec: PartSpec, report: Callable[[Level], None] | None, mesh_level: C
         clock = time.perf_counter()
         mesh = mesh_level(spec, scale)
         meshed = time.perf_counter() - clock
-        stop = level_over_budget(spec, mesh.n_elements, first=not levels)
+        stop = level_over_budget(spec, mesh.n_elements, first=not levels[0])
         if stop:
             break
         try:
-            level_solution = solve_part(spec, mesh, _contact_start(solution))
+            solved = solve_cases(spec, mesh, _contact_starts(solutions))
         except (BudgetError, RoundOffError) as exc:  # memory or round-off: keep the levels solved so far, if any
-            if not levels:
+            if not levels[0]:
                 raise
             stop = str(exc)
             break
-        check_fields(level_solution.displacement, level_solution.nodal_stress)
-        solution = level_solution
-        node = solution.peak_node()
-        level = Level(
-            scale=scale,
-            nodes=mesh.n_nodes,
-            elements=mesh.n_elements,
-            peak=solution.peak_stress(),
-            location=(float(solution.mesh.nodes[node, 0]), float(solution.mesh.nodes[node, 1])),  # full part
-            seconds={"mesh": meshed, **solution.seconds},
-            raisers=raiser_peaks(solution),
-            solver=solution.solver.method if solution.solver is not None else "",
-            von_mises=von_mises_peak(spec, solution),
-        )
-        levels.append(level)
+        for solution in solved:
+            check_fields(solution.displacement, solution.nodal_stress)
+        solutions = solved
+        for case, solution, case_levels in zip(cases, solutions, levels):
+            case_levels.append(_level(case, scale, mesh, meshed, solution))
         if report is not None:
-            report(level)
-        if len(levels) >= MIN_LEVELS:
-            estimate = richardson([lv.peak for lv in levels])
-            if estimate.error <= spec.mesh.tolerance:
-                return Study(tuple(levels), estimate, True, "tolerance met"), solution
-        if len(levels) >= spec.mesh.max_levels:
+            report(max((lv[-1] for lv in levels), key=lambda lv: abs(lv.peak)))
+        if len(levels[0]) >= MIN_LEVELS:
+            estimates = [richardson([lv.peak for lv in case]) for case in levels]
+            if all(e.error <= spec.mesh.tolerance for e in estimates):
+                return tuple(Study(tuple(case), e, True, "tolerance met") for case, e in zip(levels, estimates)), solutions
+        if len(levels[0]) >= spec.mesh.max_levels:
             stop = f"reached the most levels allowed (mesh.max_levels = {spec.mesh.max_levels})"
             break
-        if _next_elements(levels) > spec.mesh.max_elements:
+        if _next_elements(levels[0]) > spec.mesh.max_elements:
             stop = f"the next level would exceed mesh.max_elements = {spec.mesh.max_elements}"
             break
         scale /= LEVEL_RATIO
-    estimate = sequence_estimate([lv.peak for lv in levels])
-    return Study(tuple(levels), estimate, estimate.error <= spec.mesh.tolerance and len(levels) >= MIN_LEVELS, stop), solution
+    studies = []
+    for case in levels:
+        estimate = sequence_estimate([lv.peak for lv in case])
+        converged = estimate.error <= spec.mesh.tolerance and len(case) >= MIN_LEVELS
+        studies.append(Study(tuple(case), estimate, converged, "tolerance met" if converged and len(cases) > 1 else stop))
+    return tuple(studies), solutions
 
 
-def _contact_start(solution: Solution | None) -> tuple[float, float] | None:
-    """A rigid pin's contact arc on the previous level: the next level's first active set (fem.contact)."""
-    return solution.contact.arc if solution is not None and solution.contact is not None else None
+def _level(spec: PartSpec, scale: float, mesh: Mesh, meshed: float, solution: Solution) -> Level:
+    """One case's record of one mesh level (`spec`: the part under that case)."""
+    node = solution.peak_node()
+    return Level(
+        scale=scale,
+        nodes=mesh.n_nodes,
+        elements=mesh.n_elements,
+        peak=solution.peak_stress(),
+        location=(float(solution.mesh.nodes[node, 0]), float(solution.mesh.nodes[node, 1])),  # full part
+        seconds={"mesh": meshed, **solution.seconds},
+        raisers=raiser_peaks(solution),
+        solver=solution.solver.method if solution.solver is not None else "",
+        von_mises=von_mises_peak(spec, solution),
+    )
+
+
+def _contact_starts(solutions: tuple[Solution, ...]) -> list | None:
+    """Per case, the contact arcs of its fasteners (a rigid loading pin, pin holds) on the previous level:
+    the next level's first active sets (fem.contact); None on the first level."""
+    if not solutions:
+        return None
+    return [s.contact_arcs for s in solutions]
 
 
 def _next_elements(levels: list[Level]) -> float:

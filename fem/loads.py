@@ -15,6 +15,12 @@ edge with s.n. A pin presses on the half of its hole facing its direction phi wi
 p = p0 cos(a - phi), p0 = 4 P / (pi d t), pushing the material radially away from the hole centre. A rigid
 pin (load.pin.contact = "rigid") applies no traction known beforehand: its contact forces come out of the
 solve (fem/contact.py), so it is not among the applied loads here.
+
+Loads on stretches of the boundary ([[load.edge]], geometry.boundary): a force F in the direction phi
+spread uniformly over the stretch's length L, t = F / (L t) (cos phi, sin phi); a pressure p normal to the
+edge, t = -p n with n the outward normal (positive p presses into the material). Each piece of the
+stretch is one BoundaryLoad on the mesh edges that lie on it (fem/stretches.py). With the held end held in
+x only, their transverse resultant is reacted at the held end like a shear's.
 """
 
 from __future__ import annotations
@@ -25,13 +31,16 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..geometry.boundary import outward_normals, stretch
 from ..geometry.kinds.bar import end_half_width, straight_held_end
 from ..geometry.kinds.hole import named as named_hole
 from ..geometry.mesh import EdgeName, Mesh
 from ..geometry.registry import outline_size
-from ..geometry.spec import PartSpec
+from ..geometry.shapes import Arc as GeometryArc, Line
+from ..geometry.spec import NO_HELD_END, PartSpec
 from ..geometry.symmetry import mirror_hole, modelled_box
 from .quadratic import quadratic_edge_forces
+from .stretches import segment_edges
 
 Traction = Callable[[np.ndarray], np.ndarray]  # (k, 2) points in mm -> (k, 2) traction in MPa
 
@@ -77,6 +86,9 @@ class BoundaryLoad:
     curves: tuple[Segment | Arc, ...]
     traction: Traction
     what: str
+    piece: Line | GeometryArc | None = None  # a stretch's piece (geometry.boundary): the load acts on the mesh
+                                             # edges on it; None: on every edge of the named set `edge`
+    pressure: float = 0.0  # MPa, for a normal pressure (the exact edge state under it: fem.analysis)
 
 
 def applied_loads(spec: PartSpec) -> tuple[BoundaryLoad, ...]:
@@ -105,10 +117,44 @@ def applied_loads(spec: PartSpec) -> tuple[BoundaryLoad, ...]:
                                     "mirrored end loads on the end x = -L/2"))
     if load.pin is not None and load.pin.contact == "cosine":
         out += _pin_loads(spec)
+    edges = edge_loads(spec)
+    out += edges
     transverse = load.shear + (load.pin.force * math.sin(load.pin.angle) if load.pin is not None else 0.0)
+    transverse += sum(load_resultant(bl, spec.plate.thickness)[1] for bl in edges)
     if transverse != 0.0 and spec.support.held == "x" and "x" not in spec.support.symmetry and straight_held_end(spec):
         out.append(BoundaryLoad("held", held, _parabolic(-transverse, spec, "held"), "transverse reaction on the held end"))
     return tuple(out)
+
+
+def edge_loads(spec: PartSpec) -> list[BoundaryLoad]:
+    """The [[load.edge]] loads of spec.load: one BoundaryLoad per piece of each load's stretch."""
+    out = []
+    thickness = spec.plate.thickness
+    for edge in spec.load.edges:
+        picked = stretch(spec, edge.where)
+        if edge.pressure != 0.0:
+            for seg, name in zip(picked.pieces, picked.names):
+                out.append(BoundaryLoad(name, (_curve(seg),), _pressure(seg, edge.pressure),
+                                        f"pressure of {edge.where.key} on {name}", seg, edge.pressure))
+            continue
+        angle = math.radians(edge.direction)
+        stress = edge.force / (picked.length * thickness)
+        traction = _constant(stress * math.cos(angle), stress * math.sin(angle))
+        out += [BoundaryLoad(name, (_curve(seg),), traction, f"force of {edge.where.key} on {name}", seg)
+                for seg, name in zip(picked.pieces, picked.names)]
+    return out
+
+
+def _curve(seg: Line | GeometryArc) -> Segment | Arc:
+    """The exact curve of a stretch's piece, for integration."""
+    if isinstance(seg, Line):
+        return Segment(seg.start, seg.end)
+    return Arc(seg.center, seg.radius, seg.start, seg.end)
+
+
+def _pressure(seg: Line | GeometryArc, pressure: float) -> Traction:
+    """t = -p n on a piece traversed with the material on the left (n its outward normal)."""
+    return lambda p: -pressure * outward_normals(seg, p)
 
 
 def _constant(tx: float, ty: float) -> Traction:
@@ -181,7 +227,7 @@ def pin_pressure_at_nodes(spec: PartSpec, mesh: Mesh) -> np.ndarray:
 def loaded_edge_names(spec: PartSpec) -> set[EdgeName]:
     """Boundary names that carry a traction or a support (not traction-free); a pin's hole is free except
     where the pin presses, which `pin_pressure_at_nodes` describes."""
-    names = {"held", "symmetry x", "symmetry y"}
+    names = {"symmetry x", "symmetry y"} | ({"held"} if spec.support.held != NO_HELD_END else set())
     if spec.load.has_end_loads or spec.load.remote is not None:
         names.add("loaded")
     if spec.load.remote is not None:
@@ -271,12 +317,14 @@ def part_loads(spec: PartSpec, mesh: Mesh) -> np.ndarray:
     box = modelled_box(spec)
     inside = _in_box(box, 1e-9 * max(outline_size(spec)))
     for bl in applied_loads(spec):
-        if bl.edge not in mesh.edges:
+        if bl.piece is None and bl.edge not in mesh.edges:
             continue
         if mesh.quadratic_edges is not None:  # 6-node triangles: 3-node (curved) edges, fem/quadratic.py
-            part = quadratic_edge_forces(mesh.nodes, mesh.quadratic_edges[bl.edge], bl.traction, t)
+            edges = mesh.quadratic_edges[bl.edge] if bl.piece is None else segment_edges(mesh, bl.piece, True)
+            part = quadratic_edge_forces(mesh.nodes, edges, bl.traction, t)
         else:
-            part = edge_forces_gauss(mesh.nodes, mesh.edges[bl.edge], bl.traction, t)
+            edges = mesh.edges[bl.edge] if bl.piece is None else segment_edges(mesh, bl.piece)
+            part = edge_forces_gauss(mesh.nodes, edges, bl.traction, t)
         if any(isinstance(c, Arc) for c in bl.curves):
             part *= _arc_scale(bl, part, t, inside)
         f += part
@@ -289,8 +337,24 @@ def _in_box(box: tuple[float, float, float, float], tol: float) -> Callable[[np.
 
 
 def _arc_scale(bl: BoundaryLoad, forces: np.ndarray, thickness: float, keep) -> float:
-    """Factor making the discrete resultant of `forces` along the exact resultant equal to it."""
+    """Factor making the discrete resultant of `forces` along the exact resultant equal to it (1 for a load
+    whose exact resultant vanishes, such as a pressure round a whole hole)."""
     fx, fy, _ = load_resultant(bl, thickness, keep)
     exact = math.hypot(fx, fy)
+    if exact <= BALANCED * _magnitude(bl, thickness, keep):
+        return 1.0
     discrete = (forces[0::2].sum() * fx + forces[1::2].sum() * fy) / max(exact, 1e-300)
     return exact / discrete if discrete > 0.0 else 1.0
+
+
+BALANCED = 1e-9  # a load whose resultant is this small a fraction of its total magnitude is self-balanced
+
+
+def _magnitude(bl: BoundaryLoad, thickness: float, keep, samples: int = SAMPLES_PER_CURVE) -> float:
+    """The integral of |traction| x thickness over the load's curves where keep(points) (N)."""
+    total = 0.0
+    for curve in bl.curves:
+        p, ds = curve.samples(samples)
+        mask = keep(p)
+        total += float(np.sum(np.linalg.norm(bl.traction(p[mask]), axis=1) * ds[mask])) * thickness
+    return total

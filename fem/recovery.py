@@ -31,6 +31,8 @@ MAX_CONDITION = 1e10
 
 def patch_recovery(nodes: np.ndarray, tris: np.ndarray, stress: np.ndarray, boundary: np.ndarray) -> np.ndarray:
     """Nodal stresses (n, 3) recovered from element stresses (m, 3); `boundary` lists boundary nodes.
+    Any number of columns works alike (m, c) -> (n, c): several load cases' stresses side by side share
+    the patches and their least-squares factorisations.
 
     Interior nodes next to the boundary get quadratic fits on two-ring patches (they feed the boundary
     values, where the peak usually is); other interior nodes get the classical linear fit on the
@@ -43,7 +45,7 @@ def patch_recovery(nodes: np.ndarray, tris: np.ndarray, stress: np.ndarray, boun
     interior[boundary] = False
     near = interior & _touches(incidence, ~interior)
 
-    coef = np.zeros((n, N_TERMS, 3))
+    coef = np.zeros((n, N_TERMS, stress.shape[1]))
     ring = incidence
     fitted_lin = _fit(coef, nodes, tris, stress, ring, np.flatnonzero(interior & ~near), scale, 3, MIN_LINEAR)
     two_ring = (incidence @ (incidence.T @ incidence)).tocsr()
@@ -52,9 +54,9 @@ def patch_recovery(nodes: np.ndarray, tris: np.ndarray, stress: np.ndarray, boun
     fitted_lin |= _fit(coef, nodes, tris, stress, ring, np.flatnonzero(near & ~fitted_quad), scale, 3, MIN_LINEAR)
     fitted = fitted_lin | fitted_quad
 
-    out = np.zeros((n, 3))
+    out = np.zeros((n, stress.shape[1]))
     out[fitted] = coef[fitted, 0, :]
-    reached = _from_neighbour_patches(out, nodes, tris, coef, fitted, scale)
+    reached = _from_neighbour_patches(out, nodes, tris, coef, fitted, scale, fitted_quad)
     _area_average(out, tris, stress, np.abs(triangle_areas(nodes, tris)), ~(fitted | reached))
     return out
 
@@ -120,13 +122,13 @@ def _well_conditioned(A: np.ndarray) -> np.ndarray:
     return w[:, 0] > w[:, -1] / MAX_CONDITION
 
 
-def _from_neighbour_patches(out, nodes, tris, coef, fitted, scale) -> np.ndarray:
+def _from_neighbour_patches(out, nodes, tris, coef, fitted, scale, quadratic_fit) -> np.ndarray:
     """Fill unfitted nodes with the mean of neighbouring fitted patches evaluated there; return the mask
-    filled. Quadratic patches are preferred where a node has any."""
+    filled. Quadratic patches (`quadratic_fit`, by node) are preferred where a node has any."""
     n = nodes.shape[0]
     pairs = np.column_stack([np.repeat(tris, 3, axis=1).ravel(), np.tile(tris, (1, 3)).ravel()]).astype(np.int64)
     pairs = np.unique(pairs[(~fitted[pairs[:, 0]]) & fitted[pairs[:, 1]]], axis=0)
-    quadratic = np.any(coef[pairs[:, 1], 3:, :] != 0.0, axis=(1, 2))
+    quadratic = quadratic_fit[pairs[:, 1]]
     has_quadratic = np.bincount(pairs[quadratic, 0], minlength=n) > 0
     pairs = pairs[quadratic | ~has_quadratic[pairs[:, 0]]]
     target, source = pairs[:, 0], pairs[:, 1]
@@ -134,7 +136,7 @@ def _from_neighbour_patches(out, nodes, tris, coef, fitted, scale) -> np.ndarray
     value = np.einsum("kt,ktc->kc", P, coef[source])
     hits = np.bincount(target, minlength=n)
     reached = (~fitted) & (hits > 0)
-    for comp in range(3):
+    for comp in range(out.shape[1]):
         total = np.bincount(target, weights=value[:, comp], minlength=n)
         out[reached, comp] = total[reached] / hits[reached]
     return reached
@@ -148,7 +150,7 @@ def _area_average(out, tris, stress, area, mask) -> None:
     node_of = tris.ravel().astype(np.int64)
     w = np.repeat(area, 3)
     wsum = np.bincount(node_of, weights=w, minlength=n)
-    for comp in range(3):
+    for comp in range(out.shape[1]):
         avg = np.bincount(node_of, weights=w * np.repeat(stress[:, comp], 3), minlength=n)
         out[mask, comp] = avg[mask] / np.maximum(wsum[mask], 1e-300)
 

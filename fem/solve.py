@@ -15,6 +15,10 @@ Strategies (`solver`):
 Small systems always use SuperLU, which gives the same bits on every machine and in every process
 (PARDISO runs threads whose number a batch worker may limit); large ones use the fastest solver present.
 
+Several load cases on one stiffness: `f` may hold one right-hand side per column (N, m). SuperLU and
+PARDISO factorise once and solve every column; the multigrid hierarchy is built once and conjugate
+gradients solve each column with it. The answer for each column is the one a single-column solve gives.
+
 A system that cannot be solved raises SolverError with a message a user can act on: a part that is not
 held against every rigid-body motion (a mechanism), a piece with no stiffness, or a numerical failure.
 
@@ -62,7 +66,8 @@ class SolveReport:
     """How one system was solved.
 
     method: "pardiso", "superlu" or "amg-cg"; dofs: free DOFs; iterations: CG iterations (0 for a
-    direct solve); residual: relative residual ||f - K u|| / ||f|| on the free DOFs; seconds: wall time.
+    direct solve; the most of any column); residual: relative residual ||f - K u|| / ||f|| on the free
+    DOFs (the largest of any column); seconds: wall time (all columns).
     """
 
     method: str
@@ -96,10 +101,11 @@ def choose_method(solver: str, dofs: int) -> str:
 
 def solve_system(K: sp.spmatrix, f: np.ndarray, fixed: np.ndarray, solver: str = "auto",
                  nodes: np.ndarray | None = None) -> tuple[np.ndarray, SolveReport]:
-    """Displacements (2n,) in mm with u = 0 on the `fixed` DOFs, and how they were found.
+    """Displacements (2n,) in mm with u = 0 on the `fixed` DOFs, and how they were found; with `f` of shape
+    (2n, m), one column of displacements per column of forces (one factorisation for all).
 
-    K: (2n, 2n) symmetric stiffness (N/mm), DOFs ordered (u1, v1, u2, v2, ...); f: (2n,) forces (N);
-    nodes: (n, 2) coordinates (mm), which give the rigid-body modes for the mechanism check and the
+    K: (2n, 2n) symmetric stiffness (N/mm), DOFs ordered (u1, v1, u2, v2, ...); f: (2n,) or (2n, m) forces
+    (N); nodes: (n, 2) coordinates (mm), which give the rigid-body modes for the mechanism check and the
     multigrid near-null space (without them only translations are used).
     """
     clock = time.perf_counter()
@@ -108,7 +114,7 @@ def solve_system(K: sp.spmatrix, f: np.ndarray, fixed: np.ndarray, solver: str =
     free[np.asarray(fixed, dtype=np.int64)] = False
     n_free = int(free.sum())
     if n_free == 0:
-        return np.zeros(K.shape[0]), SolveReport("none", 0, 0, 0.0, 0.0)
+        return np.zeros(f.shape), SolveReport("none", 0, 0, 0.0, 0.0)
     modes = rigid_modes(K.shape[0] // 2, nodes)
     _check_supported(K, free, modes)
     method = choose_method(solver, n_free)
@@ -121,7 +127,7 @@ def solve_system(K: sp.spmatrix, f: np.ndarray, fixed: np.ndarray, solver: str =
     elif method == "pardiso":
         u = _pardiso(K, f, free)
     else:
-        u = np.zeros(K.shape[0])
+        u = np.zeros(f.shape)
         u[free] = _superlu(K[free][:, free], f[free])
     if not np.all(np.isfinite(u)):
         raise SolverError("the solve returned non-finite displacements; the part may be a mechanism")
@@ -219,7 +225,7 @@ def _pardiso(K: sp.csr_matrix, f: np.ndarray, free: np.ndarray) -> np.ndarray:
     for number, value in PARDISO_IPARM.items():
         solver.set_iparm(number, value)
     try:
-        return solver.solve(_upper(_decouple(K, free)), np.where(free, f, 0.0))
+        return solver.solve(_upper(_decouple(K, free)), np.where(free if f.ndim == 1 else free[:, None], f, 0.0))
     except PyPardisoError as exc:
         raise SolverError(f"the stiffness matrix is not positive definite (PARDISO: {exc}); is the part "
                           "supported and in one piece?") from None
@@ -238,7 +244,8 @@ def _upper(A: sp.csr_matrix) -> sp.csr_matrix:
 
 def _amg_cg(K: sp.csr_matrix, f: np.ndarray, free: np.ndarray, modes: np.ndarray) -> tuple[np.ndarray, int]:
     """CG preconditioned by smoothed-aggregation AMG on the whole system with the held DOFs decoupled
-    (their rows and columns zeroed, diagonal kept), so the 2 x 2 node blocks survive for aggregation."""
+    (their rows and columns zeroed, diagonal kept), so the 2 x 2 node blocks survive for aggregation; one
+    hierarchy, each column of f solved with it."""
     import pyamg
     from threadpoolctl import threadpool_limits
 
@@ -249,15 +256,20 @@ def _amg_cg(K: sp.csr_matrix, f: np.ndarray, free: np.ndarray, modes: np.ndarray
 def _amg_cg_serial(pyamg, K: sp.csr_matrix, f: np.ndarray, free: np.ndarray, modes: np.ndarray) -> tuple[np.ndarray, int]:
     A = _decouple(K, free).tobsr(blocksize=(2, 2))
     B = modes * free[:, None]
-    b = np.where(free, f, 0.0)
     ml = pyamg.smoothed_aggregation_solver(A, B=B, symmetry="symmetric", max_coarse=1000, coarse_solver="splu")
-    residuals: list[float] = []
-    u = ml.solve(b, tol=CG_TOLERANCE, maxiter=MAX_ITERATIONS, accel="cg", residuals=residuals)
-    if residuals and residuals[-1] > CG_TOLERANCE * 10 * np.linalg.norm(b):
-        raise SolverError(f"conjugate gradients did not converge in {MAX_ITERATIONS} iterations (relative "
-                          f"residual {residuals[-1] / np.linalg.norm(b):.1e}); the part may be a mechanism")
+    columns = f.reshape(f.shape[0], -1)
+    u = np.zeros(columns.shape)
+    most = 0
+    for k in range(columns.shape[1]):
+        b = np.where(free, columns[:, k], 0.0)
+        residuals: list[float] = []
+        u[:, k] = ml.solve(b, tol=CG_TOLERANCE, maxiter=MAX_ITERATIONS, accel="cg", residuals=residuals)
+        if residuals and residuals[-1] > CG_TOLERANCE * 10 * np.linalg.norm(b):
+            raise SolverError(f"conjugate gradients did not converge in {MAX_ITERATIONS} iterations (relative "
+                              f"residual {residuals[-1] / np.linalg.norm(b):.1e}); the part may be a mechanism")
+        most = max(most, len(residuals) - 1)
     u[~free] = 0.0
-    return u, max(len(residuals) - 1, 0)
+    return u.reshape(f.shape), max(most, 0)
 
 
 def _decouple(K: sp.csr_matrix, free: np.ndarray) -> sp.csr_matrix:
@@ -269,7 +281,11 @@ def _decouple(K: sp.csr_matrix, free: np.ndarray) -> sp.csr_matrix:
 
 def solve_errors(K: sp.csr_matrix, u: np.ndarray, f: np.ndarray, free: np.ndarray) -> tuple[float, float]:
     """(normwise backward error, round-off amplification) of a solve on the free DOFs (see the module
-    docstring; infinity norms, ||K|| the largest row sum of |K| over the free rows and columns)."""
+    docstring; infinity norms, ||K|| the largest row sum of |K| over the free rows and columns); for
+    several right-hand sides (columns), the largest of each over the columns."""
+    if u.ndim == 2:
+        errors = [solve_errors(K, u[:, k], f[:, k], free) for k in range(u.shape[1])]
+        return max(e[0] for e in errors), max(e[1] for e in errors)
     r = np.abs(f - K @ u)[free]
     row_sums = abs(K) @ free.astype(float)
     norm_k = float(row_sums[free].max())
@@ -281,6 +297,8 @@ def solve_errors(K: sp.csr_matrix, u: np.ndarray, f: np.ndarray, free: np.ndarra
 
 
 def _relative_residual(K: sp.csr_matrix, u: np.ndarray, f: np.ndarray, free: np.ndarray) -> float:
+    """||f - K u|| / ||f|| on the free DOFs; for several columns, the largest of them."""
     r = (f - K @ u)[free]
-    scale = np.linalg.norm(f[free])
-    return float(np.linalg.norm(r) / scale) if scale > 0 else float(np.linalg.norm(r))
+    scale = np.linalg.norm(f[free], axis=0)
+    norm = np.linalg.norm(r, axis=0)
+    return float(np.max(np.where(scale > 0, norm / np.where(scale > 0, scale, 1.0), norm)))
