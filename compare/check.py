@@ -1,9 +1,16 @@
-"""The check of one part: converged peak, critical net section, Kt, handbook comparison, cautions."""
+"""The check of one part: converged peak, critical net section, Kt, handbook comparison, cautions.
+
+A part with several load cases is solved once per mesh level for all of them (fem.convergence); each
+case gets a check of its own (peak, section, nominal, Kt, band, handbook, sign-off), and the result of
+the part is its governing case's, with every case under `cases`. The governing case is the one with the
+smallest margin of its governing design check when the part file has [design], else the one with the
+largest converged peak in magnitude.
+"""
 
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
@@ -12,12 +19,13 @@ from ..fem.convergence import MIN_LEVELS, Level, Study, converge, richardson
 from ..geometry.kinds.base import NetCut, RaiserId, across
 from ..geometry.outline import nearest_raiser, plate_polygon
 from ..geometry.registry import cuts, outline_size
-from ..geometry.spec import PartSpec, SectionSpec
+from ..geometry.spec import SINGLE_CASE, PartSpec, SectionSpec
+from .edge_cut import ACROSS_LOAD, EDGE_NORMAL, EdgeCut, edge_cut, gross_spans, uses_edge_cut
 from .guards import result_warnings
 from .handbook import Match, handbook_matches
 from .method_of_sections import SectionResult, section_result, section_results
 from .notices import Amount, Notice, notice
-from .nominal import NominalSet, critical_cut, nominal_stresses
+from .nominal import NominalSet, critical_cut, edge_nominals, nominal_stresses
 from .sections import Cut, ligaments
 from .stress_peaks import StressPeaks, stress_peaks
 from .signoff import DesignSignOff, FatigueSignOff, with_signoff
@@ -53,11 +61,13 @@ class Peak:
 
 @dataclass(frozen=True)
 class NetSection:
-    """The critical net section: a cut perpendicular to the load at x (mm) through the peak's raiser.
+    """The critical section: a cut perpendicular to the load at x (mm) through the peak's raiser (kind
+    ACROSS_LOAD), or the cut normal to the edge at the peak (kind EDGE_NORMAL, compare/edge_cut.py).
 
-    ligaments: material intervals in y (mm); width and area are their total (mm, mm^2); average is the
-    applied force over the net area (MPa); fe_force the FE normal force on the cut (N), and
-    equilibrium_error its relative difference from the applied force.
+    ligaments: material intervals along the cut (mm); width and area are their total (mm, mm^2); average
+    is the statics normal force over the net area (MPa); fe_force the FE normal force on the cut (N), and
+    equilibrium_error its relative difference from statics; gross: the stretches of the outline without
+    cut-outs that the cut spans (mm along the cut; EDGE_NORMAL only).
     """
 
     x: float
@@ -71,6 +81,8 @@ class NetSection:
     point: tuple[float, float] = (0.0, 0.0)  # the cut's point and unit normal (a pin's cut follows the pin)
     normal: tuple[float, float] = (1.0, 0.0)
     result: SectionResult | None = None  # the method-of-sections result of this cut (N, V, M vs statics)
+    kind: str = ACROSS_LOAD
+    gross: tuple[tuple[float, float], ...] = ()
 
 
 @dataclass(frozen=True)
@@ -117,18 +129,58 @@ class CheckResult:
     stresses: StressPeaks | None = None  # peaks of principal, von Mises and Tresca stress (finest mesh)
     sections: tuple[SectionResult, ...] = ()  # the cuts the part file or command line asked for
     peaks: tuple[RaiserPeak, ...] = ()  # the competing raisers' peaks, largest first (see raiser_peaks)
+    case: str = SINGLE_CASE  # the name of the load case this result is for
+    cases: tuple[CheckResult, ...] = ()  # with several load cases: every case's result (this one among them)
+
+    @property
+    def every_case(self) -> tuple[CheckResult, ...]:
+        """Every load case's result: `cases`, or this one alone."""
+        return self.cases or (self,)
+
+    def case_named(self, name: str) -> CheckResult:
+        """The result of the load case called `name` (KeyError if the part has none)."""
+        for result in self.every_case:
+            if result.case == name:
+                return result
+        raise KeyError(name)
 
 
 def check_part(spec: PartSpec, report: Callable[[Level], None] | None = None) -> CheckResult:
-    """Run the convergence study and compare the converged peak with the net-section average."""
-    study, solution = converge(spec, report)
+    """Run the convergence study of every load case and check each; the governing case's result, with
+    every case's under `cases` when there are several (module docstring)."""
+    studies, solutions = converge(spec, report)
+    results = tuple(check_case(spec.for_case(case), study, solution, case.name)
+                    for case, study, solution in zip(spec.load_cases, studies, solutions))
+    if len(results) == 1:
+        return results[0]
+    return replace(results[governing_case(results)], cases=results)
+
+
+def governing_case(results: tuple[CheckResult, ...]) -> int:
+    """Index of the governing case: the smallest margin of the governing design check when every result
+    has one, else the largest converged peak in magnitude (the first on a tie)."""
+    if all(r.design is not None for r in results):
+        return int(np.argmin([design_margin(r.design) for r in results]))
+    return int(np.argmax([abs(r.peak.stress) for r in results]))
+
+
+def design_margin(design: DesignSignOff) -> float:
+    """The margin that decides a design check: its governing line's (the hand check for a ductile part, the
+    peak for a brittle one), or a pin's bearing when that is smaller (compare/design.py)."""
+    check = design.check
+    line = check.peak if check.governing_check == "peak" else check.hand
+    return min([line.margin] + ([check.bearing.margin] if check.bearing is not None else []))
+
+
+def check_case(spec: PartSpec, study: Study, solution: Solution, name: str = SINGLE_CASE) -> CheckResult:
+    """Compare one load case's converged peak with the hand calculation on its critical section."""
     mesh = solution.mesh
     node = solution.peak_node()
     location = (float(mesh.nodes[node, 0]), float(mesh.nodes[node, 1]))
     feature, cut = _owning_raiser(spec, location)
     peak = Peak(study.estimate.value, solution.peak_stress(), location, feature)
-    section = net_section(spec, solution, cut)
-    nominal = nominal_stresses(spec, peak.stress, section.result, _gross_width(spec, section))
+    section = critical_section(spec, solution, location, cut)
+    nominal = section_nominals(spec, peak.stress, section)
     gross = nominal.gross.stress
     kt = KtResult(_kt(peak.stress, nominal.net.stress), _kt(peak.stress, gross), study.estimate.error, study.converged)
     cuts = section_results(spec, solution)
@@ -137,7 +189,38 @@ def check_part(spec: PartSpec, report: Callable[[Level], None] | None = None) ->
                                     _cautions(spec), tuple(_warnings(study, section) + _section_warnings(cuts)
                                                            + result_warnings(spec, study, solution, peak, section, kt)),
                                     nominal=nominal, stresses=stress_peaks(solution), sections=cuts,
-                                    peaks=raiser_peaks(spec, study, solution, matches)))
+                                    peaks=raiser_peaks(spec, study, solution, matches), case=name))
+
+
+def critical_section(spec: PartSpec, solution: Solution, location: tuple[float, float], cut: NetCut) -> NetSection:
+    """The critical section through a peak at `location`: the cut normal to the edge there for a part held
+    or loaded on its own boundary (compare/edge_cut.py), else (or when the peak is not on the boundary)
+    the raiser's net section `cut`."""
+    if uses_edge_cut(spec):
+        normal = edge_cut(spec, location)
+        if normal is not None:
+            return edge_section(spec, solution, normal)
+    return net_section(spec, solution, cut)
+
+
+def edge_section(spec: PartSpec, solution: Solution, cut: EdgeCut) -> NetSection:
+    """The cut normal to the edge at a peak as a NetSection: its ligaments within the window, statics on
+    its free body, the FE resultants across it."""
+    label = "cut normal to the edge at the peak"
+    result = section_result(spec, solution, SectionSpec(cut.point, cut.normal, label), cut.window, cut.side)
+    width = sum(b - a for a, b in result.ligaments)
+    error = result.normal_error if result.normal_error is not None else 0.0
+    average = result.statics.normal_force / result.area if result.area else 0.0
+    return NetSection(cut.point[0], result.ligaments, width, result.area, average, result.fe_normal_force, error,
+                      result.cut, cut.point, cut.normal, result, EDGE_NORMAL, tuple(gross_spans(spec, cut)))
+
+
+def section_nominals(spec: PartSpec, peak: float, section: NetSection) -> NominalSet:
+    """The nominal stresses of a critical section: the load's handbook nominals on a cut across the load,
+    N / A + M s / I at the peak on a cut normal to the edge (compare/nominal.py)."""
+    if section.kind == EDGE_NORMAL:
+        return edge_nominals(spec, peak, section.result, section.gross)
+    return nominal_stresses(spec, peak, section.result, _gross_width(spec, section))
 
 
 def net_section(spec: PartSpec, solution: Solution, cut: NetCut) -> NetSection:
@@ -226,8 +309,8 @@ def raiser_peaks(spec: PartSpec, study: Study, solution: Solution,
     sections = cuts(spec)
     out = []
     for name in chosen:
-        section = net_section(spec, solution, sections.get(name, across(finest[name][1][0], 0.0)))
-        nominal = nominal_stresses(spec, value[name], section.result, _gross_width(spec, section))
+        section = critical_section(spec, solution, finest[name][1], sections.get(name, across(finest[name][1][0], 0.0)))
+        nominal = section_nominals(spec, value[name], section)
         error = estimates[name].error if estimates[name] is not None else float("inf")
         out.append(RaiserPeak(name, value[name], error, finest[name][0], finest[name][1], section,
                               _kt(value[name], nominal.net.stress), _kt(value[name], nominal.gross.stress)))

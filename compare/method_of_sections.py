@@ -26,7 +26,7 @@ from ..fem.analysis import Solution
 from ..geometry.outline import part_polygon
 from ..geometry.spec import PartSpec, SectionSpec
 from .sections import Cut, cut_resultants, ligaments
-from .statics import Statics, cut_statics, reference_stress
+from .statics import HALF_PLANE, FreeBody, Statics, cut_statics, reference_stress
 
 
 @dataclass(frozen=True)
@@ -67,18 +67,23 @@ class SectionResult:
         return max(errors) if errors else None
 
 
-def section_result(spec: PartSpec, solution: Solution, section: SectionSpec) -> SectionResult:
-    """Resultants, averages, peak and statics check of one cut through the solved part."""
+def section_result(spec: PartSpec, solution: Solution, section: SectionSpec,
+                   window: tuple[float, float] | None = None, side: FreeBody = HALF_PLANE) -> SectionResult:
+    """Resultants, averages, peak and statics check of one cut through the solved part: through the whole
+    part along its line, or only across `window` (lo, hi: positions along the cut, mm) with `side` the free
+    body on its +normal side (compare/edge_cut.py)."""
     t = spec.plate.thickness
     mesh = solution.mesh
-    cut = cut_resultants(mesh.nodes, mesh.triangles, solution.nodal_stress, t, section.point, section.normal)
+    cut = cut_resultants(mesh.nodes, mesh.triangles, solution.nodal_stress, t, section.point, section.normal, window)
     spans = tuple(ligaments(part_polygon(spec), section.point, section.normal))
+    if window is not None:
+        spans = tuple((max(a, window[0]), min(b, window[1])) for a, b in spans if min(b, window[1]) > max(a, window[0]))
     length = sum(b - a for a, b in spans)
     p0 = np.asarray(section.point, float)
     n = np.asarray(section.normal, float) / np.hypot(*section.normal)
     d = np.array([-n[1], n[0]])
     centre = p0 + cut.centroid * d
-    statics = cut_statics(spec, solution, section.point, section.normal, (float(centre[0]), float(centre[1])))
+    statics = cut_statics(spec, solution, section.point, section.normal, (float(centre[0]), float(centre[1])), side)
     extent = (spans[-1][1] - spans[0][0]) if spans else 0.0
     errors = _errors(cut, statics, extent, reference_stress(spec) * length * t)
     k = int(np.argmax(np.abs(cut.normal_stress))) if cut.normal_stress.size else 0

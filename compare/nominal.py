@@ -14,6 +14,11 @@ to the end of a ligament):
     remote    the largest principal stress of the remote state in magnitude (Kirsch's nominal)
 
 W is the plate's width along the cut (the gross section). Kt = |peak| / |nominal| (MPa / MPa).
+
+On the cut normal to the edge at the peak (parts held or loaded on their own boundary, compare/edge_cut.py)
+the hand calculation is the stress in the peak's own fibre, N / A + M s / I, s the distance from the
+cut's centroid to the peak along the cut; net on the cut's ligaments, gross on the same stretch of the
+outline without its cut-outs (`edge_nominals`).
 The headline Kt(net) and Kt(gross) use the first two rows of the load's kind; every nominal that
 applies is listed with its own Kt, so the report states which nominal each Kt uses.
 """
@@ -120,6 +125,45 @@ def nominal_stresses(spec: PartSpec, peak: float, section: SectionResult, gross_
                           _extreme_fibre(N, M, gross))
     return NominalSet(combined_net, combined_gross,
                       (combined_net, combined_gross, axial_net, bending_net, axial_gross, bending_gross))
+
+
+def edge_nominals(spec: PartSpec, peak: float, section: SectionResult, gross: tuple[tuple[float, float], ...],
+                  at: float = 0.0) -> NominalSet:
+    """The nominals on the cut normal to the edge at the peak: N / A + M s / I at the peak's position `at`
+    (mm along the cut) on the net ligaments and on the `gross` stretches, and its two terms (net)."""
+    t = spec.plate.thickness
+    N, M = section.statics.normal_force, section.statics.moment
+
+    def make(key, label, formula, stress):
+        return Nominal(key, label, formula, stress, abs(peak / stress) if stress != 0.0 else None)
+
+    def fibre(spans) -> tuple[float, float]:
+        props = section_properties(spans, t)
+        if props.area <= 0.0 or props.inertia <= 0.0:
+            return 0.0, 0.0
+        return N / props.area, M * (at - _centroid(spans)) / props.inertia
+
+    axial, bending = fibre(section.ligaments)
+    gross_axial, gross_bending = fibre(gross)
+    if abs(bending) <= ROUND_OFF * abs(peak):  # a moment of round-off: no bending term
+        bending = gross_bending = 0.0
+    net = make("edge-net", "cut normal to the edge, net", "N / A + M s / I at the peak (s from the cut's centroid)",
+               axial + bending)
+    gross_nominal = make("edge-gross", "cut normal to the edge, gross", "N / A_g + M s / I_g at the peak, the outline "
+                         "without cut-outs", gross_axial + gross_bending)
+    return NominalSet(net, gross_nominal, (net, gross_nominal,
+                                           make("edge-axial", "normal force on that cut", "N / A", axial),
+                                           make("edge-bending", "bending on that cut", "M s / I", bending)))
+
+
+ROUND_OFF = 1e-9  # a nominal term below this fraction of the peak is round-off of a zero
+
+
+def _centroid(spans: tuple[tuple[float, float], ...]) -> float:
+    """Position (mm along the cut) of the centroid of the material intervals."""
+    lig = np.asarray(spans, dtype=float).reshape(-1, 2)
+    length = lig[:, 1] - lig[:, 0]
+    return float(np.sum(length * 0.5 * (lig[:, 0] + lig[:, 1])) / length.sum()) if length.sum() > 0 else 0.0
 
 
 def _ratio(a: float, b: float) -> float:

@@ -36,9 +36,11 @@ class Cut:
 
 
 def cut_resultants(nodes: np.ndarray, tris: np.ndarray, nodal_stress: np.ndarray,
-                   thickness: float, point: tuple[float, float], normal: tuple[float, float]) -> Cut:
+                   thickness: float, point: tuple[float, float], normal: tuple[float, float],
+                   span: tuple[float, float] | None = None) -> Cut:
     """Integrate the recovered nodal stresses (n, 3) across the straight cut through `point` with unit
-    `normal`, interpolated linearly inside each crossed triangle."""
+    `normal`, interpolated linearly inside each crossed triangle; with `span` (lo, hi), only across the
+    stretch of the line between those positions (mm)."""
     p0 = np.asarray(point, dtype=float)
     n = np.asarray(normal, dtype=float) / np.hypot(*normal)
     d = np.array([-n[1], n[0]])
@@ -59,6 +61,11 @@ def cut_resultants(nodes: np.ndarray, tris: np.ndarray, nodal_stress: np.ndarray
     q1 = xa + wb[:, None] * (xb - xa)
     q2 = xa + wc[:, None] * (xc - xa)
     t1, t2 = (q1 - p0) @ d, (q2 - p0) @ d
+    if span is not None:
+        slack = 1e-9 * (abs(span[0]) + abs(span[1]) + 1.0)
+        inside = (0.5 * (t1 + t2) >= span[0] - slack) & (0.5 * (t1 + t2) <= span[1] + slack)
+        tri, rows, t1, t2, q1, q2 = tri[inside], np.arange(int(inside.sum())), t1[inside], t2[inside], q1[inside], q2[inside]
+        a, b, c, wb, wc = a[inside], b[inside], c[inside], wb[inside], wc[inside]
     length = np.abs(t2 - t1)
     mid = 0.5 * (t1 + t2)
     # recovered nodal field, interpolated linearly to both ends of each segment

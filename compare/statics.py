@@ -15,6 +15,14 @@ pin force there, whatever the contact). The held end's reactions are statically
 known when the whole held end lies on one side: then the free body on the other side is used. When the
 cut crosses the held end the reaction is shared between the sides in a way statics alone does not fix;
 the FE support reactions of the nodes on the +n side are used then, and `basis` says so.
+
+Supports on the part's own boundary ([[hold]] stretches and pin holds) are treated alike: when every one
+lies on one side, statics of the other side is exact; when the cut passes between them, the FE reactions
+(a held pin's contact forces among them) of the +n side are used.
+
+A cut across only some of the ligaments its line meets (the cut normal to an edge at a peak,
+compare/edge_cut.py) bounds a free body that is not a half-plane: `side` then says which points belong
+to the +n side (a FreeBody), and every load, reaction and support is sorted by it.
 """
 
 from __future__ import annotations
@@ -28,12 +36,34 @@ import scipy.sparse.linalg as spla
 from ..fem.analysis import Solution
 from ..fem.contact import rigid_pin
 from ..fem.loads import applied_loads, load_resultant, pin_bearing_loads
+from ..geometry.kinds.hole import named as named_hole
 from ..geometry.registry import outline_size
 from ..geometry.spec import PartSpec
 
 EXACT = "applied loads (exact)"
 ON_CUT = 1e-9  # of the part's larger dimension: a contact node this close to a cut lies on it
 WITH_REACTIONS = "applied loads and the FE support reactions (the cut crosses the held end)"
+WITH_SUPPORTS = ("applied loads and the FE support reactions (the cut passes between supports, so statics alone "
+                 "cannot share the reactions)")
+
+
+@dataclass(frozen=True)
+class FreeBody:
+    """The +n side of a cut: `polygon`, the piece of the part the cut separates on its +n side (shapely,
+    grown by a hair so that its own boundary belongs to it), or None for the whole half-plane."""
+
+    polygon: object | None = None
+
+    def contains(self, points: np.ndarray, p0: np.ndarray, n: np.ndarray) -> np.ndarray:
+        """(k,) bool: which points (k, 2) lie on the +n side (strictly, for the half-plane)."""
+        if self.polygon is None:
+            return (points - p0) @ n > 0.0
+        import shapely
+
+        return shapely.contains_xy(self.polygon, points[:, 0], points[:, 1]) & ((points - p0) @ n != 0.0)
+
+
+HALF_PLANE = FreeBody()
 
 
 @dataclass(frozen=True)
@@ -47,22 +77,23 @@ class Statics:
 
 
 def cut_statics(spec: PartSpec, solution: Solution, point: tuple[float, float], normal: tuple[float, float],
-                about: tuple[float, float]) -> Statics:
-    """Statics of the cut through `point` with unit `normal`; moment about the point `about` (mm)."""
+                about: tuple[float, float], side: FreeBody = HALF_PLANE) -> Statics:
+    """Statics of the cut through `point` with unit `normal`; moment about the point `about` (mm). `side`:
+    the free body on the +n side (default: the half-plane the normal points into)."""
     p0, n = np.asarray(point, float), np.asarray(normal, float) / np.hypot(*normal)
     d = np.array([-n[1], n[0]])
-    side = _held_end_side(spec, solution, p0, n)
-    if side == "minus":  # free body: the +n side, loads only
-        fx, fy, mz = _applied(spec, solution, p0, n, about, positive=True)
+    where = _support_side(spec, solution, p0, n, side)
+    if where == "minus":  # free body: the +n side, loads only
+        fx, fy, mz = _applied(spec, solution, p0, n, about, side, positive=True)
         basis = EXACT
-    elif side == "plus":  # free body: the -n side, loads only; the +n side carries the opposite
-        fx, fy, mz = (-v for v in _applied(spec, solution, p0, n, about, positive=False))
+    elif where == "plus":  # free body: the -n side, loads only; the +n side carries the opposite
+        fx, fy, mz = (-v for v in _applied(spec, solution, p0, n, about, side, positive=False))
         basis = EXACT
     else:
-        fx, fy, mz = _applied(spec, solution, p0, n, about, positive=True)
-        rx, ry, rm = _reactions(solution, p0, n, about)
+        fx, fy, mz = _applied(spec, solution, p0, n, about, side, positive=True)
+        rx, ry, rm = _reactions(spec, solution, p0, n, about, side)
         fx, fy, mz = fx + rx, fy + ry, mz + rm
-        basis = EXACT if side == "none" else WITH_REACTIONS
+        basis = EXACT if where == "none" else (WITH_REACTIONS if not spec.support.holds else WITH_SUPPORTS)
     force = np.array([fx, fy])
     return Statics(float(force @ n), float(force @ d), float(-mz), basis)
 
@@ -81,50 +112,87 @@ def reference_stress(spec: PartSpec) -> float:
 
 
 def _held_end_side(spec: PartSpec, solution: Solution, p0: np.ndarray, n: np.ndarray) -> str:
-    """"minus" / "plus" when the whole held end (the mesh's "held" edge: a straight end or a lug's bearing
-    point) lies on that side of the cut, "crossed" when the cut crosses it, "none" when the part has no
-    held end (remote state, or the plane x = 0 instead)."""
-    if spec.load.remote is not None or "x" in spec.support.symmetry or "held" not in solution.mesh.edges:
+    """Where the supports lie relative to the half-plane cut (see `_support_side`)."""
+    return _support_side(spec, solution, p0, n, HALF_PLANE)
+
+
+def _support_side(spec: PartSpec, solution: Solution, p0: np.ndarray, n: np.ndarray, side: FreeBody) -> str:
+    """"minus" / "plus" when every support (the mesh's "held" edge: a straight end or a lug's bearing
+    point; the [[hold]] stretches; the held pins' holes) lies on that side of the cut, "crossed" when the
+    cut passes between them, "none" when the part has no support statics must share (a remote state, or
+    the plane x = 0 instead of the held end)."""
+    points = support_points(spec, solution)
+    if points is None:
         return "none"
-    ends = (solution.mesh.nodes[solution.mesh.edge_nodes("held")] - p0) @ n
-    if np.all(ends <= 0.0):
+    plus = side.contains(points, p0, n)
+    on_minus = ~plus & ~(side.polygon is None and ((points - p0) @ n >= 0.0))
+    if not plus.any():
         return "minus"
-    if np.all(ends >= 0.0):
+    if plus.all() or (side.polygon is None and not on_minus.any()):
         return "plus"
     return "crossed"
 
 
-def _applied(spec: PartSpec, solution: Solution, p0: np.ndarray, n: np.ndarray, about,
+def support_points(spec: PartSpec, solution: Solution) -> np.ndarray | None:
+    """(k, 2) the nodes of every support that takes a share statics must place, or None without any."""
+    mesh = solution.mesh
+    if spec.support.holds:
+        from ..geometry.boundary import stretch
+        from ..fem.stretches import stretch_nodes
+
+        nodes = [stretch_nodes(mesh, stretch(spec, h.where).pieces) for h in spec.support.holds if h.where is not None]
+        nodes += [mesh.edge_nodes(named_hole(h.pin)) for h in spec.support.holds if h.pin is not None]
+        return mesh.nodes[np.concatenate(nodes)]
+    if spec.load.remote is not None or "x" in spec.support.symmetry or "held" not in mesh.edges:
+        return None
+    return mesh.nodes[mesh.edge_nodes("held")]
+
+
+def _applied(spec: PartSpec, solution: Solution, p0: np.ndarray, n: np.ndarray, about, side: FreeBody,
              positive: bool) -> tuple[float, float, float]:
-    """Resultant (Fx, Fy, Mz about `about`) of the applied tractions, and of a rigid pin's contact forces,
-    on one side of the cut."""
-    sign = 1.0 if positive else -1.0
+    """Resultant (Fx, Fy, Mz about `about`) of the applied tractions, and of a rigid loading pin's contact
+    forces, on one side of the cut."""
     total = np.zeros(3)
+
+    def keep(p: np.ndarray) -> np.ndarray:
+        inside = side.contains(p, p0, n)
+        return inside if positive else (~inside & ((p - p0) @ n != 0.0))
+
     for bl in applied_loads(spec):
-        total += load_resultant(bl, spec.plate.thickness, lambda p: sign * ((p - p0) @ n) > 0.0, about)
+        total += load_resultant(bl, spec.plate.thickness, keep, about)
     if solution.contact is not None:
-        total += _contact_resultant(solution, p0, sign * n, about, ON_CUT * max(outline_size(spec)))
+        tol = ON_CUT * max(outline_size(spec))
+        total += _contact_resultant(solution, p0, (1.0 if positive else -1.0) * n, about, tol, side, positive)
     return float(total[0]), float(total[1]), float(total[2])
 
 
-def _contact_resultant(solution: Solution, p0: np.ndarray, n: np.ndarray, about, tol: float) -> np.ndarray:
+def _contact_resultant(solution: Solution, p0: np.ndarray, n: np.ndarray, about, tol: float,
+                       side: FreeBody = HALF_PLANE, positive: bool = True) -> np.ndarray:
     """(Fx, Fy, Mz) of the contact's nodal forces on the +n side of the cut; a node within `tol` (mm) of
-    the cut counts half (its force is shared by the elements on both sides)."""
+    the cut counts half (its force is shared by the elements on both sides). With a FreeBody, a node
+    off the cut counts when it is in the body (positive) or out of it (not positive)."""
     c = solution.contact
-    side = (c.points - p0) @ n
-    weight = np.where(side > tol, 1.0, np.where(side >= -tol, 0.5, 0.0))
+    distance = (c.points - p0) @ n
+    if side.polygon is None:
+        weight = np.where(distance > tol, 1.0, np.where(distance >= -tol, 0.5, 0.0))
+    else:
+        inside = side.contains(c.points, p0, n if positive else -n)
+        inside = inside if positive else ~inside
+        weight = np.where(np.abs(distance) <= tol, 0.5, inside.astype(float))
     f = c.forces * weight[:, None]
     arm = c.points - np.asarray(about, float)
     return np.array([f[:, 0].sum(), f[:, 1].sum(), np.sum(arm[:, 0] * f[:, 1] - arm[:, 1] * f[:, 0])])
 
 
-def _reactions(solution: Solution, p0: np.ndarray, n: np.ndarray, about) -> tuple[float, float, float]:
+def _reactions(spec: PartSpec, solution: Solution, p0: np.ndarray, n: np.ndarray, about,
+               side: FreeBody = HALF_PLANE) -> tuple[float, float, float]:
     """Resultant of the FE support reactions on the +n side of the cut.
 
-    Along the held end the nodal reactions are turned back into the linear traction whose consistent
-    nodal forces they are (solving the edge's mass matrix), and that traction is integrated exactly over
-    the part of the end on the +n side, so a cut between two nodes shares their reactions correctly.
-    Reactions at nodes off the held end (rigid-body restraints, near zero) count by node.
+    Along the held end (and along every [[hold]] stretch) the nodal reactions are turned back into the
+    linear traction whose consistent nodal forces they are (solving the edge's mass matrix), and that
+    traction is integrated exactly over the part of the edge on the +n side, so a cut between two nodes
+    shares their reactions correctly. Reactions at other nodes (rigid-body restraints, near zero; a held
+    pin's contact forces) count by node.
     """
     if solution.reactions is None:
         return 0.0, 0.0, 0.0
@@ -133,18 +201,29 @@ def _reactions(solution: Solution, p0: np.ndarray, n: np.ndarray, about) -> tupl
     about = np.asarray(about, float)
     total = np.zeros(3)
     on_end = np.zeros(mesh.n_nodes, dtype=bool)
-    if "held" in mesh.edges:
-        edges = mesh.edges["held"]
+    for edges in _support_edges(spec, mesh):
         on_end[edges.ravel()] = True
-        total += _edge_traction_resultant(mesh.nodes, edges, r, p0, n, about)
-    loose = (~on_end) & ((mesh.nodes - p0) @ n > 0.0) & np.any(r != 0.0, axis=1)
+        total += _edge_traction_resultant(mesh.nodes, edges, r, p0, n, about, side)
+    loose = (~on_end) & side.contains(mesh.nodes, p0, n) & np.any(r != 0.0, axis=1)
     arm = mesh.nodes[loose] - about
     total += [r[loose, 0].sum(), r[loose, 1].sum(), np.sum(arm[:, 0] * r[loose, 1] - arm[:, 1] * r[loose, 0])]
     return float(total[0]), float(total[1]), float(total[2])
 
 
+def _support_edges(spec: PartSpec, mesh) -> list[np.ndarray]:
+    """The boundary edge chains of the supports whose reactions are edge tractions: the held end, and each
+    [[hold]] stretch (fem.stretches)."""
+    chains = [mesh.edges["held"]] if "held" in mesh.edges and not spec.support.holds else []
+    if spec.support.holds:
+        from ..geometry.boundary import stretch
+        from ..fem.stretches import stretch_edges
+
+        chains += [stretch_edges(mesh, stretch(spec, h.where).pieces) for h in spec.support.holds if h.where is not None]
+    return [c for c in chains if c.size]
+
+
 def _edge_traction_resultant(nodes: np.ndarray, edges: np.ndarray, forces: np.ndarray, p0: np.ndarray,
-                             n: np.ndarray, about: np.ndarray) -> np.ndarray:
+                             n: np.ndarray, about: np.ndarray, side: FreeBody = HALF_PLANE) -> np.ndarray:
     """(Fx, Fy, Mz) on the +n side of the piecewise-linear edge traction whose consistent nodal forces
     are `forces` (n, 2) at the nodes of `edges` (k, 2)."""
     used = np.unique(edges)
@@ -159,6 +238,10 @@ def _edge_traction_resultant(nodes: np.ndarray, edges: np.ndarray, forces: np.nd
     traction = np.column_stack([spla.spsolve(mass, forces[used, k]) for k in (0, 1)])  # per unit length
     pa, pb = nodes[edges[:, 0]], nodes[edges[:, 1]]
     sa, sb = (pa - p0) @ n, (pb - p0) @ n
+    if side.polygon is not None:  # sides by the free body; an edge split only where it crosses the cut
+        ina, inb = side.contains(pa, p0, n), side.contains(pb, p0, n)
+        sa = np.where(ina, np.abs(sa) + (sa == 0), -np.abs(sa) - (sa == 0))
+        sb = np.where(inb, np.abs(sb) + (sb == 0), -np.abs(sb) - (sb == 0))
     lo = np.where(sa > 0, 0.0, np.clip(sa / np.where(sa == sb, 1.0, sa - sb), 0.0, 1.0))
     hi = np.where(sb > 0, 1.0, np.clip(sa / np.where(sa == sb, 1.0, sa - sb), 0.0, 1.0))
     lo, hi = np.minimum(lo, hi), np.maximum(lo, hi)

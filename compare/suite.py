@@ -36,6 +36,9 @@ they make must pass the part-file reader.
 
 A case passes when its check converged and its FE Kt is within the tolerance of the reference.
 
+A part with several load cases ([[load]] entries) is judged on its governing case, or on the load case a
+row names with `load_case = "NAME"` (its own converged Kt; kt_of "part" only).
+
 Which FE Kt: `kt_of = "case"` compares the Kt of the raiser the part's handbook case describes (the middle
 hole of a row of holes; compare/case_kt.py), `kt_of = "part"` the part's governing Kt (its largest peak).
 The two differ only for a case that names a raiser. A row that names a handbook family (and every built-in
@@ -71,7 +74,7 @@ from .handbook import Case, handbook_matches
 
 DEFINITIONS = ("net", "gross")
 CASE_KEYS = {"name", "part", "set", "family", "parameters", "reference", "definition", "tolerance", "source",
-             "kt_of"}
+             "kt_of", "load_case"}
 KT_OF = ("case", "part")  # the raiser the handbook case describes, or the part's governing peak
 TOP_KEYS = {"title", "defaults", "case"}
 MAX_SUITE_BYTES = 4_000_000  # longest suite file read (thousands of cases)
@@ -103,6 +106,7 @@ class SuiteCase:
     source: str
     problem: str | None = None
     kt_of: str = "case"
+    load_case: str | None = None  # the part's load case to judge, by name (None: the governing case)
 
 
 @dataclass(frozen=True)
@@ -143,6 +147,8 @@ def judge(case: SuiteCase, row: Mapping[str, Any]) -> Verdict:
         return Verdict(case, None, None, None, False, case.problem)
     if row.get("status") != "ok":
         return Verdict(case, None, None, None, False, f"the check failed ({row.get('status')}): {row.get('error')}")
+    if case.load_case is not None:
+        row = _load_case_row(row, case.load_case)
     feature, governing = row.get("feature"), row.get(f"kt_{case.definition}")
     prefix = "case_" if case.kt_of == "case" else ""
     raiser = row.get("case_raiser") if case.kt_of == "case" else feature
@@ -162,6 +168,14 @@ def judge(case: SuiteCase, row: Mapping[str, Any]) -> Verdict:
         return Verdict(case, kt, diff, True, False, f"off by {diff:+.2%}; tolerance ±{case.tolerance:.2%}{note}",
                        **seen)
     return Verdict(case, kt, diff, True, True, f"within ±{case.tolerance:.2%}{note}", **seen)
+
+
+def _load_case_row(row: Mapping[str, Any], name: str) -> dict[str, Any]:
+    """The row with the governing numbers replaced by those of the load case `name` (cli.batch.load_cases)."""
+    entry = next((e for e in row.get("load_cases") or () if e.get("name") == name), None)
+    if entry is None:
+        return {**row, "kt_net": None, "kt_gross": None}
+    return {**row, **{k: entry.get(k) for k in ("kt_net", "kt_gross", "kt_error", "converged", "feature")}}
 
 
 # --- suite files ---------------------------------------------------------------------------------------
@@ -234,9 +248,23 @@ def _suite_case(row: dict[str, Any], where: str, folder: Path) -> SuiteCase:
     if kt_of not in KT_OF:
         raise PartError(f"{where}: kt_of: {kt_of!r} is not allowed; use \"case\" (the Kt of the raiser the part's "
                         "handbook case describes) or \"part\" (the part's governing Kt)")
+    load_case = _load_case(row, part, kt_of, where)
     return SuiteCase(name=name, part=part, reference=_number(row, "reference", where, 0.0, math.inf),
                      definition=definition, tolerance=_number(row, "tolerance", where, 0.0, 1.0), source=source,
-                     kt_of=kt_of)
+                     kt_of=kt_of, load_case=load_case)
+
+
+def _load_case(row: dict[str, Any], part: dict[str, Any], kt_of: str, where: str) -> str | None:
+    """The row's `load_case`: the name of one of the part's load cases (checked against the part)."""
+    if "load_case" not in row:
+        return None
+    name = row["load_case"]
+    if kt_of != "part":
+        raise PartError(f"{where}: load_case: compares that load case's own Kt; it goes with kt_of = \"part\"")
+    names = [c.name for c in part_from_dict(part).load_cases]
+    if name not in names:
+        raise PartError(f"{where}: load_case: {name!r} names no load case of the part; it has {', '.join(map(repr, names))}")
+    return name
 
 
 def _row_part(row: dict[str, Any], where: str, folder: Path) -> dict[str, Any]:
