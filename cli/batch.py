@@ -81,7 +81,9 @@ def summary_row(result) -> dict[str, Any]:
     case_raiser / case_kt_net / case_kt_gross / case_kt_error / case_converged are those of the raiser the
     preferred handbook case describes (compare/case_kt.py: the middle hole of a row of holes), the Kt a
     handbook comparison uses; when the case describes the part's peak, or no case covers the part, they
-    equal the governing values and case_raiser is the governing feature."""
+    equal the governing values and case_raiser is the governing feature. A part with several load cases
+    gives the governing case's numbers (load_case names it; compare.check.governing_case) and, under
+    load_cases, each case's name, Kt, band, convergence, peak and where it is."""
     from ..compare.case_kt import case_kt
     from ..geometry.registry import raiser_label
 
@@ -113,8 +115,30 @@ def summary_row(result) -> dict[str, Any]:
         "case_kt_gross": described.kt_gross,
         "case_kt_error": described.error,
         "case_converged": described.converged,
+        "load_case": result.case,
     }
-    return {k: _plain(v) for k, v in row.items()}
+    row = {k: _plain(v) for k, v in row.items()}
+    row["load_cases"] = [load_case_entry(r) for r in result.every_case]
+    return row
+
+
+def load_case_entry(result) -> dict[str, Any]:
+    """One load case's numbers in a batch row (plain data, MPa)."""
+    from ..geometry.registry import raiser_label
+
+    entry = {"name": result.case, "kt_net": result.kt.net, "kt_gross": result.kt.gross, "kt_error": result.kt.error,
+             "converged": bool(result.kt.converged), "peak": result.peak.stress,
+             "feature": raiser_label(result.peak.feature)}
+    return {k: _plain(v) for k, v in entry.items()}
+
+
+def load_cases_text(entries: list[dict[str, Any]] | None) -> str:
+    """A row's load cases on one line, for a table cell: "working: Kt 2.395 ±0.65%; proof: ..."."""
+    def one(e: dict[str, Any]) -> str:
+        kt = f"Kt {e['kt_net']:.3f}" if e.get("kt_net") is not None else "Kt —"
+        band = f" ±{e['kt_error']:.2%}" if e.get("kt_error") is not None else ""
+        return f"{e['name']}: {kt}{band}" + ("" if e.get("converged") else " NOT converged")
+    return "; ".join(one(e) for e in entries or [])
 
 
 def _plain(value: Any) -> Any:
@@ -129,7 +153,7 @@ ROW_FIELDS = (  # every key of a row, in table order
     "status", "error", "peak", "peak_fe", "peak_x", "peak_y", "feature", "average", "gross_average", "kt_net",
     "kt_gross", "kt_error", "converged", "equilibrium_error", "levels", "elements", "handbook_case",
     "handbook_kt_net", "handbook_kt_gross", "handbook_in_range", "case_raiser", "case_kt_net", "case_kt_gross",
-    "case_kt_error", "case_converged", "seconds",
+    "case_kt_error", "case_converged", "load_case", "load_cases", "seconds",
 )
 
 

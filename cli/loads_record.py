@@ -8,13 +8,18 @@ from typing import Any
 from ..compare.check import CheckResult
 from ..compare.method_of_sections import SectionResult
 from ..fem.loads import pin_peak_pressure
+from ..geometry.boundary import stretch
+from ..geometry.registry import raiser_label
 from ..geometry.spec import PartSpec
 
 
 def load_record(spec: PartSpec) -> dict[str, Any]:
-    """The load as given: end loads (N, N mm), remote state (MPa) or pin (N, degrees), and its kind."""
+    """The load as given: end loads (N, N mm), remote state (MPa), pin (N, degrees) or loads on stretches
+    of the boundary, and its kind."""
     load = spec.load
     out: dict[str, Any] = {"kind": load.kind, "axial": load.axial, "bending": load.bending, "shear": load.shear}
+    if load.edges:
+        out["edges"] = [_edge_record(spec, e) for e in load.edges]
     if load.remote is not None:
         out["remote"] = {"sx": load.remote.sx, "sy": load.remote.sy, "txy": load.remote.txy}
     if load.pin is not None:
@@ -44,7 +49,41 @@ def pin_contact_record(result: CheckResult) -> dict[str, Any] | None:
 
 
 def support_record(spec: PartSpec) -> dict[str, Any]:
-    return {"held": spec.support.held, "symmetry": list(spec.support.symmetry), "reported_for": "the full part"}
+    out = {"held": spec.support.held, "symmetry": list(spec.support.symmetry), "reported_for": "the full part"}
+    if spec.support.holds:
+        out["holds"] = [_hold_record(spec, h) for h in spec.support.holds]
+    return out
+
+
+def _pick_record(spec: PartSpec, pick) -> dict[str, Any]:
+    """Where a stretch was picked (mm) and what it is: its length and the pieces it runs along."""
+    picked = stretch(spec, pick)
+    where = {"at": list(pick.at)} if pick.at is not None else {"from": list(pick.start), "to": list(pick.end)}
+    return {**where, "length": picked.length, "pieces": list(dict.fromkeys(picked.labels))}
+
+
+def _edge_record(spec: PartSpec, edge) -> dict[str, Any]:
+    """One [[load.edge]]: its stretch, and the force (N, direction in degrees) or pressure (MPa) on it."""
+    out = {"key": edge.where.key, **_pick_record(spec, edge.where)}
+    if edge.pressure != 0.0:
+        return {**out, "pressure": edge.pressure}
+    return {**out, "force": edge.force, "direction": edge.direction,
+            "traction": edge.force / (out["length"] * spec.plate.thickness)}
+
+
+def _hold_record(spec: PartSpec, hold) -> dict[str, Any]:
+    """One [[hold]]: fixed or roller on its stretch, or the hole a pin holds."""
+    if hold.pin is not None:
+        return {"key": hold.key, "mode": "pin", "pin": hold.pin}
+    return {"key": hold.key, "mode": hold.mode, **_pick_record(spec, hold.where)}
+
+
+def pin_holds_record(result: CheckResult) -> list[dict[str, Any]]:
+    """Each pin hold's contact on the finest mesh: arc (degrees from its seat, the direction it was seated
+    in), peak contact pressure (MPa) and its reaction on the part (N)."""
+    return [{"hole": c.hole, "arc": list(c.arc), "seat": c.seat, "peak_pressure": c.peak_pressure, "passes": c.passes,
+             "penetration": c.penetration, "reaction": [float(v) for v in c.force]}
+            for c in result.solution.held_pins]
 
 
 def kt_basis(result: CheckResult) -> dict[str, Any] | None:
@@ -109,9 +148,10 @@ def section_record(r: SectionResult) -> dict[str, Any]:
 
 
 def net_section_statics(result: CheckResult) -> dict[str, Any]:
-    """Extra keys of the net section: the cut, and statics against the FE resultants."""
+    """Extra keys of the net section: which cut it is, where, and statics against the FE resultants."""
     ns = result.net_section
-    out: dict[str, Any] = {"point": list(ns.point), "normal": list(ns.normal)}
+    out: dict[str, Any] = {"cut": ns.kind, "point": list(ns.point), "normal": list(ns.normal),
+                           "gross_ligaments": [list(s) for s in ns.gross]}
     if ns.result is not None:
         rec = section_record(ns.result)
         out.update({k: rec[k] for k in ("fe", "statics", "errors")})
@@ -120,3 +160,27 @@ def net_section_statics(result: CheckResult) -> dict[str, Any]:
 
 def _finite(value: float | None) -> float | None:
     return value if value is not None and math.isfinite(value) else None
+
+
+def case_record(result: CheckResult, governing: bool) -> dict[str, Any]:
+    """One load case of a check: its load, converged peak, critical section, Kt and band, the peak of
+    every mesh level, and its sign-off when the part file asks for one (mm, N, MPa)."""
+    from .signoff_record import design_record, fatigue_record
+
+    ns, kt = result.net_section, result.kt
+    return {
+        "name": result.case,
+        "governing": governing,
+        "load": load_record(result.spec),
+        "peak": {"stress": result.peak.stress, "fe_stress": result.peak.fe_stress,
+                 "location": list(result.peak.location), "feature": raiser_label(result.peak.feature)},
+        "critical_section": {"average": ns.average, "area": ns.area, "ligaments": [list(s) for s in ns.ligaments],
+                             "equilibrium_error": ns.equilibrium_error, **net_section_statics(result)},
+        "kt": {"net": _finite(kt.net), "gross": _finite(kt.gross), "error": _finite(kt.error),
+               "converged": bool(kt.converged), "basis": kt_basis(result)},
+        "levels": [lv.peak for lv in result.study.levels],
+        "stop_reason": result.study.stop_reason,
+        "warnings": [str(w) for w in result.warnings],
+        "design": design_record(result.design),
+        "fatigue": fatigue_record(result.fatigue),
+    }

@@ -7,7 +7,11 @@ from rich.console import Console
 from rich.markup import escape
 from rich.table import Table
 
-from ..compare.check import CheckResult
+import numpy as np
+
+from ..compare.check import CheckResult, design_margin
+from ..geometry.boundary import stretch
+from ..geometry.registry import raiser_label
 from .display_units import cut_label, label, point_text, quantity_text, shown, shown_point
 
 Row = tuple[str, str, str]
@@ -46,6 +50,61 @@ def pin_rows(result: CheckResult) -> list[Row]:
             ("  contact arc", f"{contact.arc[0]:+.1f}° … {contact.arc[1]:+.1f}°",
              f"from the pin's line; peak pressure {quantity_text(contact.peak_pressure, 'stress', units)}, "
              f"{contact.passes} active-set pass{'es' if contact.passes != 1 else ''}")]
+
+
+def boundary_rows(result: CheckResult) -> list[Row]:
+    """The supports and loads on the part's own boundary: each [[hold]] and [[load.edge]], what it picks
+    and how long it is, and each pin hold's contact."""
+    spec, units = result.spec, result.spec.units
+    rows: list[Row] = []
+    for hold in getattr(getattr(spec, "support", None), "holds", ()):
+        if hold.pin is not None:
+            contact = next((c for c in result.solution.held_pins if c.hole == hold.pin), None)
+            note = (f"contact {contact.arc[0]:+.1f}° … {contact.arc[1]:+.1f}° from {contact.seat:.0f}°, reaction "
+                    f"{quantity_text(float(np.hypot(*contact.force)), 'force', units, resultant=True)}"
+                    if contact is not None else "rigid, frictionless, neat fit")
+            rows.append((f"{hold.key.capitalize()}", f"pin in hole {hold.pin}", note))
+            continue
+        picked = stretch(spec, hold.where)
+        rows.append((f"{hold.key.capitalize()}", hold.mode, f"{_pieces(picked)}, "
+                     f"{quantity_text(picked.length, 'length', units, '.4g')} long"))
+    for edge in getattr(spec.load, "edges", ()):
+        picked = stretch(spec, edge.where)
+        value = (quantity_text(edge.pressure, "stress", units) if edge.pressure != 0.0
+                 else quantity_text(edge.force, "force", units, resultant=True))
+        how = "pressure" if edge.pressure != 0.0 else f"at {edge.direction:g}°"
+        rows.append((edge.where.key, value, f"{how} on {_pieces(picked)}, {quantity_text(picked.length, 'length', units, '.4g')} long"))
+    return rows
+
+
+def _pieces(picked) -> str:
+    return " + ".join(dict.fromkeys(picked.labels))
+
+
+def print_cases(result: CheckResult, console: Console) -> None:
+    """With several load cases: one row per case (its governing peak, nominal, Kt with band, the design
+    margin when [design] is given) and which case governs."""
+    cases = getattr(result, "cases", ())
+    if len(cases) < 2:
+        return
+    units = result.spec.units
+    design = all(r.design is not None for r in cases)
+    table = Table(title="Load cases (one mesh and stiffness; each case converged on its own peak)",
+                  title_justify="left", box=None, pad_edge=False)
+    for column in ("case", f"peak {label('stress', units)}", "at", f"nominal {label('stress', units)}", "Kt net",
+                   "band", *(("margin",) if design else ()), "state"):
+        table.add_column(column, justify="left" if column in ("case", "at", "state") else "right")
+    for r in cases:
+        margin = ()
+        if design:
+            margin = (f"{design_margin(r.design):+.3f}",)
+        state = ("converged" if r.kt.converged else "NOT converged") + (" · governs" if r.case == result.case else "")
+        table.add_row(escape(r.case), shown(r.peak.stress, "stress", units), escape(raiser_label(r.peak.feature)),
+                      shown(r.nominal.net.stress if r.nominal else r.net_section.average, "stress", units),
+                      f"{r.kt.net:.3f}", f"± {r.kt.error:.2%}" if r.kt.error < 1.0 else "unknown", *margin, state)
+    console.print(table)
+    why = "the smallest design margin" if design else "the largest peak"
+    console.print(f"Governing case: {result.case} ({why}); the numbers above are its own.", soft_wrap=False)
 
 
 def stress_rows(result: CheckResult) -> list[Row]:

@@ -365,14 +365,75 @@ def _draw_raisers(ax, result: CheckResult) -> None:
 
 
 def _draw_support(ax, spec, bounds, step: float) -> None:
-    """Hatching at the held end (left), with how it is held; none under a remote (self-equilibrated) load."""
+    """Hatching at the held end (left), with how it is held; none under a remote (self-equilibrated) load.
+    A part held by [[hold]] supports: each stretch drawn thick with hatching on its outer side and its
+    mode, and each pin hold as a cross in its hole."""
     minx, miny, maxx, maxy = bounds
     if spec.load.remote is not None:
+        return
+    holds = getattr(getattr(spec, "support", None), "holds", ()) or ()
+    if holds:
+        _draw_holds(ax, spec, holds, step)
         return
     for y in np.linspace(miny, maxy, 9):
         ax.plot([minx, minx - 0.12 * step], [y, y - 0.12 * step], color=INK, lw=0.8)
     text = "held end\n(clamped)" if spec.support.held == "clamped" else "held end\n(x fixed)"
     ax.text(minx, maxy + 0.3 * step, text, ha="center", va="bottom", fontsize=9, color=INK)
+
+
+def _draw_holds(ax, spec, holds, step: float) -> None:
+    from ..geometry.boundary import outward_normals, segment_samples, stretch
+
+    for hold in holds:
+        if hold.pin is not None:
+            hole = spec.holes[hold.pin - 1]
+            r = 0.5 * hole.radius
+            (cx, cy) = hole.center
+            ax.plot([cx - r, cx + r], [cy, cy], color=INK, lw=1.2)
+            ax.plot([cx, cx], [cy - r, cy + r], color=INK, lw=1.2)
+            ax.text(cx, cy + hole.radius + 0.2 * step, f"{hold.key}: pin", ha="center", va="bottom", fontsize=8,
+                    color=INK)
+            continue
+        picked = stretch(spec, hold.where)
+        for seg in picked.pieces:
+            points = segment_samples(seg, 24)
+            ax.plot(points[:, 0], points[:, 1], color=INK, lw=2.4, solid_capstyle="butt")
+            ticks = segment_samples(seg, 9)
+            out = outward_normals(seg, ticks)
+            for p, n in zip(ticks, out):
+                tip = p + 0.12 * step * (n + np.array([-n[1], n[0]]))
+                ax.plot([p[0], tip[0]], [p[1], tip[1]], color=INK, lw=0.8)
+        points = picked.samples(9)
+        top = points[int(np.argmax(points[:, 1]))]
+        ax.text(top[0], top[1] + 0.3 * step, f"{hold.key}: {hold.mode}", ha="center", va="bottom", fontsize=8,
+                color=INK)
+
+
+def _draw_edge_loads(ax, spec, step: float) -> list[str]:
+    """Arrows along each [[load.edge]]'s stretch (the force's direction, or into the material for a
+    pressure) and one note per load."""
+    from ..geometry.boundary import outward_normals, segment_samples, stretch
+
+    units = spec.units
+    notes = []
+    for edge in getattr(spec.load, "edges", ()) or ():
+        picked = stretch(spec, edge.where)
+        for seg in picked.pieces:
+            points = segment_samples(seg, 5)[1:-1]
+            out = outward_normals(seg, points)
+            for p, n in zip(points, out):
+                if edge.pressure != 0.0:
+                    u = -np.sign(edge.pressure) * n
+                else:
+                    a = math.radians(edge.direction)
+                    u = np.array([math.cos(a), math.sin(a)])
+                inward = float(u @ n) < 0.0  # the arrow points into the material: draw it outside, ending at p
+                tail, head = (p - 0.9 * step * u, p) if inward else (p, p + 0.9 * step * u)
+                _arrow(ax, tail, head, FE_LINE)
+        value = (f"p = {_fmt(edge.pressure, 'stress', units)} {unit_label('stress', units)}" if edge.pressure != 0.0
+                 else f"F = {_fmt(edge.force, 'force', units, True)} at {edge.direction:.4g}°")
+        notes.append(f"{edge.where.key}: {value}")
+    return notes
 
 
 def _arrow(ax, tail, head, colour: str = AVERAGE_LINE) -> None:
@@ -416,6 +477,7 @@ def _draw_loads(ax, spec, bounds, step: float) -> None:
         _arrow(ax, start, start + (0.5 * hole.diameter + 1.2 * step) * u)
         notes.append(f"pin in hole {pin.hole}: F = {_fmt(pin.force, 'force', units, True)} at "
                      f"{math.degrees(angle):.4g}°")
+    notes += _draw_edge_loads(ax, spec, step)
     remote = load.remote
     if remote is not None:
         sx, sy = remote.sx, remote.sy

@@ -8,8 +8,8 @@ from typing import Any
 from .. import __version__
 from ..compare.check import CheckResult
 from ..geometry.registry import kind_of, named, outline_of, raiser_label
-from .loads_record import (kt_basis, load_record, net_section_statics, nominal_records, peak_component,
-                           pin_contact_record, section_record, stresses_record, support_record)
+from .loads_record import (case_record, kt_basis, load_record, net_section_statics, nominal_records, peak_component,
+                           pin_contact_record, pin_holds_record, section_record, stresses_record, support_record)
 from .signoff_record import design_record, fatigue_record, material_record
 
 SCHEMA = "stressraiser.check/1"
@@ -71,6 +71,7 @@ def check_record(result: CheckResult) -> dict[str, Any]:
         },
         "nominal_stresses": nominal_records(result),
         "pin_contact": pin_contact_record(result),
+        "pin_holds": pin_holds_record(result),
         "sections": [section_record(r) for r in result.sections],
         "mesh": {
             "tolerance": spec.mesh.tolerance,
@@ -94,6 +95,8 @@ def check_record(result: CheckResult) -> dict[str, Any]:
         "design": design_record(result.design),
         "fatigue": fatigue_record(result.fatigue),
         "cautions": list(result.cautions),
+        "case": result.case,  # the load case this record's numbers are for: the governing one
+        "cases": [case_record(r, r.case == result.case) for r in result.every_case],
     }
 
 

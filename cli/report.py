@@ -28,22 +28,23 @@ from pathlib import Path
 from typing import Any
 
 from .. import __version__
-from ..compare.check import CheckResult
+from ..compare.check import CheckResult, design_margin
 from ..compare.design import DesignCheck, design_statements
 from ..compare.fatigue import FatigueScreen, screen_statements
 from ..compare.method_of_sections import SectionResult
 from ..geometry.kinds.hole import named as named_hole
 from ..geometry.registry import kind_of, named, raiser_label
-from ..geometry.spec import Load
+from ..geometry.spec import Load, PartSpec
 from ..geometry.units import DEFAULT_SYSTEM, format_number
 from . import plots
+from .loads_summary import boundary_rows
 from .summary import estimate_how
 from .display_units import cut_label, label, point_text, quantity_text, shown, significant, warning_text
 from .fields import CELL_FIELDS, POINT_FIELDS, vtu_bytes
 from .files import write_atomic, write_json
 from .record import SCHEMA, check_record
 from .signoff_summary import CHECK_HEADER, check_caption, check_rows
-from .summary import kt_rows, verdict
+from .summary import kt_rows, on_edge_cut, verdict
 
 PNG_DPI = 150
 REPORT_NAME = "report.html"
@@ -171,6 +172,7 @@ def report_html(result: CheckResult, figures: list[Rendered], part_text: str | N
         f"{esc(datetime.now(timezone.utc).strftime('%Y-%m-%d %H:%M UTC'))}"
         + (f" · part file {esc(part_name)}" if part_name else "") + "</p>",
         _verdict_section(result),
+        _cases_section(result),
         _part_section(result, by_section.get("part", []), part_text),
         _mesh_section(result, by_section.get("mesh", [])),
         _stress_section(result, by_section.get("stress", [])),
@@ -316,7 +318,8 @@ def _part_section(result: CheckResult, figures: list[Rendered], part_text: str |
         ("Material", f"E {_amount(material.E, 'stress', units)}, ν {_num(material.nu)}, yield "
          f"{_amount(material.yield_strength, 'stress', units)}, ultimate "
          f"{_amount(material.ultimate, 'stress', units)}"),
-        ("Load", _load_text(spec.load, units)),
+        *((("Load", _load_text(spec.load, units, spec)),) if len(result.cases) < 2 else
+          ((f"Load case {r.case}", _load_text(r.spec.load, units, r.spec)) for r in result.cases)),
         ("Mesh study", f"target error {spec.mesh.tolerance:.2%}, at most {spec.mesh.max_levels} levels and "
          f"{spec.mesh.max_elements:,} triangles"),
         ("Units", f"{units}, the part file's system: every number of this report and its figures is in it"
@@ -326,14 +329,18 @@ def _part_section(result: CheckResult, figures: list[Rendered], part_text: str |
     parts = [_table(rows), _figures(figures)]
     if raisers:
         parts.append(_table(raisers, header=("raiser", "as given")))
+    boundary = [row for r in result.every_case for row in boundary_rows(r)
+                if r.case == result.case or not row[0].lower().startswith("hold")]
+    if boundary:
+        parts.append("<h3>Supports and loads on the part's own boundary</h3>" + _table(boundary, numeric=(1,)))
     if part_text is not None:
         parts.append("<h3>The part file as read</h3><pre>" + esc(part_text) + "</pre>")
     return _section("part", "The part and what it carries", *parts)
 
 
-def _load_text(load: Load, units: str) -> str:
-    """The load as text in `units`: the end force, moment and shear, a pin's force and direction, or the
-    remote stresses, whichever the load has."""
+def _load_text(load: Load, units: str, spec: PartSpec) -> str:
+    """The load as text in `units`: the end force, moment and shear, a pin's force and direction, the
+    remote stresses, or the loads on the boundary, whichever the load has; and how the part is held."""
     parts = []
     for name, value, quantity in (("axial", load.axial, "force"), ("bending", load.bending, "moment"),
                                   ("shear", load.shear, "force")):
@@ -347,10 +354,43 @@ def _load_text(load: Load, units: str) -> str:
     if remote is not None:
         parts.append("remote stress " + ", ".join(f"{name} {_amount(value, 'stress', units)}" for value, name in
                                                   ((remote.sx, "σx"), (remote.sy, "σy"), (remote.txy, "τxy"))))
+    edges = load.edges
+    if edges:
+        parts.append(f"{len(edges)} load{'s' if len(edges) > 1 else ''} on the boundary (below)")
     text = "; ".join(parts) or "none"
+    held_by_holds = bool(spec.support.holds)
     if remote is None:
-        text += "; the left end is held" + (", the end loads act on the right end" if load.has_end_loads else "")
+        text += ("; held by the supports below" if held_by_holds else "; the left end is held") + (
+            ", the end loads act on the right end" if load.has_end_loads else "")
     return text
+
+
+def _cases_section(result: CheckResult) -> str:
+    """With several load cases: each case's governing peak, nominal, Kt and band (and design margin), and
+    which case governs."""
+    cases = result.every_case
+    if len(cases) < 2:
+        return ""
+    units = result.spec.units
+    rows = []
+    for r in cases:
+        nominal = r.nominal.net if r.nominal is not None else None
+        margin = "—"
+        if r.design is not None:
+            margin = f"{design_margin(r.design):+.3f}"
+        rows.append((r.case + (" (governs)" if r.case == result.case else ""), _amount(r.peak.stress, "stress", units, 5),
+                     raiser_label(r.peak.feature), _amount(nominal.stress if nominal else r.net_section.average, "stress", units, 5),
+                     esc(nominal.formula if nominal else "N / A"), f"{r.kt.net:.3f}",
+                     f"±{r.kt.error:.2%}" if r.kt.error < 1.0 else "unknown", f"{r.kt.gross:.3f}", margin,
+                     "yes" if r.kt.converged else "NO"))
+    text = (f"The part has {len(cases)} load cases on one mesh and one stiffness: each mesh level was solved for "
+            "all of them at once, and the levels went on until every case's peak had converged. Each case has "
+            "its own peak, critical section, nominal stress and Kt. The governing case, whose numbers the rest of "
+            "this report gives, is the one with the " + ("smallest design margin." if all(r.design for r in cases)
+                                                          else "largest peak."))
+    table = _table(rows, header=("load case", "peak", "at", "nominal", "nominal is", "Kt net", "band", "Kt gross",
+                                 "margin", "converged"), numeric=(1, 3, 5, 6, 7, 8))
+    return _section("cases", "Load cases", _p(text), table)
 
 
 def _mesh_section(result: CheckResult, figures: list[Rendered]) -> str:
@@ -393,6 +433,11 @@ def _sections_section(result: CheckResult, figures: list[Rendered]) -> str:
     text = ("The critical section is the cut across the load through the raiser that carries the peak. A hand "
             "calculation spreads the force evenly over the net area (the flat line); the FE solution shows "
             "how the stress actually gathers at the raiser edge.")
+    if on_edge_cut(result):
+        text = ("The part is held or loaded on its own boundary, so there is no load axis to cut across: the critical "
+                "section is the cut through the peak along the edge's inward normal, across the shortest run of "
+                "ligaments on that line that cuts the part in two. The hand calculation is N / A + M s / I in the "
+                "peak's fibre, from the statics of the piece the cut separates.")
     return _section("sections", "Across the critical section", _p(text), _figures(figures), table)
 
 

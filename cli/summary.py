@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import math
+
 from rich.console import Console
 from rich.markup import escape
 from rich.table import Table
@@ -11,7 +13,8 @@ from ..geometry.errors import clipped
 from ..geometry.registry import raiser_label
 from .citation import short_source
 from .display_units import label, point_text, quantity_text, shown, warning_text
-from .loads_summary import nominal_rows, pin_rows, print_sections, stress_rows
+from ..compare.edge_cut import EDGE_NORMAL
+from .loads_summary import boundary_rows, nominal_rows, pin_rows, print_cases, print_sections, stress_rows
 from .signoff_summary import print_signoff
 
 
@@ -22,8 +25,17 @@ def verdict(result: CheckResult) -> str:
     state = "converged" if kt.converged else "NOT converged"
     nominal = result.nominal
     basis = f" on the {nominal.net.label.split(',')[0]} nominal" if nominal and result.spec.load.kind != "axial" else ""
+    if on_edge_cut(result):
+        basis = " on the cut normal to the edge at the peak"
+    cases = getattr(result, "every_case", (result,))
+    case = f" in load case {result.case!r} (governs {len(cases)} cases)" if len(cases) > 1 else ""
     return (f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f}{basis} — peak {peak} "
-            f"at {raiser_label(result.peak.feature)}, {state} in {len(result.study.levels)} mesh levels")
+            f"at {raiser_label(result.peak.feature)}{case}, {state} in {len(result.study.levels)} mesh levels")
+
+
+def on_edge_cut(result: CheckResult) -> bool:
+    """Whether the result's Kt is on the cut normal to the edge at the peak (compare/edge_cut.py)."""
+    return getattr(getattr(result, "net_section", None), "kind", None) == EDGE_NORMAL
 
 
 def print_summary(result: CheckResult, console: Console) -> None:
@@ -58,6 +70,11 @@ def peak_rows(result: CheckResult) -> list[Row]:
 
 def net_section_rows(result: CheckResult) -> list[Row]:
     ns, units = result.net_section, result.spec.units
+    if on_edge_cut(result):
+        into = math.degrees(math.atan2(ns.normal[0], -ns.normal[1])) % 360.0
+        return [("Average on the cut", quantity_text(ns.average, "stress", units),
+                 f"N / {quantity_text(ns.area, 'area', units)} on the cut normal to the edge at the peak "
+                 f"(into the part at {into:.1f}° from x)")]
     rows = [("Net-section average", quantity_text(ns.average, "stress", units),
              f"N / {quantity_text(ns.area, 'area', units)} at x = {quantity_text(ns.x, 'length', units, 'g')}")]
     if result.spec.load.kind in ("axial", "pin") and ns.average != 0.0:
@@ -71,6 +88,9 @@ def kt_rows(result: CheckResult) -> list[Row]:
     "Kt on net section  2.437 ± 0.60%  nominal N / A_net = 10667 psi". No rich markup: the report reuses them."""
     kt, nominal, units = result.kt, result.nominal, result.spec.units
     net = f"{kt.net:.3f} ± {kt.error:.2%}"
+    if nominal is not None and on_edge_cut(result):
+        return [("Kt on the cut (net)", net, nominal_note(nominal.net.formula, nominal.net.stress, units)),
+                ("Kt on the cut (gross)", f"{kt.gross:.3f}", nominal_note(nominal.gross.formula, nominal.gross.stress, units))]
     if nominal is None:
         return [("Kt on net section", net, f"gross {kt.gross:.3f} on the gross average "
                  f"{quantity_text(result.gross_average, 'stress', units)}")]
@@ -134,8 +154,8 @@ def equilibrium_rows(result: CheckResult) -> list[Row]:
              f"vs statics {quantity_text(applied, 'force', units)}")]
 
 
-KEY_ROWS = (peak_rows, stress_rows, net_section_rows, kt_rows, nominal_rows, pin_rows, competing_rows, handbook_rows,
-            equilibrium_rows)
+KEY_ROWS = (peak_rows, stress_rows, net_section_rows, kt_rows, nominal_rows, pin_rows, boundary_rows, competing_rows,
+            handbook_rows, equilibrium_rows)
 
 
 def print_key_numbers(result: CheckResult, console: Console) -> None:
@@ -183,4 +203,4 @@ def print_cautions(result: CheckResult, console: Console) -> None:
     console.print(grid)
 
 
-BLOCKS = (print_heading, print_key_numbers, print_sections, print_levels, print_signoff, print_cautions)
+BLOCKS = (print_heading, print_key_numbers, print_cases, print_sections, print_levels, print_signoff, print_cautions)

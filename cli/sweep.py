@@ -34,7 +34,7 @@ from typing import Any
 
 from ..geometry.errors import PartError
 from .errors import CommandLineError, OutputError
-from .batch import RETRY_ON_RESUME, ROW_FIELDS, STATUS_OK, add_execution_options, execution_from_args
+from .batch import RETRY_ON_RESUME, ROW_FIELDS, STATUS_OK, add_execution_options, execution_from_args, load_cases_text
 
 NAME = "sweep"
 SCHEMA = "stressraiser.sweep/1"
@@ -45,7 +45,8 @@ TABLE_FIELDS = (  # kt_* / converged: the part's governing peak; case_*: the rai
     "status", "kt_net", "kt_error", "converged", "kt_gross", "handbook_case", "handbook_kt_net",
     "handbook_kt_gross", "handbook_in_range", "case_raiser", "case_kt_net", "case_kt_error", "case_kt_gross",
     "case_converged", "handbook_difference", "peak", "average", "gross_average", "peak_fe",
-    "peak_x", "peak_y", "feature", "equilibrium_error", "levels", "elements", "seconds", "error",
+    "peak_x", "peak_y", "feature", "equilibrium_error", "levels", "elements", "load_case", "load_cases", "seconds",
+    "error",
 )
 
 
@@ -305,7 +306,8 @@ def write_tables(folder: Path, part_path: str, base: dict[str, Any], varies: lis
     writer = csv.writer(buffer, lineterminator="\n")
     writer.writerow([*names, *TABLE_FIELDS])
     for row in rows:
-        writer.writerow([*(row["inputs"][n] for n in names), *(_csv(row.get(f)) for f in TABLE_FIELDS)])
+        writer.writerow([*(row["inputs"][n] for n in names),
+                         *(_csv(load_cases_text(row.get(f)) if f == "load_cases" else row.get(f)) for f in TABLE_FIELDS)])
     write_atomic(folder / CSV_NAME, buffer.getvalue().encode("utf-8"))
     failed = sum(r["status"] != STATUS_OK for r in rows)
     write_json(folder / JSON_NAME, {
@@ -320,7 +322,10 @@ def write_tables(folder: Path, part_path: str, base: dict[str, Any], varies: lis
         "columns": {"kt_net, kt_gross, kt_error, converged": "the part's governing peak (feature: where it is)",
                     "case_raiser, case_kt_net, case_kt_gross, case_kt_error, case_converged":
                         "the raiser the handbook case describes (the middle hole of a row of holes); the "
-                        "governing values when the case describes the part's peak or no case covers the part"},
+                        "governing values when the case describes the part's peak or no case covers the part",
+                    "load_case, load_cases": "the governing load case's name, and each load case's Kt, band, "
+                                             "convergence, peak and where it is (the other columns are the "
+                                             "governing case's)"},
         "vary": [{"key": v.key.text, "values": list(v.values)} for v in varies],
         "cases": len(rows),
         "ok": len(rows) - failed,
@@ -370,13 +375,16 @@ def print_table(console, varies: list[Vary], rows: list[dict[str, Any]]) -> None
     from rich.table import Table
 
     split = any(case_raiser_differs(r) for r in rows)
+    several = any(len(r.get("load_cases") or ()) > 1 for r in rows)
     table = Table(box=None, pad_edge=False)
     for v in varies:
         table.add_column(escape(v.key.text), justify="right", no_wrap=True, min_width=len(v.key.text))
     names = (("part Kt net", "band", "Kt gross", "peak at", "case raiser", "its Kt net", "its band")
              if split else ("Kt net", "band", "Kt gross"))
+    if several:
+        names = ("load case", *names)
     for name in (*names, "handbook Kt net", "its Kt vs handbook" if split else "FE vs handbook", "status"):
-        table.add_column(name, justify="left" if name in ("status", "peak at", "case raiser") else "right")
+        table.add_column(name, justify="left" if name in ("status", "peak at", "case raiser", "load case") else "right")
     for r in rows:
         ok = r["status"] == STATUS_OK
         book = f"{r['handbook_kt_net']:.3f}" if r["handbook_kt_net"] else "—"
@@ -386,12 +394,17 @@ def print_table(console, varies: list[Vary], rows: list[dict[str, Any]]) -> None
             state += f"; {r['case_raiser']} NOT converged"
         cells = [_kt_text(r, "kt_net") if ok else "—", _band(r, "kt_error") if ok else "",
                  _kt_text(r, "kt_gross") if ok else "—"]
+        if several:
+            cells.insert(0, (r.get("load_case") or "—") if ok else "—")
         if split:
             cells += ([r["feature"] or "—", r["case_raiser"] or "—", _kt_text(r, "case_kt_net"),
                        _band(r, "case_kt_error")] if ok else ["—", "—", "—", ""])
         table.add_row(*(f"{r['inputs'][v.key.text]:g}" for v in varies), *cells,
                       book if ok else "—", diff if ok else "—", state)
     console.print(table)
+    if several:
+        console.print("Each row gives the governing load case (largest peak, or smallest design margin); sweep.csv "
+                      "and sweep.json list every case's Kt under load_cases.", markup=False)
     for r in rows:
         if r["status"] != STATUS_OK:
             inputs = ", ".join(f"{k} = {v:g}" for k, v in r["inputs"].items())
