@@ -176,8 +176,11 @@ def test_part_split_in_two(tmp_path, capsys, monkeypatch):
 
 def test_missing_support_is_a_singular_stiffness(tmp_path, capsys, monkeypatch):
     import stressraiser.fem.analysis as analysis
+    from stressraiser.fem.supports import Supports
 
-    monkeypatch.setattr(analysis, "part_supports", lambda spec, mesh: np.zeros(0, dtype=np.int64))
+    none = Supports(np.zeros(0, dtype=np.int64), np.zeros(0, dtype=np.int64), np.zeros((0, 2)),
+                    np.zeros((0, 2), dtype=np.int32), np.zeros(0, dtype=np.int64))
+    monkeypatch.setattr(analysis, "support_set", lambda spec, mesh: none)
     code, line, out = run_check(tmp_path, capsys)
     assert code == NUMERICS
     assert "rigid-body" in line

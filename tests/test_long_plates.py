@@ -143,7 +143,7 @@ def test_round_off_on_a_later_level_stops_the_refinement(monkeypatch):
         return original(*args, **kwargs)
 
     monkeypatch.setattr(analysis, "solve_system", solve_then_fail)
-    study, _ = convergence.converge(strap(200.0, 40.0, {"axial": 1000.0}, (0.0, 0.0, 8.0)))
+    (study,), _ = convergence.converge(strap(200.0, 40.0, {"axial": 1000.0}, (0.0, 0.0, 8.0)))
     assert len(study.levels) == 2 and not study.converged and "amplified round-off" in study.stop_reason
 
 
