@@ -14,7 +14,9 @@ seconds):
   four alone   the four single-load checks one after the other, on the same levels
 
 and the ratios together / one (acceptance, linear set: under 1.5) and four alone / together (the
-saving); and once, the bundled strap as shipped (one axial case, its own coarser far field) at 1 %.
+saving); and once, the bundled strap as shipped (one axial case, its own coarser far field) at 1 %. Each
+level is meshed in a child process (geometry/mesh_process.py), whose CPU time the CPU column does not
+count: read the wall times.
 Run from the repository root with the package importable: `python benchmarks/load_cases.py`.
 """
 
@@ -65,6 +67,7 @@ def compare(title: str, cases: list[dict], repeat: int, shipped_wall: float) -> 
     """Time the cases together, the first alone and all four alone on the same levels; print the ratios."""
     from stressraiser.compare.check import check_part
     from stressraiser.geometry.partfile import part_from_dict
+    from stressraiser.geometry.registry import raiser_label
 
     together_wall, together_cpu, result = best_of(lambda: check_part(part_from_dict(strap(cases))), repeat)
     levels = len(result.study.levels)
@@ -78,7 +81,7 @@ def compare(title: str, cases: list[dict], repeat: int, shipped_wall: float) -> 
     print(f"\n{title} on the bundled strap: {levels} mesh levels, finest {result.study.levels[-1].elements:,} "
           f"triangles; governing case {result.case!r}")
     for r in result.cases:
-        print(f"  {r.case:10s} peak {r.peak.stress:8.1f} MPa at {r.peak.feature:7s} Kt net {r.kt.net:.3f} "
+        print(f"  {r.case:10s} peak {r.peak.stress:8.1f} MPa at {raiser_label(r.peak.feature):7s} Kt net {r.kt.net:.3f} "
               f"± {r.kt.error:.2%} {'converged' if r.kt.converged else 'NOT converged'}")
     print(f"  {'run':34s} {'wall s':>8s} {'CPU s':>8s}")
     for name, wall, cpu in (("together (one stiffness)", together_wall, together_cpu),

@@ -153,7 +153,8 @@ def check_part(spec: PartSpec, report: Callable[[Level], None] | None = None) ->
                     for case, study, solution in zip(spec.load_cases, studies, solutions))
     if len(results) == 1:
         return results[0]
-    return replace(results[governing_case(results)], cases=results)
+    cautions = tuple(dict.fromkeys(c for r in results for c in r.cautions))  # every case's, in order
+    return replace(results[governing_case(results)], cases=results, cautions=cautions)
 
 
 def governing_case(results: tuple[CheckResult, ...]) -> int:
@@ -264,6 +265,20 @@ def _cautions(spec: PartSpec) -> tuple[str, ...]:
     if spec.support.symmetry:
         extra.append("A symmetric model assumes the real part, its loads and its supports are symmetric "
                      "about the declared planes; results are reported for the full part.")
+    if any(h.where is not None for h in spec.support.holds):
+        extra.append("Supports on the part's edges are idealised as rigid: a fixed stretch holds both displacements, "
+                     "a roller the one normal to its edge. Where a fixed stretch ends, and where a roller or an edge "
+                     "force ends inside an edge, the elastic stress is singular: the peak search leaves out 10 % of "
+                     "the stretch's length around those ends, and the real stress there depends on how the part is "
+                     "actually held and loaded.")
+    if any(h.pin is not None for h in spec.support.holds):
+        extra.append("A pin hold is a rigid, frictionless pin that fits its hole and is fixed in space; clearance, "
+                     "friction and the pin's and its mounting's own stiffness change where and how hard the part "
+                     "bears on it.")
+    if spec.load.edges:
+        extra.append("Loads on the part's edges are spread as stated (a uniform traction over the stretch, or a "
+                     "uniform pressure); whatever applies them in service distributes them differently near where "
+                     "it bears.")
     return CAUTIONS + tuple(extra)
 
 
