@@ -113,7 +113,7 @@ def stresses_record(result: CheckResult) -> dict[str, Any] | None:
 
     return {"max_principal": at(s.max_principal), "min_principal": at(s.min_principal),
             "von_mises": at(s.von_mises), "tresca": at(s.tresca),
-            "governing": "compressive (minimum principal)" if s.compressive_governs else "tensile (maximum principal)"}
+            "governing": "compressive (minimum principal)" if result.peak.stress < 0.0 else "tensile (maximum principal)"}
 
 
 def peak_component(result: CheckResult) -> str:

@@ -52,6 +52,22 @@ def pin_rows(result: CheckResult) -> list[Row]:
              f"{contact.passes} active-set pass{'es' if contact.passes != 1 else ''}")]
 
 
+def bearing_rows(result: CheckResult) -> list[Row]:
+    """Where a pin bears: its peak contact pressure against the bearing stress P / (d t), converged or
+    prescribed, or plainly not resolved (the contact arc's edge moves with the mesh)."""
+    b, units = result.bearing, result.spec.units
+    if b is None:
+        return []
+    if b.prescribed:
+        state = "prescribed cosine law, 4/π × P / (d t)"
+    elif b.resolved:
+        state = f"converged ± {b.error:.2%}"
+    else:
+        state = f"not resolved: contact edge (band {b.error:.1%})"
+    return [("Pin bearing pressure", quantity_text(b.pressure, "stress", units),
+             f"{b.ratio:.2f} × P / (d t) = {quantity_text(b.bearing_stress, 'stress', units)}; {state}")]
+
+
 def boundary_rows(result: CheckResult) -> list[Row]:
     """The supports and loads on the part's own boundary: each [[hold]] and [[load.edge]], what it picks
     and how long it is, and each pin hold's contact."""
@@ -116,7 +132,11 @@ def stress_rows(result: CheckResult) -> list[Row]:
              f"{shown(s.von_mises.value, 'stress', units)} / {quantity_text(s.tresca.value, 'stress', units)}",
              f"finest mesh, at {shown_point(s.von_mises.location, units)} / "
              f"{point_text(s.tresca.location, units)}")]
-    if s.compressive_governs:
+    if s.compressive_governs and result.bearing is not None:
+        rows.append(("Compressive peak", quantity_text(s.min_principal.value, "stress", units),
+                     f"min principal at {point_text(s.min_principal.location, units)}, where the pin bears: "
+                     "bearing, not the Kt"))
+    elif s.compressive_governs:
         rows.append(("Compressive peak", quantity_text(s.min_principal.value, "stress", units),
                      f"min principal at {point_text(s.min_principal.location, units)} "
                      f"exceeds the tensile {quantity_text(s.max_principal.value, 'stress', units)}"))

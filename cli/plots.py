@@ -746,11 +746,13 @@ def convergence_figure(result: CheckResult) -> Figure:
     if band > 0:
         ax.axhspan(est.value - band, est.value + band, color=FE_LINE, alpha=0.12, lw=0,
                    label=f"error band ± {est.error:.2%}")
-    if est.method == "richardson" and est.order:
+    if est.method == "richardson" and est.used_order:
         reach = h[-3] if len(h) >= 3 else h[-1]
         hh = np.linspace(0.0, reach, 80)
-        curve = est.value + (peaks[-1] - est.value) * (hh / h[-1]) ** est.order
-        ax.plot(hh, curve, color=FE_LINE, lw=1.0, ls="--", label=f"fitted error curve, observed order {est.order:.2f}")
+        curve = est.value + (peaks[-1] - est.value) * (hh / h[-1]) ** est.used_order
+        order = (f"observed order {est.order:.2f}" if est.used_order == est.order
+                 else f"order {est.used_order:.2f} (observed {est.order:.2f})")
+        ax.plot(hh, curve, color=FE_LINE, lw=1.0, ls="--", label=f"fitted error curve, {order}, Fs {est.safety:g}")
     ax.plot(h, peaks, "o-", color=INK, ms=6, lw=1.2, label="FE peak of each mesh level")
     for lv, x, p in zip(study.levels, h, peaks):
         ax.annotate(f"{2 * lv.nodes:,} DOFs", xy=(x, p), xytext=(6, 5), textcoords="offset points", fontsize=8,
@@ -763,7 +765,7 @@ def convergence_figure(result: CheckResult) -> Figure:
         ax.set_xlabel("relative element size (finest level = 1)")
     else:
         unit_axis(ax.xaxis, "length", units, f"element size at the {raiser} edge")
-    unit_axis(ax.yaxis, "stress", units, "peak max principal stress")
+    unit_axis(ax.yaxis, "stress", units, f"peak {result.peak.component} stress, {result.peak.feature}")
     state = "converged" if study.converged else "NOT converged"
     ax.set_title(f"{len(study.levels)} levels, {state}; target error {result.spec.mesh.tolerance:.2%}",
                  fontsize=10, loc="left")

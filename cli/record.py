@@ -7,6 +7,7 @@ from typing import Any
 
 from .. import __version__
 from ..compare.check import CheckResult
+from ..fem.convergence import FORMAL_ORDER
 from ..geometry.registry import kind_of, named, outline_of, raiser_label
 from .loads_record import (case_record, kt_basis, load_record, net_section_statics, nominal_records, peak_component,
                            pin_contact_record, pin_holds_record, section_record, stresses_record, support_record)
@@ -42,6 +43,8 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             "location": list(result.peak.location),
             "feature": raiser_label(result.peak.feature),
             "component": peak_component(result),
+            "estimate": "extrapolated" if study.estimate.extrapolated else "finest level",
+            "candidate": str(study.governing),
         },
         "stresses": stresses_record(result),
         "net_section": {
@@ -60,7 +63,7 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             },
         },
         "gross_average": result.gross_average,
-        "understatement": 1.0 - ns.average / result.peak.stress,
+        "understatement": result.understatement,
         "kt": {
             "net": result.kt.net,
             "gross": result.kt.gross,
@@ -68,7 +71,9 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             "converged": result.kt.converged,
             "net_band": [result.kt.net * (1 - _finite(result.kt.error, 1.0)), result.kt.net * (1 + _finite(result.kt.error, 1.0))],
             "basis": kt_basis(result),
+            "gross_section": None if result.gross is None else result.gross.definition,
         },
+        "bearing": bearing_record(result),
         "nominal_stresses": nominal_records(result),
         "pin_contact": pin_contact_record(result),
         "pin_holds": pin_holds_record(result),
@@ -79,11 +84,16 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             "solver_setting": spec.mesh.solver,
             "method": study.estimate.method,
             "observed_order": study.estimate.order,
+            "formal_order": FORMAL_ORDER[spec.mesh.order],
+            "safety_factor": study.estimate.safety,
             "stop_reason": study.stop_reason,
+            "governing": str(study.governing),
+            "candidates": {str(name): _estimate(e) for name, e in study.estimates.items()},
             "levels": [
                 {"scale": lv.scale, "nodes": lv.nodes, "elements": lv.elements, "peak": lv.peak,
                  "location": list(lv.location), "solver": lv.solver,
-                 "raisers": {str(name): peak for name, (peak, _) in lv.raisers.items()}}
+                 "raisers": {str(name): peak for name, (peak, _) in lv.raisers.items()},
+                 "bearing_pressure": lv.bearing}
                 for lv in study.levels
             ],
         },
@@ -110,6 +120,8 @@ def _match(match) -> dict[str, Any]:
         "parameters": dict(match.recognised.params),
         "source": match.case.source,
         "in_range": match.in_range,
+        "checked_range": None if match.case.checked is None else {k: list(v) for k, v in match.case.checked.items()},
+        "in_checked_range": match.in_checked,
         "raiser": None if match.recognised.raiser is None else str(match.recognised.raiser),
     }
 
@@ -137,6 +149,22 @@ def _raiser_peak(p) -> dict[str, Any]:
             "location": list(p.location), "kt_net": p.kt_net, "kt_gross": p.kt_gross,
             "net_section": {"x": p.section.x, "width": p.section.width, "area": p.section.area,
                             "average": p.section.average, "equilibrium_error": p.section.equilibrium_error}}
+
+
+def _estimate(e) -> dict[str, Any]:
+    """One candidate's estimate over the mesh levels (fem.convergence.Estimate)."""
+    return {"value": e.value, "error": _finite(e.error), "method": e.method, "observed_order": e.order,
+            "safety_factor": e.safety}
+
+
+def bearing_record(result: CheckResult) -> dict[str, Any] | None:
+    """A pin's peak contact pressure against the bearing stress P / (d t) (MPa), or None without a pin."""
+    b = result.bearing
+    if b is None:
+        return None
+    return {"pressure": b.pressure, "fe_pressure": b.fe_pressure, "error": _finite(b.error), "resolved": b.resolved,
+            "prescribed": b.prescribed, "bearing_stress": b.bearing_stress, "ratio": b.ratio,
+            "state": "prescribed" if b.prescribed else "converged" if b.resolved else "not resolved: contact edge"}
 
 
 def _finite(value: float, fallback: float | None = None) -> float | None:

@@ -37,14 +37,14 @@ from ..geometry.registry import kind_of, named, raiser_label
 from ..geometry.spec import Load, PartSpec
 from ..geometry.units import DEFAULT_SYSTEM, format_number
 from . import plots
-from .loads_summary import boundary_rows
-from .summary import estimate_how
+from .loads_summary import bearing_rows, boundary_rows
+from .summary import estimate_basis, estimate_how
 from .display_units import cut_label, label, point_text, quantity_text, shown, significant, warning_text
 from .fields import CELL_FIELDS, POINT_FIELDS, vtu_bytes
 from .files import write_atomic, write_json
 from .record import SCHEMA, check_record
 from .signoff_summary import CHECK_HEADER, check_caption, check_rows
-from .summary import kt_rows, on_edge_cut, verdict
+from .summary import fe_kt_for, kt_rows, on_edge_cut, peak_state, range_words, verdict
 
 PNG_DPI = 150
 REPORT_NAME = "report.html"
@@ -202,6 +202,7 @@ h3 { font-size: 1.05em; margin-bottom: 0.3em; }
 .meta { color: #666; font-size: 0.9em; margin-top: 0; }
 .verdict { border-left: 6px solid #2a5f8f; background: #f1f5f9; padding: 0.6em 1em; font-size: 1.05em; }
 .verdict.fails { border-left-color: #b8392b; background: #fbeeec; }
+.verdict.caution { border-left-color: #c99a06; background: #fdf7e1; }
 .verdict.passes { border-left-color: #3f8f5a; background: #eef7f1; }
 .warn { border-left: 6px solid #c8641e; background: #fdf3ea; padding: 0.4em 1em; }
 table { border-collapse: collapse; margin: 0.6em 0 1em; font-size: 0.92em; }
@@ -285,7 +286,6 @@ def _cut_name(section: SectionResult, units: str) -> str:
 def _verdict_section(result: CheckResult) -> str:
     ns, peak, units = result.net_section, result.peak, result.spec.units
     design, fatigue = signoff_records(result)
-    cls = "verdict" + ("" if design is None else " passes" if design.passes else " fails")
     lines = [esc(verdict(result))]
     if design is not None:
         lines.append(f"<strong>Design check ({esc(design.governing_check)} governs): "
@@ -293,20 +293,36 @@ def _verdict_section(result: CheckResult) -> str:
     if fatigue is not None:
         yielding = " — FIRST-CYCLE YIELD at the notch" if fatigue.first_cycle_yield else ""
         lines.append(f"Fatigue screen: {'passes' if fatigue.passes else 'FAILS'}{yielding}")
+    under = result.understatement
     rows = [
-        ("Peak (max principal, converged)", _amount(peak.stress, "stress", units, 5),
+        (f"Peak ({peak.component}, {peak_state(result)})", _amount(peak.stress, "stress", units, 5),
          f"{raiser_label(peak.feature)} at {point_text(peak.location, units)}; finest mesh "
          f"{quantity_text(peak.fe_stress, 'stress', units)}"),
         ("Net-section average", _amount(ns.average, "stress", units, 5),
          f"force / net area {quantity_text(ns.area, 'area', units)}, {plots.governing_view(result).where(units)}"),
-        ("Average understates the peak by", f"{1 - ns.average / peak.stress if peak.stress else 0.0:.1%}", ""),
+        ("Average understates the peak by", "—" if under is None else f"{under:.1%}",
+         "" if under is not None else "the average and the peak differ in sign"),
         *kt_rows(result),
+        *bearing_rows(result),
         ("Equilibrium on the net section", f"{ns.equilibrium_error:+.3%}",
          f"FE force {quantity_text(ns.fe_force, 'force', units)}"),
     ]
     warnings = "".join(f'<p class="warn">{esc(warning_text(w, units))}</p>' for w in result.warnings)
+    cls = "verdict " + verdict_state(result)
     return _section("verdict", "Verdict", f'<div class="{cls}">' + "<br>".join(lines) + "</div>", warnings,
                     _table(rows, numeric=(1,)))
+
+
+def verdict_state(result: CheckResult) -> str:
+    """The verdict box's state: "fails" (a design check failed: red), "caution" (a fatigue screen failed or
+    the study did not converge: amber), "passes" (a design check passed, converged: green), or "plain"
+    (converged, nothing to sign off: blue)."""
+    design, fatigue = signoff_records(result)
+    if getattr(design, "passes", None) is False:
+        return "fails"
+    if getattr(fatigue, "passes", None) is False or not result.kt.converged:
+        return "caution"
+    return "passes" if getattr(design, "passes", None) else "plain"
 
 
 def _part_section(result: CheckResult, figures: list[Rendered], part_text: str | None) -> str:
@@ -473,8 +489,8 @@ def _convergence_section(result: CheckResult, figures: list[Rendered]) -> str:
              f"{lv.nodes:,}", f"{lv.elements:,}", f"{2 * lv.nodes:,}", shown(lv.peak, "stress", units, ".2f"),
              f"{sum(lv.seconds.values()):.2f}")
             for i, (lv, x) in enumerate(zip(study.levels, h), start=1)]
-    order = f", observed order {est.order:.2f}" if est.order else ""
-    text = (f"Estimate: {estimate_how(est)}{order}: {quantity_text(est.value, 'stress', units, '.2f')} "
+    text = (f"Estimate of {result.peak.feature}'s own peak: {estimate_how(est)}{estimate_basis(result)}: "
+            f"{quantity_text(est.value, 'stress', units, '.2f')} "
             f"± {est.error:.2%} (target "
             f"{result.spec.mesh.tolerance:.2%}); {'converged' if study.converged else 'NOT converged'}"
             + (f"; stopped because {study.stop_reason}" if study.stop_reason else "") + ".")
@@ -492,8 +508,8 @@ def _handbook_section(result: CheckResult, figures: list[Rendered]) -> str:
     rows = []
     for m in result.handbook:
         params = ", ".join(f"{k} = {v:.4g}" for k, v in m.recognised.params.items())
-        rows.append((m.case.title, f"{m.kt_net:.3f}", f"{m.kt_gross:.3f}", f"{result.kt.net / m.kt_net - 1:+.2%}",
-                     params, "inside" if m.in_range else "OUTSIDE", m.case.source))
+        rows.append((m.case.title, f"{m.kt_net:.3f}", f"{m.kt_gross:.3f}", f"{fe_kt_for(result, m) / m.kt_net - 1:+.2%}",
+                     params, range_words(m), m.case.source))
     table = _table(rows, header=("published case", "Kt net", "Kt gross", "FE differs by", "parameters",
                                  "validity range", "source"), numeric=(1, 2, 3))
     return _section("handbook", "Against published values", _figures(figures), table,

@@ -9,17 +9,19 @@ from rich.markup import escape
 from rich.table import Table
 
 from ..compare.check import CheckResult
+from ..fem.convergence import FORMAL_ORDER
 from ..geometry.errors import clipped
 from ..geometry.registry import raiser_label
 from .citation import short_source
 from .display_units import label, point_text, quantity_text, shown, warning_text
 from ..compare.edge_cut import EDGE_NORMAL
-from .loads_summary import boundary_rows, nominal_rows, pin_rows, print_cases, print_sections, stress_rows
+from .loads_summary import bearing_rows, boundary_rows, nominal_rows, pin_rows, print_cases, print_sections, stress_rows
 from .signoff_summary import print_signoff
 
 
 def verdict(result: CheckResult) -> str:
-    """One line: Kt with its band and whether the peak converged (the peak in the part file's units)."""
+    """One line: Kt with its band and whether the peak converged (the peak in the part file's units, with
+    what it is: which principal stress, extrapolated or the finest level's)."""
     kt = result.kt
     peak = quantity_text(result.peak.stress, "stress", result.spec.units)
     state = "converged" if kt.converged else "NOT converged"
@@ -30,7 +32,18 @@ def verdict(result: CheckResult) -> str:
     cases = getattr(result, "every_case", (result,))
     case = f" in load case {result.case!r} (governs {len(cases)} cases)" if len(cases) > 1 else ""
     return (f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f}{basis} — peak {peak} "
-            f"at {raiser_label(result.peak.feature)}{case}, {state} in {len(result.study.levels)} mesh levels")
+            f"({peak_words(result)}) at {raiser_label(result.peak.feature)}{case}, {state} in {len(result.study.levels)} mesh levels")
+
+
+def peak_words(result: CheckResult) -> str:
+    """What the headline peak is: "max principal, extrapolated" or "min principal, finest level"."""
+    return f"{result.peak.component}, {'extrapolated' if result.study.estimate.extrapolated else 'finest level'}"
+
+
+def peak_state(result: CheckResult) -> str:
+    """How the headline peak was obtained and whether it converged: "extrapolated, converged"."""
+    how = "extrapolated" if result.study.estimate.extrapolated else "finest level"
+    return f"{how}, {'converged' if result.kt.converged else 'NOT converged'}"
 
 
 def on_edge_cut(result: CheckResult) -> bool:
@@ -61,11 +74,14 @@ def print_heading(result: CheckResult, console: Console) -> None:
 
 
 def peak_rows(result: CheckResult) -> list[Row]:
+    """The headline peak, labelled with its component, and the finest mesh's value with how the estimate
+    was made from it and whether it converged."""
     peak, units = result.peak, result.spec.units
-    component = "min principal" if peak.stress < 0.0 else "max principal"
-    return [(f"Peak ({component})", quantity_text(peak.stress, "stress", units),
+    how = "extrapolated from it" if result.study.estimate.extrapolated else "finest level kept (not extrapolated)"
+    state = "converged" if result.kt.converged else "NOT converged"
+    return [(f"Peak ({peak.component})", quantity_text(peak.stress, "stress", units),
              f"{raiser_label(peak.feature)} at {point_text(peak.location, units)}"),
-            ("  on the finest mesh", quantity_text(peak.fe_stress, "stress", units), "before extrapolation")]
+            ("  on the finest mesh", quantity_text(peak.fe_stress, "stress", units), f"{how}; {state}")]
 
 
 def net_section_rows(result: CheckResult) -> list[Row]:
@@ -77,9 +93,10 @@ def net_section_rows(result: CheckResult) -> list[Row]:
                  f"(into the part at {into:.1f}° from x)")]
     rows = [("Net-section average", quantity_text(ns.average, "stress", units),
              f"N / {quantity_text(ns.area, 'area', units)} at x = {quantity_text(ns.x, 'length', units, 'g')}")]
-    if result.spec.load.kind in ("axial", "pin") and ns.average != 0.0:
-        rows.append(("Average understates peak", f"{1 - ns.average / result.peak.stress:.1%}",
-                     f"peak = {abs(result.peak.stress / ns.average):.2f} × average"))
+    under = result.understatement
+    if result.spec.load.kind in ("axial", "pin") and under is not None:
+        rows.append(("Average understates peak", f"{under:.1%}",
+                     f"peak = {result.peak.stress / ns.average:.2f} × average"))
     return rows
 
 
@@ -96,9 +113,12 @@ def kt_rows(result: CheckResult) -> list[Row]:
                  f"{quantity_text(result.gross_average, 'stress', units)}")]
     if nominal.net.key == nominal.gross.key:  # one nominal for both (a remote stress state)
         return [(f"Kt on {nominal.net.label}", net, nominal_note(nominal.net.formula, nominal.net.stress, units))]
+    gross = nominal_note(nominal.gross.formula, nominal.gross.stress, units)
+    gross_section = getattr(result, "gross", None)
+    if gross_section is not None and gross_section.symbol != "W":
+        gross += f", {gross_section.definition}"
     return [("Kt on net section", net, nominal_note(nominal.net.formula, nominal.net.stress, units)),
-            ("Kt on gross section", f"{kt.gross:.3f}",
-             nominal_note(nominal.gross.formula, nominal.gross.stress, units))]
+            ("Kt on gross section", f"{kt.gross:.3f}", gross)]
 
 
 def nominal_note(formula: str, stress: float, units: str) -> str:
@@ -114,7 +134,7 @@ def handbook_rows(result: CheckResult) -> list[Row]:
     params = ", ".join(f"{k} = {v:.3g}" for k, v in first.recognised.params.items())
     rows = [("Handbook Kt net", f"{first.kt_net:.3f}", f"FE {kt / first.kt_net - 1.0:+.2%}; "
              f"[dim]{escape(short_source(first.case.source))}[/dim]"),
-            ("", "", f"{params}: {'inside' if first.in_range else '[bold]OUTSIDE[/bold]'} its range")]
+            ("", "", f"{params}: {range_words(first, bold=True)}")]
     if first.recognised.raiser:
         rows.append(("", "", f"the case describes {first.recognised.raiser} (FE Kt net {kt:.3f})"))
     for alt in result.handbook[1:]:
@@ -122,6 +142,19 @@ def handbook_rows(result: CheckResult) -> list[Row]:
         rows.append(("Also published", f"{alt.kt_net:.3f}", f"FE {alt_kt / alt.kt_net - 1.0:+.2%}; "
                      f"[dim]{escape(short_source(alt.case.source))}[/dim]"))
     return rows
+
+
+def range_words(match, bold: bool = False) -> str:
+    """Where the part lies against a case's published range and the sub-range this project's FE was
+    checked over ("inside its range; outside the FE-checked sub-range h/r 0.5-2.5")."""
+    outside = "[bold]OUTSIDE[/bold]" if bold else "OUTSIDE"
+    text = f"{'inside' if match.in_range else outside} its range"
+    checked = match.case.checked
+    if match.in_range and checked and not match.in_checked:
+        spans = ", ".join(f"{k} {lo:.3g}-{hi:.3g}" for k, (lo, hi) in checked.items()
+                          if not lo - 1e-12 <= match.recognised.params[k] <= hi + 1e-12)
+        text += f"; outside the FE-checked sub-range {spans}"
+    return text
 
 
 def fe_kt_for(result: CheckResult, match) -> float:
@@ -154,7 +187,7 @@ def equilibrium_rows(result: CheckResult) -> list[Row]:
              f"vs statics {quantity_text(applied, 'force', units)}")]
 
 
-KEY_ROWS = (peak_rows, stress_rows, net_section_rows, kt_rows, nominal_rows, pin_rows, boundary_rows, competing_rows,
+KEY_ROWS = (peak_rows, stress_rows, net_section_rows, kt_rows, nominal_rows, pin_rows, bearing_rows, boundary_rows, competing_rows,
             handbook_rows, equilibrium_rows)
 
 
@@ -172,7 +205,8 @@ def print_key_numbers(result: CheckResult, console: Console) -> None:
 
 def print_levels(result: CheckResult, console: Console) -> None:
     """The mesh levels of the study and how the estimate was made."""
-    levels = Table(title="Mesh levels", title_justify="left", box=None, pad_edge=False)
+    levels = Table(title=f"Mesh levels ({result.peak.feature}'s own peak on each)", title_justify="left", box=None,
+                   pad_edge=False)
     units = result.spec.units
     for column in ("level", "nodes", "elements", f"peak {label('stress', units)}", "time s"):
         levels.add_column(column, justify="right")
@@ -180,10 +214,19 @@ def print_levels(result: CheckResult, console: Console) -> None:
         levels.add_row(str(i), str(lv.nodes), str(lv.elements), shown(lv.peak, "stress", units, ".2f"),
                        f"{sum(lv.seconds.values()):.2f}")
     console.print(levels)
+    console.print(f"Estimate: {estimate_how(result.study.estimate)}{estimate_basis(result)}; target error "
+                  f"{result.spec.mesh.tolerance:.2%}", soft_wrap=False)
+
+
+def estimate_basis(result: CheckResult) -> str:
+    """The observed and formal orders and Roache's factor of safety behind the band, for the terminal and
+    the report: ", observed order 1.47 (formal 1.5), factor of safety 1.25"."""
     est = result.study.estimate
-    order = f", observed order {est.order:.2f}" if est.order else ""
-    console.print(f"Estimate: {estimate_how(est)}{order}; target error {result.spec.mesh.tolerance:.2%}",
-                  soft_wrap=False)
+    if est.order is None:
+        return f", factor of safety {est.safety:g}" if est.method != "single level" else ""
+    formal = FORMAL_ORDER[result.spec.mesh.order]
+    used = f", extrapolated with order {est.used_order:.2f}" if est.used_order and est.used_order != est.order else ""
+    return f", observed order {est.order:.2f} (formal {formal:g}){used}, factor of safety {est.safety:g}"
 
 
 def estimate_how(est) -> str:

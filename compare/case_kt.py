@@ -43,9 +43,9 @@ def case_kt(result: CheckResult, match: Match | None = None) -> CaseKt:
     if match is None and result.handbook:
         match = result.handbook[0]
     raiser = match.recognised.raiser if match is not None else None
-    # a compressive governing peak on the case's own raiser (a pin's bearing pressure) is not the tensile
-    # peak the case describes: that raiser's own (maximum principal) peak is then compared
-    if raiser is None or (raiser == result.peak.feature and result.peak.stress >= 0.0):
+    # where a pin bears the governing peak is already the tensile one on the free edge (compare.check), so a
+    # case that names the governing raiser compares with the part's own Kt
+    if raiser is None or raiser == result.peak.feature:
         kt = result.kt
         return CaseKt(result.peak.feature, True, kt.net, kt.gross, kt.error, bool(kt.converged))
     peak = next((p for p in result.peaks if p.feature == raiser), None)

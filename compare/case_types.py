@@ -36,7 +36,15 @@ class Case:
     checked: dict[str, tuple[float, float]] | None = None
 
     def in_range(self, params: dict[str, float]) -> bool:
-        return all(lo - 1e-12 <= params[k] <= hi + 1e-12 for k, (lo, hi) in self.ranges.items())
+        return _inside(self.ranges, params)
+
+    def in_checked(self, params: dict[str, float]) -> bool | None:
+        """Whether `params` lie in the FE-checked sub-range; None when the case gives none."""
+        return None if self.checked is None else _inside(self.checked, params)
+
+
+def _inside(ranges: dict[str, tuple[float, float]], params: dict[str, float]) -> bool:
+    return all(lo - 1e-12 <= params[k] <= hi + 1e-12 for k, (lo, hi) in ranges.items())
 
 
 @dataclass(frozen=True)
@@ -89,6 +97,12 @@ class Match:
     kt_net: float
     kt_gross: float
     in_range: bool
+
+    @property
+    def in_checked(self) -> bool | None:
+        """Whether the part lies in the sub-range where this project measured the FE against the case
+        (`Case.checked`); None when the case gives no such sub-range."""
+        return self.case.in_checked(self.recognised.params)
 
 
 Coefficients = tuple[tuple[float, float, float], ...]  # four rows (a, b, c): C_i = a + b sqrt(h/r) + c h/r

@@ -15,9 +15,10 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from ..fem.analysis import Solution
-from ..fem.convergence import MIN_LEVELS, Level, Study, converge, richardson
+from ..fem.convergence import Estimate, Level, Study, converge
+from ..fem.fastener_groups import bearing_stress
 from ..geometry.kinds.base import NetCut, RaiserId, across
-from ..geometry.outline import nearest_raiser, plate_polygon
+from ..geometry.outline import nearest_raiser
 from ..geometry.registry import cuts, outline_size
 from ..geometry.spec import SINGLE_CASE, PartSpec, SectionSpec
 from .edge_cut import ACROSS_LOAD, EDGE_NORMAL, EdgeCut, edge_cut, gross_spans, uses_edge_cut
@@ -25,8 +26,8 @@ from .guards import result_warnings
 from .handbook import Match, handbook_matches
 from .method_of_sections import SectionResult, section_result, section_results
 from .notices import Amount, Notice, notice
-from .nominal import NominalSet, critical_cut, edge_nominals, nominal_stresses
-from .sections import Cut, ligaments
+from .nominal import GrossSection, NominalSet, critical_cut, edge_nominals, gross_section, nominal_stresses
+from .sections import Cut
 from .stress_peaks import StressPeaks, stress_peaks
 from .signoff import DesignSignOff, FatigueSignOff, with_signoff
 
@@ -49,14 +50,40 @@ CAUTIONS = (
 
 @dataclass(frozen=True)
 class Peak:
-    """The governing principal stress: the largest maximum principal stress, or the minimum principal
-    stress (negative) when the compressive peak is larger in magnitude; converged estimate and
-    finest-mesh value (MPa), where it is (mm) and which raiser it belongs to (None: at no raiser)."""
+    """The governing principal stress: the largest maximum principal stress on a free edge, or the
+    minimum principal stress (negative) when nothing bears on the part and the compressive peak is larger
+    in magnitude; converged estimate and finest-mesh value (MPa), where it is (mm) and which raiser it
+    belongs to (None: at no raiser). All of it from one raiser's own sequence of mesh levels (fem.convergence)."""
 
     stress: float
     fe_stress: float
     location: tuple[float, float]
     feature: RaiserId | None
+
+    @property
+    def component(self) -> str:
+        """Which principal stress the peak is: "max principal" or "min principal"."""
+        return "min principal" if self.stress < 0.0 else "max principal"
+
+
+@dataclass(frozen=True)
+class Bearing:
+    """Where a pin bears: its peak contact pressure (MPa: the estimate over the mesh levels when resolved to
+    the mesh tolerance, else the finest level's), the finest level's, the relative band, whether it is
+    resolved, and the bearing stress P / (d t) (MPa).
+    The cosine pressure is prescribed (exact, p0 = 4 P / (pi d t)); a rigid pin's comes out of the solve."""
+
+    pressure: float
+    fe_pressure: float
+    error: float
+    resolved: bool
+    prescribed: bool
+    bearing_stress: float
+
+    @property
+    def ratio(self) -> float:
+        """Peak contact pressure over the bearing stress P / (d t)."""
+        return self.pressure / self.bearing_stress if self.bearing_stress else float("inf")
 
 
 @dataclass(frozen=True)
@@ -131,6 +158,14 @@ class CheckResult:
     peaks: tuple[RaiserPeak, ...] = ()  # the competing raisers' peaks, largest first (see raiser_peaks)
     case: str = SINGLE_CASE  # the name of the load case this result is for
     cases: tuple[CheckResult, ...] = ()  # with several load cases: every case's result (this one among them)
+    bearing: Bearing | None = None  # a pin's contact pressure against P / (d t), where a pin bears
+    gross: GrossSection | None = None  # the gross section Kt(gross) is referred to (compare.nominal.gross_section)
+
+    @property
+    def understatement(self) -> float | None:
+        """How far the net-section average understates the governing peak, 1 - average / peak (a fraction
+        below 1); None when the two differ in sign or either is zero (no average of the peak's sign)."""
+        return understatement(self.net_section.average, self.peak.stress)
 
     @property
     def every_case(self) -> tuple[CheckResult, ...]:
@@ -145,10 +180,20 @@ class CheckResult:
         raise KeyError(name)
 
 
+def understatement(average: float, peak: float) -> float | None:
+    """1 - average / peak for an average and a peak of one sign (MPa), else None."""
+    if average == 0.0 or peak == 0.0 or (average > 0.0) != (peak > 0.0):
+        return None
+    return 1.0 - average / peak
+
+
 def check_part(spec: PartSpec, report: Callable[[Level], None] | None = None) -> CheckResult:
     """Run the convergence study of every load case and check each; the governing case's result, with
     every case's under `cases` when there are several (module docstring)."""
-    studies, solutions = converge(spec, report)
+    # a handbook case that describes one raiser (the middle hole of a row) is compared with that raiser's
+    # own peak: the study converges it too
+    required = {m.recognised.raiser for m in handbook_matches(spec) if m.recognised.raiser}
+    studies, solutions = converge(spec, report, required)
     results = tuple(check_case(spec.for_case(case), study, solution, case.name)
                     for case, study, solution in zip(spec.load_cases, studies, solutions))
     if len(results) == 1:
@@ -174,23 +219,61 @@ def design_margin(design: DesignSignOff) -> float:
 
 
 def check_case(spec: PartSpec, study: Study, solution: Solution, name: str = SINGLE_CASE) -> CheckResult:
-    """Compare one load case's converged peak with the hand calculation on its critical section."""
-    mesh = solution.mesh
-    node = solution.peak_node()
-    location = (float(mesh.nodes[node, 0]), float(mesh.nodes[node, 1]))
-    feature, cut = _owning_raiser(spec, location)
-    peak = Peak(study.estimate.value, solution.peak_stress(), location, feature)
-    section = critical_section(spec, solution, location, cut)
-    nominal = section_nominals(spec, peak.stress, section)
-    gross = nominal.gross.stress
-    kt = KtResult(_kt(peak.stress, nominal.net.stress), _kt(peak.stress, gross), study.estimate.error, study.converged)
+    """Compare one load case's governing raiser's converged peak with the hand calculation on its own
+    critical section."""
+    finest = study.levels[-1]  # its peak and location are the governing candidate's own (fem.convergence)
+    feature, cut = _candidate_section(spec, study.governing, finest.location)
+    head, nominal, gross = _raiser_result(spec, solution, feature, cut, study.estimate, finest.peak, finest.location)
+    peak = Peak(head.stress, head.fe_stress, head.location, feature)
+    section = head.section
+    kt = KtResult(head.kt_net, head.kt_gross, study.estimate.error, study.converged)
     cuts = section_results(spec, solution)
     matches = tuple(handbook_matches(spec))
-    return with_signoff(CheckResult(spec, study, solution, peak, section, gross, kt, matches,
-                                    _cautions(spec), tuple(_warnings(study, section) + _section_warnings(cuts)
+    return with_signoff(CheckResult(spec, study, solution, peak, section, nominal.gross.stress, kt, matches,
+                                    _cautions(spec), tuple(_warnings(study, section, spec.mesh.tolerance)
+                                                           + _section_warnings(cuts)
                                                            + result_warnings(spec, study, solution, peak, section, kt)),
                                     nominal=nominal, stresses=stress_peaks(solution), sections=cuts,
-                                    peaks=raiser_peaks(spec, study, solution, matches), case=name))
+                                    peaks=raiser_peaks(spec, study, solution, matches, head), case=name,
+                                    bearing=bearing_result(spec, study), gross=gross))
+
+
+def _candidate_section(spec: PartSpec, name: RaiserId | str,
+                       location: tuple[float, float]) -> tuple[RaiserId | None, NetCut]:
+    """The raiser a governing candidate names and its net-section cut; for the outline's own candidate,
+    the raiser whose zone holds the peak, or none (`_owning_raiser`)."""
+    sections = cuts(spec)
+    if name in sections:
+        return name, sections[name]  # type: ignore[return-value]
+    return _owning_raiser(spec, location)
+
+
+def _raiser_result(spec: PartSpec, solution: Solution, feature: RaiserId | None, cut: NetCut, estimate: Estimate,
+                   fe_stress: float, location: tuple[float, float]) -> tuple[RaiserPeak, NominalSet, GrossSection | None]:
+    """One raiser's converged peak on its own critical section, nominals and Kt: the same numbers for the
+    headline and for every competing raiser. The gross section is the raiser's handbook's on a cut across
+    the load (compare.nominal.gross_section); None on a cut normal to the edge (its own gross stretch)."""
+    section = critical_section(spec, solution, location, cut)
+    gross = None if section.kind == EDGE_NORMAL else gross_section(spec, feature, section.point, section.normal)
+    nominal = section_nominals(spec, estimate.value, section, gross)
+    result = RaiserPeak(feature, estimate.value, estimate.error, fe_stress, location, section,
+                        _kt(estimate.value, nominal.net.stress), _kt(estimate.value, nominal.gross.stress))
+    return result, nominal, gross
+
+
+def bearing_result(spec: PartSpec, study: Study) -> Bearing | None:
+    """The pin's peak contact pressure against the bearing stress P / (d t), where a loading pin bears."""
+    pin = spec.load.pin
+    if pin is None or study.bearing is None:
+        return None
+    bearing = bearing_stress(pin.force, spec.holes[pin.hole - 1].diameter, spec.plate.thickness)
+    fe = study.levels[-1].bearing or 0.0
+    if pin.contact == "cosine":  # prescribed: p0 = 4 P / (pi d t) on every mesh
+        return Bearing(fe, fe, 0.0, True, True, bearing)
+    est = study.bearing
+    resolved = est.error <= spec.mesh.tolerance
+    # unresolved (the contact arc's edge still moves with the mesh): the finest level's value, not an extrapolation
+    return Bearing(est.value if resolved else fe, fe, est.error, resolved, False, bearing)
 
 
 def critical_section(spec: PartSpec, solution: Solution, location: tuple[float, float], cut: NetCut) -> NetSection:
@@ -216,12 +299,14 @@ def edge_section(spec: PartSpec, solution: Solution, cut: EdgeCut) -> NetSection
                       result.cut, cut.point, cut.normal, result, EDGE_NORMAL, tuple(gross_spans(spec, cut)))
 
 
-def section_nominals(spec: PartSpec, peak: float, section: NetSection) -> NominalSet:
-    """The nominal stresses of a critical section: the load's handbook nominals on a cut across the load,
-    N / A + M s / I at the peak on a cut normal to the edge (compare/nominal.py)."""
+def section_nominals(spec: PartSpec, peak: float, section: NetSection, gross: GrossSection | None = None) -> NominalSet:
+    """The nominal stresses of a critical section: the load's handbook nominals on a cut across the load
+    (the gross ones on `gross`, by default the plate's width along the cut), N / A + M s / I at the peak on
+    a cut normal to the edge (compare/nominal.py)."""
     if section.kind == EDGE_NORMAL:
         return edge_nominals(spec, peak, section.result, section.gross)
-    return nominal_stresses(spec, peak, section.result, _gross_width(spec, section))
+    return nominal_stresses(spec, peak, section.result,
+                            gross or gross_section(spec, None, section.point, section.normal))
 
 
 def net_section(spec: PartSpec, solution: Solution, cut: NetCut) -> NetSection:
@@ -235,12 +320,6 @@ def net_section(spec: PartSpec, solution: Solution, cut: NetCut) -> NetSection:
     average = result.statics.normal_force / result.area if result.area else 0.0
     return NetSection(point[0], result.ligaments, width, result.area, average, result.fe_normal_force,
                       error, result.cut, point, normal, result)
-
-
-def _gross_width(spec: PartSpec, section: NetSection) -> float:
-    """The plate's width along the critical cut (mm): the gross section."""
-    spans = ligaments(plate_polygon(spec), section.point, section.normal)
-    return sum(b - a for a, b in spans)
 
 
 def _kt(peak: float, nominal: float) -> float:
@@ -304,40 +383,49 @@ def _owning_raiser(spec: PartSpec, location: tuple[float, float]) -> tuple[Raise
     return best[0], best[1]
 
 
-def raiser_peaks(spec: PartSpec, study: Study, solution: Solution,
-                 matches: tuple[Match, ...] = ()) -> tuple[RaiserPeak, ...]:
-    """The raisers whose own peaks compete: every raiser whose converged edge peak is at least
-    COMPETING of the largest, at most TOP_PEAKS of them, largest first, and any raiser a handbook match
-    describes (the middle hole of a row); each with the net section through it, its average and Kt. A
-    raiser's peak is extrapolated over the levels like the overall peak."""
+def raiser_peaks(spec: PartSpec, study: Study, solution: Solution, matches: tuple[Match, ...] = (),
+                 governing: RaiserPeak | None = None) -> tuple[RaiserPeak, ...]:
+    """The raisers whose own peaks compete: the governing raiser first, then every raiser whose converged
+    edge peak reaches COMPETING of the governing one in magnitude, at most TOP_PEAKS in all, largest first,
+    and any raiser a handbook match describes (the middle hole of a row); each with its own estimate
+    (fem.convergence: every raiser converged on its own sequence), the net section through it, its
+    average and Kt."""
     finest = study.levels[-1].raisers
-    if not finest:
-        return ()
-    estimates = {}
-    for name in finest:
-        series = [lv.raisers[name][0] for lv in study.levels if name in lv.raisers]
-        estimates[name] = richardson(series) if len(series) >= MIN_LEVELS else None
-    value = {n: (e.value if e is not None else finest[n][0]) for n, e in estimates.items()}
-    top = max(value.values())
-    chosen = sorted((n for n in value if value[n] >= COMPETING * top), key=lambda n: -value[n])[:TOP_PEAKS]
-    chosen += [m.recognised.raiser for m in matches if m.recognised.raiser in value and m.recognised.raiser not in chosen]
     sections = cuts(spec)
+    estimates = {n: e for n, e in study.estimates.items() if n in sections and n in finest}
+    if not estimates:
+        return ()
+    size = {n: abs(e.value) for n, e in estimates.items()}
+    top = max(size.values())
+    ranked = sorted((n for n in size if size[n] >= COMPETING * top), key=lambda n: -size[n])
+    if governing is not None and governing.feature in estimates:
+        ranked = [governing.feature] + [n for n in ranked if n != governing.feature]
+    chosen = ranked[:TOP_PEAKS]
+    chosen += [m.recognised.raiser for m in matches if m.recognised.raiser in estimates and m.recognised.raiser not in chosen]
     out = []
     for name in chosen:
-        section = critical_section(spec, solution, finest[name][1], sections.get(name, across(finest[name][1][0], 0.0)))
-        nominal = section_nominals(spec, value[name], section)
-        error = estimates[name].error if estimates[name] is not None else float("inf")
-        out.append(RaiserPeak(name, value[name], error, finest[name][0], finest[name][1], section,
-                              _kt(value[name], nominal.net.stress), _kt(value[name], nominal.gross.stress)))
+        if governing is not None and name == governing.feature:
+            out.append(governing)
+            continue
+        value, location = finest[name]
+        out.append(_raiser_result(spec, solution, name, sections[name], estimates[name], value, location)[0])
     return tuple(out)
 
 
-def _warnings(study: Study, section: NetSection) -> list[Notice]:
+def _warnings(study: Study, section: NetSection, tolerance: float) -> list[Notice]:
     out = []
     if not study.converged:
         out.append(notice(f"the peak did not converge to the requested tolerance ({study.stop_reason}); "
-                          f"estimated error {study.estimate.error:.2%}"))
+                          f"estimated error {study.estimate.error:.2%}" + _unconverged_rivals(study, tolerance)))
     if abs(section.equilibrium_error) > EQUILIBRIUM_WARNING:
         out.append(notice("the FE normal force on the net section differs from statics by "
                           f"{section.equilibrium_error:+.2%}; the mesh may be too coarse"))
     return out
+
+
+def _unconverged_rivals(study: Study, tolerance: float) -> str:
+    """Names of the other candidates whose band reaches the governing value but not the tolerance."""
+    top = abs(study.estimate.value)
+    rivals = [n for n, e in study.estimates.items()
+              if n != study.governing and abs(e.value) * (1.0 + e.error) >= top and e.error > tolerance]
+    return f"; not yet converged beside it: {', '.join(str(n) for n in rivals)}" if rivals else ""

@@ -13,7 +13,10 @@ to the end of a ligament):
               bearing stress P / (d t)
     remote    the largest principal stress of the remote state in magnitude (Kirsch's nominal)
 
-W is the plate's width along the cut (the gross section). Kt = |peak| / |nominal| (MPa / MPa).
+The gross section is the one the cited handbook uses for the raiser's kind (`gross_section`): the plate's
+width W along the cut, or for a shoulder fillet the wide width D (the narrow width is the net section);
+the gross moment is taken about the gross section's centroid, as a hand calculation does. Kt =
+|peak| / |nominal| (MPa / MPa).
 
 On the cut normal to the edge at the peak (parts held or loaded on their own boundary, compare/edge_cut.py)
 the hand calculation is the stress in the peak's own fibre, N / A + M s / I, s the distance from the
@@ -31,10 +34,13 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..fem.fastener_groups import bearing_stress
-from ..geometry.kinds.base import NetCut
+from ..geometry.kinds.base import NetCut, RaiserId
+from ..geometry.kinds.stepped import FILLET, step_shape
+from ..geometry.outline import plate_polygon
 from ..geometry.registry import outline_size
 from ..geometry.spec import PartSpec
 from .method_of_sections import SectionResult
+from .sections import ligaments
 
 
 @dataclass(frozen=True)
@@ -85,24 +91,61 @@ def section_properties(ligaments: tuple[tuple[float, float], ...], thickness: fl
     return SectionProperties(area, inertia, float(lig[0, 0] - centroid), float(lig[-1, 1] - centroid))
 
 
-def nominal_stresses(spec: PartSpec, peak: float, section: SectionResult, gross_width: float) -> NominalSet:
-    """The nominals of `spec`'s load on the critical `section` (statics N, M), with Kt against `peak`
-    (MPa); `gross_width` is the plate's width along the cut (mm)."""
+@dataclass(frozen=True)
+class GrossSection:
+    """The gross section a raiser's handbook uses: its material intervals along the critical cut's
+    coordinate (mm), the symbol of its width in formulas, and what it is in words."""
+
+    spans: tuple[tuple[float, float], ...]
+    symbol: str
+    definition: str
+
+    @property
+    def width(self) -> float:
+        return float(sum(b - a for a, b in self.spans))
+
+    @property
+    def centroid(self) -> float:
+        """Position of the gross section's centroid along the cut (mm)."""
+        lig = np.asarray(self.spans, dtype=float).reshape(-1, 2)
+        length = lig[:, 1] - lig[:, 0]
+        return float(np.sum(length * lig.mean(axis=1)) / length.sum()) if length.sum() > 0 else 0.0
+
+
+def gross_section(spec: PartSpec, feature: RaiserId | None, point: tuple[float, float],
+                  normal: tuple[float, float]) -> GrossSection:
+    """The gross section of the raiser `feature` on the cut through `point` with unit `normal`, as its
+    family's handbook defines it: for a shoulder fillet the wide width D across the part (Roark table 17.1
+    and Peterson's charts refer Kt gross to it; docs/references.md [Roark]), for every other raiser (and a
+    peak at no raiser) the plate's width W along the cut. One rule per kind, keyed on the raiser's kind."""
+    if feature is not None and feature.kind == FILLET:
+        offset = point[1] * normal[0] - point[0] * normal[1]  # the cut coordinate of y = 0
+        half = step_shape(spec).wide
+        return GrossSection(((-half - offset, half - offset),), "D", "the wide width D of the shoulder")
+    return GrossSection(tuple(ligaments(plate_polygon(spec), point, normal)), "W", "the plate's width W along the cut")
+
+
+def nominal_stresses(spec: PartSpec, peak: float, section: SectionResult, gross_section: GrossSection) -> NominalSet:
+    """The nominals of `spec`'s load on the critical `section` (statics N, M about the net section's
+    centroid), with Kt against `peak` (MPa); the gross nominals on `gross_section`, with the moment taken
+    about its own centroid."""
     t = spec.plate.thickness
     kind = spec.load.kind
     N, M = section.statics.normal_force, section.statics.moment
     net = section_properties(section.ligaments, t)
-    gross = SectionProperties(gross_width * t, t * gross_width ** 3 / 12.0, -0.5 * gross_width, 0.5 * gross_width)
+    gross = section_properties(gross_section.spans, t)
+    M_gross = M + N * (section.centroid - gross_section.centroid)  # M positive stretching the +d side
+    W = gross_section.symbol
 
     def make(key, label, formula, stress):
         return Nominal(key, label, formula, stress, abs(peak / stress) if stress != 0.0 else None)
 
     axial_net = make("axial-net", "axial, net section", "N / A_net", _ratio(N, net.area))
-    axial_gross = make("axial-gross", "axial, gross section", "N / (W t)", _ratio(N, gross.area))
+    axial_gross = make("axial-gross", "axial, gross section", f"N / ({W} t)", _ratio(N, gross.area))
     bending_net = make("bending-net", "bending, net section", "|M| c / I_net (= 6 M / (t h^2) for one ligament)",
                        _ratio(abs(M) * net.extreme, net.inertia))
-    bending_gross = make("bending-gross", "bending, gross section", "6 |M| / (t W^2)",
-                         _ratio(abs(M) * gross.extreme, gross.inertia))
+    bending_gross = make("bending-gross", "bending, gross section", f"6 |M| / (t {W}^2), M about its centroid",
+                         _ratio(abs(M_gross) * gross.extreme, gross.inertia))
     if kind == "remote":
         s1, s2 = spec.load.remote.principal
         remote = make("remote", "remote stress", "largest remote principal stress in magnitude",
@@ -112,7 +155,7 @@ def nominal_stresses(spec: PartSpec, peak: float, section: SectionResult, gross_
         pin = spec.load.pin
         d = spec.holes[pin.hole - 1].diameter
         pin_net = make("pin-net", "pin load, net section", "P / A_net", _ratio(pin.force, net.area))
-        pin_gross = make("pin-gross", "pin load, gross section", "P / (W t)", _ratio(pin.force, gross.area))
+        pin_gross = make("pin-gross", "pin load, gross section", f"P / ({W} t)", _ratio(pin.force, gross.area))
         bearing = make("bearing", "pin bearing", "P / (d t)", bearing_stress(pin.force, d, t))
         return NominalSet(pin_net, pin_gross, (pin_net, pin_gross, bearing))
     if kind == "axial":
@@ -121,8 +164,9 @@ def nominal_stresses(spec: PartSpec, peak: float, section: SectionResult, gross_
         return NominalSet(bending_net, bending_gross, (bending_net, bending_gross))
     combined_net = make("combined-net", "axial + bending, net section", "largest |N / A_net + M s / I_net| at the "
                         "extreme fibres", _extreme_fibre(N, M, net))
-    combined_gross = make("combined-gross", "axial + bending, gross section", "largest |N / (W t) +/- 6 M / (t W^2)|",
-                          _extreme_fibre(N, M, gross))
+    combined_gross = make("combined-gross", "axial + bending, gross section",
+                          f"largest |N / ({W} t) +/- 6 M / (t {W}^2)|, M about its centroid",
+                          _extreme_fibre(N, M_gross, gross))
     return NominalSet(combined_net, combined_gross,
                       (combined_net, combined_gross, axial_net, bending_net, axial_gross, bending_gross))
 

@@ -18,10 +18,10 @@ neat-fit FE 7-11 % below the fit at d/H 0.27-0.45 and 20-22 % below it at d/H 0.
 10 kN (d/H 0.45, 5 mm steel) brings the rigid FE to within 1 % of the fit (measured). The case is a
 reference to read against, not a tight check.
 
-The fit describes the tensile peak at the hole's sides. Where the contact pressure under the pin is the
-larger peak (small d/H, or much clearance) the part's governing Kt is that compressive peak; the case
-names the pin's hole as its raiser, so comparisons take that hole's own (maximum principal) peak
-(compare/case_kt.py).
+The fit describes the tensile peak at the hole's sides, which is also what the check's Kt is: where a pin
+bears, the compression under it is bearing, reported on its own row against P / (d t), and the governing
+peak is the tensile one on the free edge (fem/raiser_peaks.py). The case names the pin's hole as its
+raiser (compare/case_kt.py).
 
 A part is recognised only when it IS the case: one circular hole on the centre line, no other raiser, a
 straight (square) loaded end, a pin through that hole pushing along the part towards the free end
@@ -90,8 +90,7 @@ def recognise_square_lug(spec: PartSpec) -> Recognised | None:
         return None
     model = (f"rigid pin, clearance {pin.clearance:g} mm" if pin.contact == "rigid"
              else "cosine pressure (the data are for a closely fitting pin: contact = \"rigid\" models it)")
-    # the case describes the tensile peak at the hole's sides: naming the hole compares that hole's own
-    # (maximum principal) peak when the bearing pressure's compressive peak governs the part (compare/case_kt.py)
+    # the case describes the tensile peak at the hole's sides, on the free edge of the pin's hole
     return Recognised("pin-loaded-square-lug", f"pin-loaded square-ended lug, c/H = {end_distance / H:.3g}; FE pin "
                       f"model: {model}", {"d/H": x}, 1.0 / (1.0 - x), raiser=named_hole(1))
 

@@ -30,7 +30,7 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from ..fem.convergence import Estimate, sequence_estimate
+from ..fem.convergence import FORMAL_ORDER, Estimate, sequence_estimate
 from ..fem.recovery import von_mises
 from ..geometry.kinds.base import RaiserId
 from ..geometry.spec import BEARING_FACTOR, DesignSpec, FatigueSpec, PartSpec
@@ -169,7 +169,7 @@ def von_mises_peak(result: CheckResult) -> tuple[Estimate, tuple[float, float]]:
     if not levels:
         finest = result.stresses.von_mises
         return Estimate(finest.value, math.inf, None, "single level"), finest.location
-    return sequence_estimate([v for v, _ in levels]), levels[-1][1]
+    return sequence_estimate([v for v, _ in levels], FORMAL_ORDER[result.spec.mesh.order]), levels[-1][1]
 
 
 def bearing_stress(result: CheckResult) -> float | None:

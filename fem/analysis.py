@@ -55,10 +55,24 @@ class Solution:
     contact: PinContact | None = None  # a rigid loading pin's contact, for the full part (fem/contact.py)
     held_pins: tuple[HeldPin, ...] = ()  # the contact of every pin hold (their forces are reactions)
     contact_arcs: tuple | None = None  # per fastener of the contact solve, its arcs (the next level's start)
+    pressure: np.ndarray | None = None  # (n,) a pin's or fastener's contact pressure on its hole (MPa, >= 0; else zero)
+
+    @property
+    def bearing(self) -> np.ndarray:
+        """(n,) bool: nodes where a pin or fastener presses on the part (its contact pressure is positive)."""
+        return self.pressure > 0.0 if self.pressure is not None else np.zeros(self.mesh.n_nodes, dtype=bool)
+
+    def compressive_governs(self) -> bool:
+        """True when the compressive peak governs: nothing bears on the part and the most negative minimum
+        principal stress is larger in magnitude than the largest maximum principal stress by
+        COMPRESSION_MARGIN. Where a pin bears, the compression under it is bearing, reported on its own:
+        the tensile peak on the free edges governs."""
+        return self._governing()[1] < 0.0
 
     def peak_node(self) -> int:
         """Index of the node with the governing principal stress: the largest maximum principal stress,
-        unless the most negative minimum principal stress is larger in magnitude by COMPRESSION_MARGIN."""
+        unless nothing bears on the part and the most negative minimum principal stress is larger in
+        magnitude by COMPRESSION_MARGIN."""
         return self._governing()[0]
 
     def peak_stress(self) -> float:
@@ -75,7 +89,7 @@ class Solution:
     def _governing(self) -> tuple[int, float]:
         tension, compression = self.searched(self.principal[:, 0]), self.searched(self.principal[:, 1], largest=False)
         s1, s2 = float(self.principal[tension, 0]), float(self.principal[compression, 1])
-        if -s2 > (1.0 + COMPRESSION_MARGIN) * max(s1, 0.0):
+        if not self.bearing.any() and -s2 > (1.0 + COMPRESSION_MARGIN) * max(s1, 0.0):
             return compression, s2
         return tension, s1
 
@@ -156,17 +170,19 @@ def _case_solution(spec: PartSpec, mesh: Mesh, K, f: np.ndarray, supports: Suppo
     if contact_solve is not None:
         reactions += group_forces(contact_solve, spec, holding=True)
     skip, keep, edge_pressure = _edge_states(spec, mesh, supports)
-    pressure = np.maximum(pressure, edge_pressure)
+    bearing = pressure  # where a pin or fastener presses: a loading pin's, and a pin hold's
     nodal = recover_nodal(mesh, sigma_e, u, edge_modulus(spec), tuple(loaded_edge_names(spec)),
-                          pressure, poisson_coupling(spec), held_corners(spec), skip, keep, patched)
+                          np.maximum(pressure, edge_pressure), poisson_coupling(spec), held_corners(spec), skip,
+                          keep, patched)
     if spec.support.symmetry:
-        full = unfold(spec, Fields(mesh, u, sigma_e, nodal, reactions))
+        full = unfold(spec, Fields(mesh, u, sigma_e, nodal, reactions, bearing))
         mesh, u, sigma_e, nodal, reactions = full.mesh, full.displacement, full.element_stress, full.nodal_stress, full.reactions
+        bearing = full.pressure
     szz = spec.material.nu * (nodal[:, 0] + nodal[:, 1]) if spec.plate.condition == "plane-strain" else 0.0
     vm = von_mises(nodal, szz)
     seconds["recover"] += time.perf_counter() - clock
     return Solution(mesh, u, sigma_e, nodal, principal_stresses(nodal), vm, seconds, tresca(nodal, szz), reactions,
-                    singular_zone(spec, mesh), report, loading, holding, arcs)
+                    singular_zone(spec, mesh), report, loading, holding, arcs, bearing)
 
 
 def _edge_states(spec: PartSpec, mesh: Mesh, supports: Supports) -> tuple[np.ndarray, np.ndarray, np.ndarray]:

@@ -8,7 +8,6 @@ from __future__ import annotations
 import math
 from dataclasses import replace
 
-from shapely import affinity
 from shapely.geometry import LineString
 
 from .errors import PartError
@@ -17,7 +16,7 @@ from .kinds.hole import named as named_hole
 from .outline import part_polygon
 from .registry import kind_of, named, outline_size
 from .spec import BoundaryPick, Load, LoadCase, PartSpec
-from .symmetry import mirror_names, symmetry_tolerance
+from .symmetry import mirror_names, mirror_symmetric, symmetry_tolerance
 
 MAX_CLEARANCE = 0.1  # of the pin hole's diameter: the contact gap is measured along the hole's radii, which
                      # stay within asin(c / (d - c)), 6.4 degrees at this limit, of the true contact normal
@@ -33,8 +32,7 @@ def validate_loading(spec: PartSpec) -> None:
         for where, case in case_keys(spec):
             _check_plane(replace(spec, load=case.load), plane, where)
         _check_boundary_mirrors(spec, plane)
-        image = affinity.scale(outline, -1.0 if plane == "x" else 1.0, -1.0 if plane == "y" else 1.0, origin=(0, 0))
-        if outline.symmetric_difference(image).area > 1e-5 * outline.area:
+        if not mirror_symmetric(spec, plane):
             raise PartError(f"support.symmetry: the part is not mirror-symmetric about the plane {plane} = 0 "
                             "(outline, notches, step, lug and every cut-out must be)")
     if spec.support.holds:

@@ -11,10 +11,11 @@ from __future__ import annotations
 import math
 
 import shapely
+from shapely import affinity
 
 from .kinds.base import RaiserId
 from .kinds.hole import named as named_hole
-from .outline import cutout_regions, loop_polygon
+from .outline import cutout_regions, loop_polygon, part_polygon
 from .registry import kind_of, named, outline_of, outline_raisers, outline_size
 from .spec import PartSpec
 
@@ -52,6 +53,15 @@ def mirror_names(spec: PartSpec, plane: str) -> dict[RaiserId, RaiserId] | None:
             return None
         out[raiser.id] = image
     return out
+
+
+def mirror_symmetric(spec: PartSpec, plane: str) -> bool:
+    """True when the part's shape is its own mirror image in `plane`: the outline with every cut-out, notch,
+    step and lug (to a 1e-5 share of its area), and every raiser mirrored by one of its own kind (or centred
+    on the plane). Loads are not looked at."""
+    outline = part_polygon(spec)
+    image = affinity.scale(outline, -1.0 if plane == "x" else 1.0, -1.0 if plane == "y" else 1.0, origin=(0, 0))
+    return outline.symmetric_difference(image).area <= 1e-5 * outline.area and mirror_names(spec, plane) is not None
 
 
 def mirror_hole(spec: PartSpec, number: int, plane: str) -> int:

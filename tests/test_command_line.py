@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import json
 import os
+import re
 import subprocess
 import sys
 
@@ -35,7 +36,7 @@ def test_piped_summary_is_neither_padded_nor_broken():
     done = _run("check", str(EXAMPLES / "winch_strap.toml"), env=NO_COLUMNS)  # as a file or pipe usually is
     assert done.returncode == 0, done.stderr
     lines = done.stdout.splitlines()
-    assert lines[1].startswith("Kt(net) 2.39") and lines[1].endswith("converged in 4 mesh levels")
+    assert lines[1].startswith("Kt(net) 2.39") and re.search(r"converged in \d mesh levels$", lines[1])
     assert not [line for line in lines if line != line.rstrip()]
     assert any(line.startswith(" • Linear-elastic") and line.endswith("through-thickness effects.") for line in lines)
 

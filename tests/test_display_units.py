@@ -71,7 +71,7 @@ def test_inch_summary_numbers_match_the_record(inch_run) -> None:
     mpa = lambda psi: psi * PSI  # noqa: E731 - psi shown -> MPa in the record
     mm = lambda inch: inch * INCH  # noqa: E731
     # the verdict line and the peak rows
-    assert mpa(_one(rf"— peak {NUMBER} psi at", text)[0]) == pytest.approx(r["peak"]["stress"], rel=REL)
+    assert mpa(_one(rf"— peak {NUMBER} psi \(max principal, extrapolated\) at", text)[0]) == pytest.approx(r["peak"]["stress"], rel=REL)
     (peak,) = _one(rf"^Peak \(max principal\)\s+{NUMBER} psi", text)
     assert mpa(peak) == pytest.approx(r["peak"]["stress"], rel=REL)
     (fe,) = _one(rf"on the finest mesh\s+{NUMBER} psi", text)
@@ -132,7 +132,7 @@ def test_mm_summary_is_unchanged(mm_run) -> None:
         assert re.search(imperial, text) is None, imperial
     ns, peak = r["net_section"], r["peak"]
     # the same text as before units were applied to the summary (fixed formats in MPa, mm, N)
-    assert f"— peak {peak['stress']:.1f} MPa at" in text
+    assert f"— peak {peak['stress']:.1f} MPa (max principal, extrapolated) at" in text
     x, y = (round(c, 2) + 0.0 for c in peak["location"])  # + 0.0: a coordinate that rounds to zero has no sign
     assert f"hole 1 at ({x:.2f}, {y:.2f}) mm" in text
     assert abs(peak["location"][0]) < 0.005  # the peak is on the axis x = 0 ...

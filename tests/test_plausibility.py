@@ -6,6 +6,7 @@ from __future__ import annotations
 
 import json
 import math
+import re
 from dataclasses import replace
 
 import pytest
@@ -39,7 +40,7 @@ def test_modulus_below_yield_names_the_unit_slip(hinge_in_gpa):
 def test_large_strain_large_displacement_and_clearance_are_warned(hinge_in_gpa):
     text = words(hinge_in_gpa)
     # peak / E: about 200 MPa / 205 MPa; the small-strain model holds to 2 % (compare/plausibility.py)
-    assert "the peak strain is about 97%" in text
+    assert 95 <= int(re.search(r"the peak strain is about (\d+)%", text).group(1)) <= 99
     # the pin travels about 50 mm on a 220 mm strap: beyond 10 % of the size (elastica, model_limits.py)
     assert "the largest displacement" in text and "of the part's size 220 mm" in text
     # the hole deforms by centimetres against a 0.1 mm clearance: the clearance no longer counts

@@ -39,11 +39,11 @@ def part(*windows: dict, **tables) -> dict:
 
 def test_kt_agrees_with_a_much_finer_quadratic_study():
     # No handbook case is built in for a rounded-rectangular hole. The reference is the same part solved with
-    # quadratic triangles curved along the corner arcs to a band fifty times tighter (mesh.order = 2,
-    # tolerance 0.0002), on meshes with several times the nodes: the linear check's Kt must lie within its
+    # quadratic triangles curved along the corner arcs to a band a hundred times tighter (mesh.order = 2,
+    # tolerance 0.0001), on meshes with several times the nodes: the linear check's Kt must lie within its
     # own band (plus the reference's) of it.
     spec = part(window(), mesh={"tolerance": 0.01})
-    fine = part(window(), mesh={"tolerance": 0.0002, "order": 2, "max_levels": 8})
+    fine = part(window(), mesh={"tolerance": 0.0001, "order": 2, "max_levels": 9})
     result, reference = check_part(part_from_dict(spec)), check_part(part_from_dict(fine))
     assert result.handbook == () and reference.handbook == ()  # no handbook case
     assert result.kt.converged and reference.kt.converged
