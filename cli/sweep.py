@@ -298,7 +298,7 @@ def write_tables(folder: Path, part_path: str, base: dict[str, Any], varies: lis
                  rows: list[dict[str, Any]]) -> None:
     """sweep.csv and sweep.json, each written whole or not at all."""
     from .. import __version__
-    from ..compare.check import CAUTIONS
+    from ..compare.check import general_cautions
     from .files import write_atomic, write_json
 
     names = [v.key.text for v in varies]
@@ -331,8 +331,14 @@ def write_tables(folder: Path, part_path: str, base: dict[str, Any], varies: lis
         "ok": len(rows) - failed,
         "failed": failed,
         "rows": [{"inputs": r["inputs"], **{f: r.get(f) for f in TABLE_FIELDS}} for r in rows],
-        "cautions": list(CAUTIONS),
+        "cautions": list(general_cautions(_condition(base))),
     })
+
+
+def _condition(base: dict[str, Any]) -> str:
+    """The base part's plate.condition as written (its default when absent)."""
+    plate = base.get("plate")
+    return str(plate.get("condition", "plane-stress")) if isinstance(plate, dict) else "plane-stress"
 
 
 def case_raiser_differs(row: dict[str, Any]) -> bool:

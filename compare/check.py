@@ -29,6 +29,7 @@ from .notices import Amount, Notice, notice
 from .nominal import GrossSection, NominalSet, critical_cut, edge_nominals, gross_section, nominal_stresses
 from .sections import Cut
 from .stress_peaks import StressPeaks, stress_peaks
+from .case_cycle import part_fatigue
 from .signoff import DesignSignOff, FatigueSignOff, with_signoff
 
 EQUILIBRIUM_WARNING = 0.005  # relative mismatch of the section force that earns a warning
@@ -36,9 +37,7 @@ ON_RAISER = 0.01  # a peak within this fraction of the width from a raiser's edg
 COMPETING = 0.8  # raisers whose own peak reaches this fraction of the largest are reported as competing
 TOP_PEAKS = 3  # most competing raisers reported
 
-CAUTIONS = (
-    "Linear-elastic, small-strain, two-dimensional plane-stress model: no plasticity, buckling, friction, "
-    "contact (other than a rigid pin's, when asked for), residual stress, or through-thickness effects.",
+CAUTIONS = (  # every check's, after the model's own (general_cautions)
     "Loads and supports are idealised (end tractions by beam theory, an end held in x or clamped, pin and "
     "remote loads as stated); real fasteners, welds and fits load the part differently.",
     "The peak is an elastic stress at a point; whether it matters depends on the material, the loading "
@@ -46,6 +45,18 @@ CAUTIONS = (
     "This is an engineering aid, not a substitute for the governing design code or for review and "
     "approval by a qualified, licensed engineer.",
 )
+STATE_WORDS = {"plane-stress": "plane-stress model (a thin plate: no stress through the thickness)",
+               "plane-strain": "plane-strain model (no strain through the thickness: a thick part, or one "
+                               "restrained through its thickness)"}
+
+
+def general_cautions(condition: str = "plane-stress") -> tuple[str, ...]:
+    """The cautions every check carries: the model, naming the two-dimensional state it used
+    (plate.condition, geometry.spec.STRESS_STATES), then CAUTIONS."""
+    state = STATE_WORDS.get(condition, f"{condition} model")
+    model = (f"Linear-elastic, small-strain, two-dimensional {state}: no plasticity, buckling, friction, contact "
+             "(other than a rigid pin's, when asked for), residual stress, or other through-thickness effects.")
+    return (model, *CAUTIONS)
 
 
 @dataclass(frozen=True)
@@ -199,7 +210,7 @@ def check_part(spec: PartSpec, report: Callable[[Level], None] | None = None) ->
     if len(results) == 1:
         return results[0]
     cautions = tuple(dict.fromkeys(c for r in results for c in r.cautions))  # every case's, in order
-    return replace(results[governing_case(results)], cases=results, cautions=cautions)
+    return replace(results[governing_case(results)], cases=results, cautions=cautions, fatigue=part_fatigue(results))
 
 
 def governing_case(results: tuple[CheckResult, ...]) -> int:
@@ -358,7 +369,7 @@ def _cautions(spec: PartSpec) -> tuple[str, ...]:
         extra.append("Loads on the part's edges are spread as stated (a uniform traction over the stretch, or a "
                      "uniform pressure); whatever applies them in service distributes them differently near where "
                      "it bears.")
-    return CAUTIONS + tuple(extra)
+    return general_cautions(spec.plate.condition) + tuple(extra)
 
 
 def _section_warnings(cuts: tuple[SectionResult, ...]) -> list[Notice]:

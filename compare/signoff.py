@@ -12,10 +12,11 @@ converged FE numbers of a CheckResult (mm, N, MPa):
   by the principal stress; under a pin both are free-edge peaks and the contact is the bearing check's;
 - a pin's bearing F / (d t) is checked against the bearing strength over the factor on yield;
 - the required thickness of each check comes from t x actual / allowable (compare.design);
-- the fatigue screen takes the notch's nominal and elastic peak at the [load], scales them to the
-  cycle's two extremes (linear elasticity; `scaled_cycle`) and screens the two states: a cycle between
-  two solved load cases is the same call with two solutions' states. The notch root radius comes from the
-  mesh feature that carries the peak (its smallest radius of curvature; a hole's radius).
+- the fatigue screen takes the notch's nominal and elastic peak under the load case the cycle scales,
+  scales them to the cycle's two extremes (linear elasticity; `scaled_cycle`) and screens the two states
+  (`notch_screen`); a cycle between two solved load cases builds its two states in compare/case_cycle.py
+  and screens them the same way. The notch root radius comes from the mesh feature that carries the peak
+  (its smallest radius of curvature; a hole's radius).
 
 Each result carries a `basis`: the assumptions and where every input came from, in words without
 numbers that depend on units, so the same lines serve the terminal, the JSON and the HTML report;
@@ -33,9 +34,9 @@ import numpy as np
 from ..fem.convergence import FORMAL_ORDER, Estimate, sequence_estimate
 from ..fem.recovery import von_mises
 from ..geometry.kinds.base import RaiserId
-from ..geometry.spec import BEARING_FACTOR, DesignSpec, FatigueSpec, PartSpec
+from ..geometry.spec import BEARING_FACTOR, SINGLE_CASE, DesignSpec, FatigueSpec, PartSpec
 from .design import HandStress, DesignCheck, design_check
-from .fatigue import FatigueScreen, fatigue_screen, scaled_cycle
+from .fatigue import FatigueScreen, NotchCycle, fatigue_screen, scaled_cycle
 from .local_strain import CyclicCurve
 
 if TYPE_CHECKING:
@@ -92,21 +93,52 @@ class DesignSignOff:
 
 
 @dataclass(frozen=True)
+class OtherNotch:
+    """Another point a cycle between two load cases was screened at (compare/case_cycle.py): the raiser
+    (None: at no raiser), where (mm), the case whose converged peak is there, and its screen's modified
+    Goodman factor, verdict and first-cycle yield flag."""
+
+    feature: RaiserId | None
+    location: tuple[float, float]
+    case: str
+    n_f: float
+    passes: bool
+    first_cycle_yield: bool
+
+
+@dataclass(frozen=True)
 class FatigueSignOff:
     """The fatigue screen of one part.
 
-    min_fraction, max_fraction: the cycle's extremes as multiples of the [load].
-    forces:  the cycle's (min, max) force in N when the [load] is one force (axial, or a pin), else None.
-    feature: the raiser carrying the peak, whose radius is the notch root radius (None: at no raiser).
-    basis:   the assumptions and where the inputs came from.
+    min_fraction, max_fraction: the cycle's extremes as multiples of the load case `max_case` (== `min_case`)
+                 it scales; None for a cycle between two load cases.
+    forces:      the cycle's (min, max) force in N when that load is one force (axial, or a pin), else None.
+    feature:     the raiser carrying the notch's peak, whose radius is the notch root radius (None: at no raiser).
+    basis:       the assumptions and where the inputs came from.
+    min_case, max_case: the load cases of the cycle's two extremes (the same case for a scaled cycle).
+    notch_case:  the case whose converged peak is the notch screened; location: where it is (mm).
+    ratio:       a cycle between two cases: the other case's stress over the notch case's at the notch, along
+                 the notch case's principal direction there, on the finest mesh (None for a scaled cycle).
+    others:      the other points a cycle between two cases was screened at (the other case's peak).
     """
 
     screen: FatigueScreen
-    min_fraction: float
-    max_fraction: float
+    min_fraction: float | None
+    max_fraction: float | None
     forces: tuple[float, float] | None
     feature: RaiserId | None
     basis: tuple[str, ...]
+    min_case: str = SINGLE_CASE
+    max_case: str = SINGLE_CASE
+    notch_case: str = SINGLE_CASE
+    location: tuple[float, float] | None = None
+    ratio: float | None = None
+    others: tuple[OtherNotch, ...] = ()
+
+    @property
+    def between_cases(self) -> bool:
+        """Whether the cycle runs between two load cases (else it scales one)."""
+        return self.min_case != self.max_case
 
 
 def with_signoff(result: CheckResult) -> CheckResult:
@@ -279,21 +311,69 @@ def load_force(spec: PartSpec) -> float | None:
     return None
 
 
-def fatigue_signoff(result: CheckResult) -> FatigueSignOff | None:
-    """The fatigue screen, or None when the part file has no [fatigue] table."""
-    spec, fatigue = result.spec, result.spec.fatigue
-    if fatigue is None:
-        return None
-    m = spec.material
-    kt, kt_note = _kt_for_signoff(result)
-    radius, radius_note = _root_radius(result, fatigue.q is not None)
+def notch_at_load(result: CheckResult) -> tuple[float, float]:
+    """(nominal, elastic peak) at the notch under the result's own load (MPa, signed): the nominal on the
+    critical section carries the peak's sign, and the peak is Kt x nominal with Kt at least 1."""
+    kt, _ = _kt_for_signoff(result)
     peak = result.peak.stress
-    nominal = math.copysign(abs(result.nominal.net.stress), peak)  # the nominal at the notch carries its sign
-    cycle = scaled_cycle(nominal, kt * nominal if nominal else peak, fatigue.min_fraction, fatigue.max_fraction)
+    nominal = math.copysign(abs(result.nominal.net.stress), peak)
+    return nominal, kt * nominal if nominal else peak
+
+
+def scales_case(result: CheckResult) -> bool:
+    """Whether the part's [fatigue] cycle is this load case's load scaled (a cycle in fractions or forces of
+    it); a cycle between two load cases belongs to the part (compare/case_cycle.py)."""
+    fatigue = result.spec.fatigue
+    return fatigue is not None and fatigue.cycle_form != "cases" and fatigue.case == result.case
+
+
+def fatigue_signoff(result: CheckResult) -> FatigueSignOff | None:
+    """The fatigue screen of the cycle that scales this load case's load, or None when the part file has no
+    [fatigue] table or its cycle is another case's or between two cases."""
+    if not scales_case(result):
+        return None
+    fatigue = result.spec.fatigue
+    nominal, peak = notch_at_load(result)
+    what = case_words(result)
+    cycle = scaled_cycle(nominal, peak, fatigue.min_fraction, fatigue.max_fraction, what)
+    screen = notch_screen(result, cycle)
+    force = load_force(result.spec)
+    forces = None if force is None else (fatigue.min_fraction * force, fatigue.max_fraction * force)
+    basis = screen_basis(result, screen, _cycle_basis(result.spec, what))
+    return FatigueSignOff(screen, fatigue.min_fraction, fatigue.max_fraction, forces, result.peak.feature, basis,
+                          min_case=result.case, max_case=result.case, notch_case=result.case,
+                          location=result.peak.location)
+
+
+def case_words(result: CheckResult) -> str:
+    """The load a result is for, in words: "the [load]" for a part with one, else "load case 'NAME'"."""
+    return load_words(result.case, bool(result.spec.cases))
+
+
+def load_words(case: str, named: bool) -> str:
+    """A load case in words: "load case 'NAME'" when the part file names its cases ([[load]]), else "the [load]"."""
+    return f"load case {case!r}" if named else "the [load]"
+
+
+def cycle_words(fatigue: FatigueSignOff, named: bool) -> str:
+    """The cycle in words, without numbers that depend on units ("0.1 to 1 x the [load]", or "between load
+    case 'parked' (min) and load case 'hoist' (max)"); `named`: the part file names its load cases."""
+    if fatigue.between_cases:
+        return (f"between {load_words(fatigue.min_case, named)} (min) and {load_words(fatigue.max_case, named)} "
+                "(max)")
+    return f"{fatigue.min_fraction:.4g} to {fatigue.max_fraction:.4g} x {load_words(fatigue.max_case, named)}"
+
+
+def notch_screen(result: CheckResult, cycle: NotchCycle) -> FatigueScreen:
+    """The fatigue screen of `cycle` at the notch where `result`'s peak is: its root radius, the material
+    and the [fatigue] settings."""
+    spec, fatigue = result.spec, result.spec.fatigue
+    m = spec.material
+    radius, _ = _root_radius(result, fatigue.q is not None)
     curve = None
     if fatigue.cyclic_strength is not None:
         curve = CyclicCurve(m.E, fatigue.cyclic_strength, fatigue.cyclic_exponent, fatigue.cyclic_source)
-    screen = fatigue_screen(
+    return fatigue_screen(
         cycle=cycle,
         root_radius_mm=radius,
         ultimate_mpa=m.ultimate,
@@ -306,6 +386,14 @@ def fatigue_signoff(result: CheckResult) -> FatigueSignOff | None:
         yield_mpa=m.yield_strength,
         curve=curve,
     )
+
+
+def screen_basis(result: CheckResult, screen: FatigueScreen, cycle_basis: str) -> tuple[str, ...]:
+    """The assumptions of a screen at `result`'s notch: the cycle (`cycle_basis`), the root radius, the
+    notch sensitivity, the first-cycle yield check, the peak's band and the code caution."""
+    fatigue = result.spec.fatigue
+    _, radius_note = _root_radius(result, fatigue.q is not None)
+    _, kt_note = _kt_for_signoff(result)
     if screen.method == "given":
         method = "Notch sensitivity q as given"
     elif screen.method == "unity":
@@ -313,37 +401,35 @@ def fatigue_signoff(result: CheckResult) -> FatigueSignOff | None:
     else:
         method = (f"Notch sensitivity by {fatigue.notch_sensitivity.capitalize()}'s steel fit "
                   f"({_stated('notch_sensitivity', fatigue.defaults)})")
-    force = load_force(spec)
-    forces = None if force is None else (fatigue.min_fraction * force, fatigue.max_fraction * force)
-    basis = (
-        _cycle_basis(spec),
+    return (
+        cycle_basis,
         radius_note,
         f"{method}; required fatigue factor {fatigue.required_factor:g} "
         f"({_stated('required_factor', fatigue.defaults)}).",
-        _curve_basis(fatigue, m.yield_strength),
+        _curve_basis(fatigue, result.spec.material.yield_strength),
         _band(result),
         *kt_note,
         FATIGUE_CODE_CAUTION,
     )
-    return FatigueSignOff(screen, fatigue.min_fraction, fatigue.max_fraction, forces, result.peak.feature, basis)
 
 
-CYCLE_FORM_WORDS = {"fractions": "given as multiples of the [load]",
-                    "forces": "given as forces, divided by the [load]'s force",
-                    "amplitude": "given as alternating and mean forces, divided by the [load]'s force"}
+CYCLE_FORM_WORDS = {"fractions": "given as multiples of it",
+                    "forces": "given as forces, divided by its force",
+                    "amplitude": "given as alternating and mean forces, divided by its force"}
+NOT_SCREENED = ("No variable-amplitude loading, cumulative damage, fretting at fastener holes, corrosion or "
+                "temperature effects.")
 
 
-def _cycle_basis(spec: PartSpec) -> str:
-    """How the cycle is built from the [load], and what that assumes for this load."""
+def _cycle_basis(spec: PartSpec, what: str) -> str:
+    """How the cycle is built from the load it scales (`what`, in words), and what that assumes for it."""
     f, pin = spec.fatigue, spec.load.pin
-    text = (f"Constant-amplitude cycle from {f.min_fraction:.4g} to {f.max_fraction:.4g} x the [load] "
+    text = (f"Constant-amplitude cycle from {f.min_fraction:.4g} to {f.max_fraction:.4g} x {what} "
             f"({CYCLE_FORM_WORDS[f.cycle_form]}): every stress scales with the load (linear elasticity), so the "
-            "notch's nominal and elastic peak at each extreme are the [load]'s times the fraction. No "
-            "variable-amplitude loading, cumulative damage, fretting at fastener holes, corrosion or "
-            "temperature effects.")
+            f"notch's nominal and elastic peak at each extreme are those of {what} times the fraction. "
+            f"{NOT_SCREENED}")
     if pin is not None and pin.contact == "rigid" and pin.clearance > 0.0:
         text += (" The rigid pin's clearance makes its contact depend on the load level: the cycle runs from zero "
-                 "to the [load] itself, the two states that are solved exactly.")
+                 f"to {what} itself, the two states that are solved exactly.")
     elif pin is not None and pin.contact == "rigid":
         text += " A neat-fit rigid pin's contact arc does not change with the load level, so its stresses scale."
     if f.min_fraction < 0.0 and spec.load.kind in ("axial", "combined"):

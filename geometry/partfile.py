@@ -427,20 +427,21 @@ def _behaviour(t: dict[str, Any], m: Material, ductile_given: bool) -> tuple[str
 
 
 FATIGUE_KEYS = {"min_fraction", "max_fraction", "min_force", "max_force", "alternating_force", "mean_force",
-                "notch_sensitivity", "q", "required_factor", "cyclic_strength", "cyclic_exponent"}
+                "case", "min_case", "max_case", "notch_sensitivity", "q", "required_factor", "cyclic_strength",
+                "cyclic_exponent"}
 CYCLE_KEYS = {"fractions": ("min_fraction", "max_fraction"), "forces": ("min_force", "max_force"),
-              "amplitude": ("alternating_force", "mean_force")}  # FatigueSpec.cycle_form: the keys of each
+              "amplitude": ("alternating_force", "mean_force"),
+              "cases": ("min_case", "max_case")}  # FatigueSpec.cycle_form: the keys of each
 
 
 def _fatigue(data: dict[str, Any], spec: PartSpec) -> FatigueSpec | None:
-    """[fatigue]: the load cycle (as multiples of the [load], or in forces for a load of one force), how
-    to screen it, and the cyclic stress-strain curve for a yielding notch."""
+    """[fatigue]: the load cycle (as multiples of a load case, or in forces for a load of one force, or
+    between two load cases), how to screen it, and the cyclic stress-strain curve for a yielding notch."""
     if "fatigue" not in data:
         return None
     t = table(data, "fatigue")
     known(t, FATIGUE_KEYS, "fatigue")
-    _no_compression(spec, "[fatigue] screen (Kt comes from the [load] case; the cycle itself may reach compression)")
-    low, high, form = _cycle(t, spec)
+    cycle = _cycle(t, spec)
     m = spec.material
     _fatigue_material(m, spec.units)
     method = t.get("notch_sensitivity", FatigueSpec.notch_sensitivity)
@@ -455,26 +456,36 @@ def _fatigue(data: dict[str, Any], spec: PartSpec) -> FatigueSpec | None:
         _method_fits(t, method, m)
     strength, exponent, source = _cyclic_curve(t, m, spec.units)
     return FatigueSpec(
-        min_fraction=low, max_fraction=high, cycle_form=form, notch_sensitivity=method, q=q,
+        **cycle, notch_sensitivity=method, q=q,
         required_factor=_safety_factor(t, "required_factor", "fatigue", FatigueSpec.required_factor),
         cyclic_strength=strength, cyclic_exponent=exponent, cyclic_source=source,
         defaults=_left_out(t, ("notch_sensitivity", "required_factor") if q is None else ("required_factor",)),
     )
 
 
-def _cycle(t: dict[str, Any], spec: PartSpec) -> tuple[float, float, str]:
-    """(min, max as multiples of the [load], form): from min_fraction/max_fraction, or for a load of one
-    force from min_force/max_force or alternating_force/mean_force (divided by that force)."""
+def _cycle(t: dict[str, Any], spec: PartSpec) -> dict[str, Any]:
+    """The cycle's FatigueSpec fields: between two load cases (min_case, max_case), or as multiples of one
+    case's load (`case`; the part's only load by default) from min_fraction/max_fraction, or for a load of
+    one force from min_force/max_force or alternating_force/mean_force (divided by that force)."""
     given = [form for form, keys in CYCLE_KEYS.items() if set(keys) & t.keys()]
     if len(given) > 1:
         key = sorted(set(CYCLE_KEYS[given[1]]) & t.keys())[0]
         raise PartError(f"fatigue.{key}: give the cycle one way only: min_fraction and max_fraction, or "
-                        "min_force and max_force, or alternating_force (and mean_force)")
+                        "min_force and max_force, or alternating_force (and mean_force), or min_case and max_case")
     if not given:
         raise PartError("fatigue: give the load cycle as min_fraction and max_fraction (multiples of the [load]), "
                         "or for a load of one force as min_force and max_force, or alternating_force (and "
-                        "mean_force, default 0)")
+                        "mean_force, default 0), or between two load cases as min_case and max_case")
     form = given[0]
+    if form == "cases":
+        low_case, high_case = _cycle_cases(t, spec)
+        return {"min_fraction": None, "max_fraction": None, "cycle_form": form, "case": high_case,
+                "min_case": low_case, "max_case": high_case}
+    first = sorted(set(CYCLE_KEYS[form]) & t.keys())[0]
+    case = _scaled_case(t, spec, first)
+    scaled = spec.for_case(next(c for c in spec.load_cases if c.name == case))
+    _no_compression(spec, "[fatigue] screen (Kt comes from the load case the cycle scales; the cycle itself may "
+                          "reach compression)", only=case)
     if form == "fractions":
         for key in CYCLE_KEYS[form]:
             if key not in t:
@@ -482,7 +493,7 @@ def _cycle(t: dict[str, Any], spec: PartSpec) -> tuple[float, float, str]:
         low, high = (number(t, key, "fatigue") for key in CYCLE_KEYS[form])
         _cycle_order(low, high, "min_fraction", "max_fraction", t)
     else:
-        force = _load_force(spec, sorted(set(CYCLE_KEYS[form]) & t.keys())[0])
+        force = _load_force(scaled, first)
         if form == "forces":
             low = number(t, "min_force", "fatigue", "force", spec.units)
             high = number(t, "max_force", "fatigue", "force", spec.units)
@@ -492,8 +503,8 @@ def _cycle(t: dict[str, Any], spec: PartSpec) -> tuple[float, float, str]:
             mean = number(t, "mean_force", "fatigue", "force", spec.units, required=False, default=0.0)
             low, high = mean - alternating, mean + alternating
         low, high = low / force, high / force
-    _cycle_fits_load(spec, low, high, CYCLE_KEYS[form][0] if form != "amplitude" else "alternating_force")
-    return low, high, form
+    _cycle_fits_load(scaled, low, high, CYCLE_KEYS[form][0] if form != "amplitude" else "alternating_force")
+    return {"min_fraction": low, "max_fraction": high, "cycle_form": form, "case": case}
 
 
 def _cycle_order(low: float, high: float, low_key: str, high_key: str, t: dict[str, Any]) -> None:
@@ -501,19 +512,57 @@ def _cycle_order(low: float, high: float, low_key: str, high_key: str, t: dict[s
         raise PartError(f"fatigue.{low_key}: must be below fatigue.{high_key}; got {t[low_key]!r} and {t[high_key]!r}")
 
 
+def _case_named(t: dict[str, Any], key: str, spec: PartSpec) -> str:
+    """The load case fatigue.`key` names: one of the part's cases, by its name."""
+    names = [c.name for c in spec.load_cases]
+    value = t[key]
+    if not isinstance(value, str) or value.strip() not in names:
+        known_names = ", ".join(repr(n) for n in names)
+        raise PartError(f"fatigue.{key}: {value!r} names no load case of the part; its load cases are {known_names}")
+    return value.strip()
+
+
+def _scaled_case(t: dict[str, Any], spec: PartSpec, key: str) -> str:
+    """The load case a cycle in fractions or forces scales: fatigue.case, which a part with several load
+    cases must give (the cycle would not say which load it scales), else the part's one load."""
+    if "case" in t:
+        return _case_named(t, "case", spec)
+    if len(spec.load_cases) > 1:
+        names = ", ".join(repr(c.name) for c in spec.load_cases)
+        raise PartError(f"fatigue.{key}: with several load cases say which load the cycle scales, fatigue.case = one "
+                        f"of {names}; or give a cycle between two cases as fatigue.min_case and fatigue.max_case")
+    return spec.load_cases[0].name
+
+
+def _cycle_cases(t: dict[str, Any], spec: PartSpec) -> tuple[str, str]:
+    """(min case, max case) of a cycle between two load cases: two different cases of the part."""
+    if "case" in t:
+        raise PartError("fatigue.case: names the load case a cycle of fractions or forces scales; a cycle between "
+                        "fatigue.min_case and fatigue.max_case takes no case")
+    for key in CYCLE_KEYS["cases"]:
+        if key not in t:
+            raise PartError(f"fatigue.{key}: missing; give min_case and max_case together")
+    if len(spec.load_cases) < 2:
+        raise PartError("fatigue.min_case: a cycle between load cases needs two of them ([[load]] entries, each "
+                        "with a name); this part has one load: give min_fraction and max_fraction of it")
+    low, high = _case_named(t, "min_case", spec), _case_named(t, "max_case", spec)
+    if low == high:
+        raise PartError(f"fatigue.max_case: {high!r} is fatigue.min_case too; a cycle between cases needs two "
+                        "different ones (to cycle one case, give fatigue.case with min_fraction and max_fraction)")
+    return low, high
+
+
 def _load_force(spec: PartSpec, key: str) -> float:
-    """The one force of the [load] a cycle in forces is divided by: load.axial alone, or the pin's force."""
-    if spec.cases:
-        raise PartError(f"fatigue.{key}: with several load cases a cycle in forces is ambiguous; give "
-                        "fatigue.min_fraction and fatigue.max_fraction, the cycle's extremes as multiples of each "
-                        "case's load")
+    """The one force of the load a cycle in forces is divided by: axial alone, or the pin's force (`spec`
+    under the load case the cycle scales)."""
     if spec.load.kind == "axial":
         return spec.load.axial
     if spec.load.kind == "pin":
         return spec.load.pin.force
-    raise PartError(f"fatigue.{key}: a cycle in forces needs a load of one force (load.axial alone, or a "
-                    f"[load.pin]); this part's load is {spec.load.kind}: give fatigue.min_fraction and "
-                    "fatigue.max_fraction, the cycle's extremes as multiples of the [load]")
+    what = f"load case {spec.cases[0].name!r}" if spec.cases else "this part's load"
+    raise PartError(f"fatigue.{key}: a cycle in forces needs a load of one force (axial alone, or a pin); "
+                    f"{what} is {spec.load.kind}: give fatigue.min_fraction and fatigue.max_fraction, the "
+                    "cycle's extremes as multiples of that load")
 
 
 def _cycle_fits_load(spec: PartSpec, low: float, high: float, key: str) -> None:
@@ -597,12 +646,14 @@ def _method_fits(t: dict[str, Any], method: str, m: Material) -> None:
                         "or give fatigue.q")
 
 
-def _no_compression(spec: PartSpec, what: str) -> None:
-    """The sign-off needs a tensile axial force where a load case has one: a compressed part also needs a
-    buckling check this tool does not make."""
+def _no_compression(spec: PartSpec, what: str, only: str | None = None) -> None:
+    """The sign-off needs a tensile axial force where a load case (every one, or the case named `only`) has
+    one: a compressed part also needs a buckling check this tool does not make."""
     from .loading import case_keys
 
     for where, case in case_keys(spec):
+        if only is not None and case.name != only:
+            continue
         if case.load.kind in ("axial", "combined") and case.load.axial < 0.0:
             raise PartError(f"{where}.axial: the {what} needs a tensile axial force ({where}.axial > 0); a "
                             "compressive part also needs a buckling check this tool does not make")

@@ -170,6 +170,9 @@ class Load:
         return "bending" if self.axial == 0.0 else "combined"
 
 
+SINGLE_CASE = "load"  # the name of the one case of a part file with a single [load] table
+
+
 @dataclass(frozen=True)
 class LoadCase:
     """One named load case: a Load on the part's one stiffness (the supports are shared by every case)."""
@@ -283,11 +286,13 @@ BEARING_FACTOR = 1.5
 class FatigueSpec:
     """The constant-amplitude load cycle and screen settings (the part file's [fatigue] table).
 
-    min_fraction, max_fraction: the cycle's extremes as multiples of the part's [load] (linear elasticity
-                       scales every stress with the load); min < max.
-    cycle_form:        how the file gave them: "fractions" of the [load], "forces"
-                       (min_force/max_force) or "amplitude" (alternating_force/mean_force), the last two
-                       divided by the [load]'s force.
+    min_fraction, max_fraction: the cycle's extremes as multiples of the load case `case` (linear elasticity
+                       scales every stress with the load); min < max. None for a cycle between two cases.
+    cycle_form:        how the file gave them: "fractions" of the load, "forces" (min_force/max_force) or
+                       "amplitude" (alternating_force/mean_force), the last two divided by the load's force;
+                       or "cases": the cycle runs between two of the part's load cases (min_case, max_case).
+    case:              the load case the fractions scale (its name; "load" for a single [load] table).
+    min_case, max_case: the two load cases of a "cases" cycle (names), else None.
     notch_sensitivity: "peterson" or "neuber" (the fits for steels); q: a given notch sensitivity
                        (0..1) used instead, or None.
     required_factor:   the modified Goodman factor of safety the screen must reach (>= 1).
@@ -296,9 +301,12 @@ class FatigueSpec:
     defaults:          the keys left at their defaults, for the report's statement of assumptions.
     """
 
-    min_fraction: float
-    max_fraction: float
+    min_fraction: float | None
+    max_fraction: float | None
     cycle_form: str = "fractions"
+    case: str = SINGLE_CASE
+    min_case: str | None = None
+    max_case: str | None = None
     notch_sensitivity: str = "peterson"
     q: float | None = None
     required_factor: float = 1.5
@@ -351,5 +359,3 @@ class PartSpec:
 
         return replace(self, load=case.load, cases=(case,) if self.cases else ())
 
-
-SINGLE_CASE = "load"  # the name of the one case of a part file with a single [load] table
