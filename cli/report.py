@@ -32,6 +32,7 @@ from ..compare.check import CheckResult, design_margin
 from ..compare.design import DesignCheck, design_statements
 from ..compare.fatigue import FatigueScreen, screen_statements
 from ..compare.method_of_sections import SectionResult
+from ..compare.signoff import cycle_words
 from ..geometry.kinds.hole import named as named_hole
 from ..geometry.registry import kind_of, named, raiser_label
 from ..geometry.spec import Load, PartSpec
@@ -43,7 +44,7 @@ from .display_units import cut_label, label, point_text, quantity_text, shown, s
 from .fields import CELL_FIELDS, POINT_FIELDS, vtu_bytes
 from .files import write_atomic, write_json
 from .record import SCHEMA, check_record
-from .signoff_summary import CHECK_HEADER, check_caption, check_rows
+from .signoff_summary import CHECK_HEADER, check_caption, check_rows, notch_words
 from .summary import fe_kt_for, kt_rows, on_edge_cut, peak_state, range_words, verdict
 
 PNG_DPI = 150
@@ -544,9 +545,13 @@ def _fatigue_section(result: CheckResult, figures: list[Rendered]) -> str:
     _, fatigue = signoff_records(result)
     if fatigue is None:
         return ""
-    lines = list(screen_statements(fatigue, result.spec.units)) + list(result.fatigue.basis)
-    feature = result.fatigue.feature
-    head = [f"Notch root radius taken from {feature}."] if feature is not None else []
+    units, signoff = result.spec.units, result.fatigue
+    lines = list(screen_statements(fatigue, units)) + list(signoff.basis)
+    cycle = f"Load cycle {cycle_words(signoff, bool(result.spec.cases))}"
+    if signoff.between_cases:
+        cycle += f"; the notch is {notch_words(signoff, units)}"
+    feature = signoff.feature
+    head = [cycle + "."] + ([f"Notch root radius taken from {feature}."] if feature is not None else [])
     return _section("fatigue", "Fatigue screen", _list(head + lines), _figures(figures),
                     _p(f"All the numbers of the screen (in {result.spec.units}, lives in cycles):", "small"),
                     _record_table(fatigue, result.spec.units),

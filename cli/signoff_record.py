@@ -12,8 +12,10 @@ design:  load_kind, factors {yield, ultimate}, behaviour, governing_check, gover
          achieved_factor {net_yield, peak_yield, net_ultimate, peak_ultimate},
          required {net_area, net_area_with_kt, thickness, thickness_with_kt, actual_thickness, net_width},
          bearing_strength, passes, statements, basis
-fatigue: cycle {min_fraction, max_fraction, min_force, max_force, alternating_force, mean_force}
-         (forces null unless the [load] is one force), notch {min, max: {nominal, peak}}, feature,
+fatigue: cycle {min_fraction, max_fraction, min_force, max_force, alternating_force, mean_force, min_case,
+         max_case, between_cases} (fractions null for a cycle between two load cases, forces null unless
+         the load scaled is one force), notch {min, max: {nominal, peak}, case, location, ratio},
+         other_notches [{feature, location, case, factor, passes, first_cycle_yield}], feature,
          root_radius, notch_sensitivity {q, method}, kt_net, kf, strength {value, basis, life_cycles},
          nominal {alternating, mean}, notched {alternating, mean}, factor, required_factor, passes,
          first_cycle_yield {yields, elastic_peak, yield, reversed}, local (null unless the root yields and
@@ -110,9 +112,18 @@ def fatigue_record(fatigue: FatigueSignOff | None) -> dict[str, Any] | None:
             "max_force": high,
             "alternating_force": None if low is None else 0.5 * (high - low),
             "mean_force": None if low is None else 0.5 * (high + low),
+            "min_case": fatigue.min_case,
+            "max_case": fatigue.max_case,
+            "between_cases": fatigue.between_cases,
         },
         "notch": {"min": {"nominal": s.cycle.low.nominal_mpa, "peak": s.cycle.low.peak_mpa},
-                  "max": {"nominal": s.cycle.high.nominal_mpa, "peak": s.cycle.high.peak_mpa}},
+                  "max": {"nominal": s.cycle.high.nominal_mpa, "peak": s.cycle.high.peak_mpa},
+                  "case": fatigue.notch_case,
+                  "location": None if fatigue.location is None else list(fatigue.location),
+                  "ratio": fatigue.ratio},
+        "other_notches": [{"feature": raiser_label(o.feature), "location": list(o.location), "case": o.case,
+                           "factor": _finite(o.n_f), "passes": o.passes, "first_cycle_yield": o.first_cycle_yield}
+                          for o in fatigue.others],
         "feature": raiser_label(fatigue.feature),
         "root_radius": s.root_radius_mm,
         "notch_sensitivity": {"q": s.q, "method": s.method},

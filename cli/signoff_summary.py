@@ -13,9 +13,9 @@ from rich.text import Text
 from ..compare.check import CheckResult
 from ..compare.design import CheckLine, design_statements
 from ..compare.fatigue import screen_statements
-from ..compare.signoff import DesignSignOff, FatigueSignOff, material_basis
+from ..compare.signoff import DesignSignOff, FatigueSignOff, cycle_words, material_basis
 from ..geometry.units import format_quantity
-from .display_units import label, shown
+from .display_units import label, point_text, shown
 
 
 def _verdict(passes: bool) -> str:
@@ -37,7 +37,7 @@ def print_signoff(result: CheckResult, console: Console) -> None:
     if result.design is not None:
         _print_design(result.design, units, console)
     if result.fatigue is not None:
-        _print_fatigue(result.fatigue, units, console)
+        _print_fatigue(result.fatigue, units, bool(result.spec.cases), console)
 
 
 def check_rows(design: DesignSignOff, units: str) -> list[tuple[str, ...]]:
@@ -89,7 +89,13 @@ def _print_design(design: DesignSignOff, units: str, console: Console) -> None:
         _item(console, "   ", line, "dim")
 
 
-def _print_fatigue(fatigue: FatigueSignOff, units: str, console: Console) -> None:
+def notch_words(fatigue: FatigueSignOff, units: str) -> str:
+    """Where the notch a cycle between load cases was screened at is, in `units`."""
+    where = "at no raiser" if fatigue.feature is None else f"on {fatigue.feature}"
+    return f"{where} at {point_text(fatigue.location, units)}, the peak of load case {fatigue.notch_case!r}"
+
+
+def _print_fatigue(fatigue: FatigueSignOff, units: str, named: bool, console: Console) -> None:
     s = fatigue.screen
 
     def stress(value: float) -> str:
@@ -98,10 +104,12 @@ def _print_fatigue(fatigue: FatigueSignOff, units: str, console: Console) -> Non
     yield_flag = " — FIRST-CYCLE YIELD at the notch" if s.first_cycle_yield else ""
     console.print(f"Fatigue screen: {_verdict(s.passes)} — n_f {s.n_f:.3g} against {s.required_factor:g} "
                   f"required (a screen, not a life prediction){yield_flag}", soft_wrap=False)
-    cycle = f"Load cycle {fatigue.min_fraction:.4g} to {fatigue.max_fraction:.4g} x the [load]"
+    cycle = f"Load cycle {cycle_words(fatigue, named)}"
     if fatigue.forces is not None:
         low, high = (format_quantity(v, "force", units) for v in fatigue.forces)
         cycle += f" ({low} to {high})"
+    if fatigue.between_cases:
+        cycle += f"; the notch is {notch_words(fatigue, units)}"
     _item(console, " • ", f"{cycle}; at the notch the nominal stress runs {stress(s.cycle.low.nominal_mpa)} to "
           f"{stress(s.cycle.high.nominal_mpa)} (sa = {stress(s.sa_nominal_mpa)}, sm = {stress(s.sm_nominal_mpa)}) and "
           f"the elastic peak {stress(s.cycle.low.peak_mpa)} to {stress(s.cycle.high.peak_mpa)}.")
