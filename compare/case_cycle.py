@@ -78,7 +78,8 @@ def _at_notch(ref: CheckResult, other: CheckResult, low: CheckResult, high: Chec
     """The screen of the cycle between `low` and `high` at the peak of `ref` (one of them; `other` the other)."""
     node = _node(ref)
     direction = _principal_direction(ref.solution.nodal_stress[node], ref.peak.stress < 0.0)
-    ratio = _along(other.solution.nodal_stress[node], direction) / _along(ref.solution.nodal_stress[node], direction)
+    at_ref, at_other = (_along(case.solution.nodal_stress[node], direction) for case in (ref, other))
+    ratio = at_other / at_ref + 0.0  # + 0.0 turns a negative zero into zero
     nominal, peak = notch_at_load(ref)
     other_peak = ratio * peak
     other_nominal = math.copysign(abs(_nominal_on_cut(other, ref, other_peak)), other_peak)
