@@ -873,20 +873,22 @@ def design_figure(design: DesignCheck | None, units: str = DEFAULT_SYSTEM) -> Fi
 
 
 def fatigue_figure(fatigue: FatigueScreen | None, units: str = DEFAULT_SYSTEM) -> Figure | None:
-    """Modified Goodman diagram: the fatigue strength line from Se to Su, the same line divided by the
-    required factor, and the notched (Kf-scaled) working point, in the unit system `units` (the screen is
-    in MPa). None without a fatigue screen."""
+    """Modified Goodman diagram: the fatigue strength line from Se to Su (flat at Se for a compressive mean,
+    which is not credited), the same line divided by the required factor, and the notched (Kf-scaled)
+    working point, in the unit system `units` (the screen is in MPa). None without a fatigue screen."""
     if fatigue is None:
         return None
     se, su, sa, sm = fatigue.se_mpa, fatigue.ultimate_mpa, fatigue.sa_mpa, fatigue.sm_mpa
     need = fatigue.required_factor
+    left = min(0.0, sm) - 0.02 * su
     fig = _figure(height=4.0, width=6.4)
     ax = fig.add_subplot()
-    ax.plot([0, su], [se, 0], color=INK, lw=1.6,
+    ax.plot([left, 0, su], [se, se, 0], color=INK, lw=1.6,
             label=f"modified Goodman line (Se {shown(se, 'stress', units, '.0f')}, "
-                  f"Su {quantity_text(su, 'stress', units, '.0f')})")
+                  f"Su {quantity_text(su, 'stress', units, '.0f')}; flat for a compressive mean)")
     if need != 1.0:
-        ax.plot([0, su / need], [se / need, 0], color=INK, lw=1.0, ls="--", label=f"line / required factor {need:g}")
+        ax.plot([left, 0, su / need], [se / need, se / need, 0], color=INK, lw=1.0, ls="--",
+                label=f"line / required factor {need:g}")
     passes = fatigue.passes
     ax.plot([sm], [sa], "o", ms=9, color=PASS_FILL if passes else FAIL_FILL, label="notched working point (Kf × nominal)")
     text = f"σa {shown(sa, 'stress', units)}, σm {quantity_text(sm, 'stress', units)}"
@@ -895,7 +897,7 @@ def fatigue_figure(fatigue: FatigueScreen | None, units: str = DEFAULT_SYSTEM) -
     text += ", passes" if passes else ", FAILS"
     ax.annotate(text, xy=(sm, sa), xytext=(10, 10), textcoords="offset points", fontsize=9, zorder=4,
                 bbox=dict(boxstyle="round,pad=0.25", facecolor="white", edgecolor="none", alpha=0.9))
-    ax.set_xlim(min(0.0, sm) - 0.02 * su, 1.05 * max(su, sm))
+    ax.set_xlim(left, 1.05 * max(su, sm))
     ax.set_ylim(0, 1.25 * max(se, sa))
     unit_axis(ax.xaxis, "stress", units, "mean stress σm")
     unit_axis(ax.yaxis, "stress", units, "alternating stress σa")
