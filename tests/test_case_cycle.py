@@ -92,10 +92,12 @@ def test_a_case_scaled_by_a_factor_gives_the_fraction_cycle(load, factor):
 
 
 def test_tension_and_compression_of_one_load_give_the_fully_reversed_cycle():
-    force = 60000.0
+    force = 150000.0  # the hole's edge yields on the first cycle, in tension and in compression
+    curve = {"cyclic_strength": 776.0, "cyclic_exponent": 0.15}
     cases = [{"name": "pull", "axial": force}, {"name": "push", "axial": -force}]
-    between = check_part(part_from_dict(_part(cases, {"min_case": "push", "max_case": "pull"})))
-    reversed_ = check_part(part_from_dict(_part({"axial": force}, {"min_fraction": -1.0, "max_fraction": 1.0})))
+    between = check_part(part_from_dict(_part(cases, {"min_case": "push", "max_case": "pull", **curve})))
+    reversed_ = check_part(part_from_dict(_part({"axial": force}, {"min_fraction": -1.0, "max_fraction": 1.0,
+                                                                   **curve})))
     s = between.fatigue.screen
     _same_screen(s, reversed_.fatigue.screen)
     # hand calculation (docs/references.md [Practice]): S = F / ((W - d) t) at both extremes with opposite
@@ -107,6 +109,18 @@ def test_tension_and_compression_of_one_load_give_the_fully_reversed_cycle():
     assert abs(s.sm_mpa) <= ROUND_OFF * s.sa_mpa and s.sa_mpa == pytest.approx(s.kf * nominal, rel=ROUND_OFF)
     assert any("compresses the part along its axis: buckling is not checked" in line
                for line in between.fatigue.basis)
+    # first-cycle yield and Neuber's rule from the two states (docs/references.md [Neuber], [Masing]): the first
+    # extreme's sigma eps E is its elastic stress squared, the reversal's d_sigma d_eps E the elastic range
+    # squared, and a fully reversed loop has no mean stress
+    local, E = s.local, STEEL["E"]
+    assert s.first_cycle_yield and local is not None and local.first == "high"
+    assert local.high_stress_mpa * local.high_strain * E == pytest.approx(s.cycle.high.peak_mpa ** 2, rel=1e-9)
+    elastic_range = s.cycle.high.peak_mpa - s.cycle.low.peak_mpa
+    assert local.stress_range_mpa * local.strain_range * E == pytest.approx(elastic_range ** 2, rel=1e-9)
+    assert abs(local.mean_stress_mpa) <= 1e-9 * local.stress_range_mpa
+    other = reversed_.fatigue.screen.local
+    assert (local.high_stress_mpa, local.low_stress_mpa) == (pytest.approx(other.high_stress_mpa, rel=ROUND_OFF),
+                                                             pytest.approx(other.low_stress_mpa, rel=ROUND_OFF))
 
 
 def test_goodman_factor_by_hand_from_the_two_cases_converged_peaks():
@@ -178,6 +192,19 @@ def test_the_record_holds_the_cycle_between_cases(hatch):
     assert f["notch"]["case"] == "slam" and f["notch"]["location"] == list(hatch.case_named("slam").peak.location)
     assert f["other_notches"][0]["case"] == "opening" and f["other_notches"][0]["feature"] == "hole 1"
     assert [c["fatigue"] for c in record["cases"]] == [None, None]
+
+
+def test_the_goodman_figure_stays_flat_for_a_compressive_mean(hatch):
+    from stressraiser.cli.plots import fatigue_figure
+
+    s = hatch.fatigue.screen
+    assert s.sm_mpa < 0.0
+    line = fatigue_figure(s).axes[0].lines[0]
+    x, y = line.get_data()
+    # a compressive mean is not credited ([Shigley], from memory; common practice): the drawn line is Se there,
+    # and the working point scaled by its factor n_f = Se / sa lies on it
+    assert x[0] < s.sm_mpa and np.interp(s.sm_mpa, x, y) == pytest.approx(s.se_mpa, rel=1e-12)
+    assert s.sa_mpa * s.n_f == pytest.approx(s.se_mpa, rel=1e-12)
 
 
 def test_a_named_case_scaled_by_fractions_is_that_case_alone():
