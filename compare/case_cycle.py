@@ -8,7 +8,11 @@ Units: mm, N, MPa; stresses signed, tension positive.
 Where the notch is. Each case's converged peak is a candidate: the max case's, and the min case's when it
 is at another node (a min case that compresses another raiser harder than the max case stretches the first
 one). The cycle is screened at each candidate and the one with the smaller modified Goodman factor governs
-(the max case's on a tie); the other is reported beside it with its factor.
+(the max case's on a tie); the other is reported beside it with its factor. A point where neither case
+peaks may still see a wider range (a raiser one case stretches and the other compresses, each less than
+its own peak): the finest mesh's boundary nodes are searched for the widest elastic range of the edge
+stress (each node's principal stress of larger magnitude, signed), and a point more than NEAR of the
+width from every screened notch whose range passes theirs by more than WIDER is named as not screened.
 
 The two states at a notch where load case R (the notch case) has its converged peak P_R, O being the other:
 - n is R's governing principal direction at the notch's node on the finest mesh (on a free edge, the
@@ -34,19 +38,23 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from ..geometry.outline import plate_polygon
+from ..geometry.outline import nearest_raiser, plate_polygon
+from ..geometry.registry import outline_size
 from ..geometry.spec import SectionSpec
 from .edge_cut import EDGE_NORMAL, edge_cut
 from .fatigue import NotchCycle, NotchState
 from .method_of_sections import section_result
 from .nominal import edge_nominals, nominal_stresses
 from .sections import ligaments
-from .signoff import NOT_SCREENED, FatigueSignOff, OtherNotch, case_words, notch_at_load, notch_screen, screen_basis
+from .signoff import (NOT_SCREENED, FatigueSignOff, OtherNotch, WiderRange, case_words, notch_at_load, notch_screen,
+                      screen_basis)
 
 if TYPE_CHECKING:
     from .check import CheckResult
 
 CUT_LABEL = "critical net section"
+NEAR = 0.1  # of the part's width: boundary points this close to a screened notch belong to it
+WIDER = 0.02  # a range this much wider than every screened notch's, elsewhere, is named as not screened
 
 
 def part_fatigue(results: tuple[CheckResult, ...]) -> FatigueSignOff | None:
@@ -71,7 +79,38 @@ def case_cycle_signoff(low: CheckResult, high: CheckResult) -> FatigueSignOff:
     others = tuple(OtherNotch(s.feature, s.location, s.notch_case, s.screen.n_f, s.screen.passes,
                               s.screen.first_cycle_yield) for s in screened if s is not governing)
     notes = tuple(_other_words(o) for o in others)
-    return replace(governing, others=others, basis=governing.basis[:1] + notes + governing.basis[1:])
+    return replace(governing, others=others, basis=governing.basis[:1] + notes + governing.basis[1:],
+                   wider=wider_range(low, high, [_node(r) for r in notches]))
+
+
+def wider_range(low: CheckResult, high: CheckResult, notches: list[int]) -> WiderRange | None:
+    """The boundary point of the finest mesh, away from the screened `notches` (node indices), whose elastic
+    stress range between the two cases is the widest, when it passes theirs by more than WIDER; else None.
+    The nodes the peak search leaves out (support singularities) are left out here too."""
+    mesh, spec = high.solution.mesh, high.spec
+    nodes = mesh.boundary_nodes()
+    for solution in (low.solution, high.solution):
+        if solution.excluded is not None:
+            nodes = nodes[~solution.excluded[nodes]]
+    ranges = np.abs(_edge_stress(high.solution.principal[nodes]) - _edge_stress(low.solution.principal[nodes]))
+    screened = float(np.max(np.abs(_edge_stress(high.solution.principal[notches])
+                                   - _edge_stress(low.solution.principal[notches]))))
+    width = outline_size(spec)[1]
+    gaps = np.min(np.linalg.norm(mesh.nodes[nodes][:, None, :] - mesh.nodes[notches][None, :, :], axis=2), axis=1)
+    ranges = np.where(gaps > NEAR * width, ranges, -np.inf)
+    k = int(np.argmax(ranges)) if ranges.size else 0
+    if not ranges.size or not ranges[k] > (1.0 + WIDER) * screened:
+        return None
+    location = (float(mesh.nodes[nodes[k], 0]), float(mesh.nodes[nodes[k], 1]))
+    from .check import ON_RAISER  # the check's own rule for the raiser a point belongs to
+
+    return WiderRange(nearest_raiser(spec, location, ON_RAISER * width), location, float(ranges[k] / screened))
+
+
+def _edge_stress(principal: np.ndarray) -> np.ndarray:
+    """The signed principal stress of larger magnitude of (k, 2) principal stresses: on a free edge, the
+    edge's own (tangential) stress (MPa)."""
+    return np.where(np.abs(principal[:, 0]) >= np.abs(principal[:, 1]), principal[:, 0], principal[:, 1])
 
 
 def _at_notch(ref: CheckResult, other: CheckResult, low: CheckResult, high: CheckResult) -> FatigueSignOff:

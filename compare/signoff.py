@@ -107,6 +107,17 @@ class OtherNotch:
 
 
 @dataclass(frozen=True)
+class WiderRange:
+    """A point of a cycle between two load cases where the elastic stress range on the finest mesh is wider
+    than at the notches screened and neither case has its peak, so it is not screened (compare/case_cycle.py):
+    the raiser (None: at no raiser), where (mm), and its range over the widest screened notch's."""
+
+    feature: RaiserId | None
+    location: tuple[float, float]
+    ratio: float
+
+
+@dataclass(frozen=True)
 class FatigueSignOff:
     """The fatigue screen of one part.
 
@@ -120,6 +131,7 @@ class FatigueSignOff:
     ratio:       a cycle between two cases: the other case's stress over the notch case's at the notch, along
                  the notch case's principal direction there, on the finest mesh (None for a scaled cycle).
     others:      the other points a cycle between two cases was screened at (the other case's peak).
+    wider:       a point of a cycle between two cases with a wider elastic stress range, not screened.
     """
 
     screen: FatigueScreen
@@ -134,6 +146,7 @@ class FatigueSignOff:
     location: tuple[float, float] | None = None
     ratio: float | None = None
     others: tuple[OtherNotch, ...] = ()
+    wider: WiderRange | None = None
 
     @property
     def between_cases(self) -> bool:
