@@ -30,7 +30,7 @@ from typing import Any
 from .. import __version__
 from ..compare.check import CheckResult, design_margin
 from ..compare.design import DesignCheck, design_statements
-from ..compare.fatigue import FatigueScreen, screen_statements
+from ..compare.fatigue import FatigueScreen
 from ..compare.method_of_sections import SectionResult
 from ..compare.signoff import cycle_words
 from ..geometry.kinds.hole import named as named_hole
@@ -44,7 +44,7 @@ from .display_units import cut_label, label, point_text, quantity_text, shown, s
 from .fields import CELL_FIELDS, POINT_FIELDS, vtu_bytes
 from .files import write_atomic, write_json
 from .record import SCHEMA, check_record
-from .signoff_summary import CHECK_HEADER, check_caption, check_rows, notch_words
+from .signoff_summary import CHECK_HEADER, check_caption, check_rows, fatigue_statements, notch_words
 from .summary import fe_kt_for, kt_rows, on_edge_cut, peak_state, range_words, verdict
 
 PNG_DPI = 150
@@ -293,7 +293,8 @@ def _verdict_section(result: CheckResult) -> str:
                      f"{'passes' if design.passes else 'FAILS'}</strong>")
     if fatigue is not None:
         yielding = " — FIRST-CYCLE YIELD at the notch" if fatigue.first_cycle_yield else ""
-        lines.append(f"Fatigue screen: {'passes' if fatigue.passes else 'FAILS'}{yielding}")
+        wider = " — a wider range elsewhere is NOT SCREENED" if result.fatigue.wider is not None else ""
+        lines.append(f"Fatigue screen: {'passes' if fatigue.passes else 'FAILS'}{yielding}{wider}")
     under = result.understatement
     rows = [
         (f"Peak ({peak.component}, {peak_state(result)})", _amount(peak.stress, "stress", units, 5),
@@ -546,7 +547,7 @@ def _fatigue_section(result: CheckResult, figures: list[Rendered]) -> str:
     if fatigue is None:
         return ""
     units, signoff = result.spec.units, result.fatigue
-    lines = list(screen_statements(fatigue, units)) + list(signoff.basis)
+    lines = fatigue_statements(signoff, units) + list(signoff.basis)
     cycle = f"Load cycle {cycle_words(signoff, bool(result.spec.cases))}"
     if signoff.between_cases:
         cycle += f"; the notch is {notch_words(signoff, units)}"

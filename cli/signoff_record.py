@@ -15,7 +15,8 @@ design:  load_kind, factors {yield, ultimate}, behaviour, governing_check, gover
 fatigue: cycle {min_fraction, max_fraction, min_force, max_force, alternating_force, mean_force, min_case,
          max_case, between_cases} (fractions null for a cycle between two load cases, forces null unless
          the load scaled is one force), notch {min, max: {nominal, peak}, case, location, ratio},
-         other_notches [{feature, location, case, factor, passes, first_cycle_yield}], feature,
+         other_notches [{feature, location, case, factor, passes, first_cycle_yield}], wider_range (null,
+         or a point with a wider range that is not screened: {feature, location, ratio}), feature,
          root_radius, notch_sensitivity {q, method}, kt_net, kf, strength {value, basis, life_cycles},
          nominal {alternating, mean}, notched {alternating, mean}, factor, required_factor, passes,
          first_cycle_yield {yields, elastic_peak, yield, reversed}, local (null unless the root yields and
@@ -124,6 +125,9 @@ def fatigue_record(fatigue: FatigueSignOff | None) -> dict[str, Any] | None:
         "other_notches": [{"feature": raiser_label(o.feature), "location": list(o.location), "case": o.case,
                            "factor": _finite(o.n_f), "passes": o.passes, "first_cycle_yield": o.first_cycle_yield}
                           for o in fatigue.others],
+        "wider_range": None if fatigue.wider is None else {
+            "feature": raiser_label(fatigue.wider.feature), "location": list(fatigue.wider.location),
+            "ratio": fatigue.wider.ratio},
         "feature": raiser_label(fatigue.feature),
         "root_radius": s.root_radius_mm,
         "notch_sensitivity": {"q": s.q, "method": s.method},

@@ -102,8 +102,9 @@ def _print_fatigue(fatigue: FatigueSignOff, units: str, named: bool, console: Co
         return format_quantity(value, "stress", units)
 
     yield_flag = " — FIRST-CYCLE YIELD at the notch" if s.first_cycle_yield else ""
+    wider_flag = " — a wider range elsewhere is NOT SCREENED" if fatigue.wider is not None else ""
     console.print(f"Fatigue screen: {_verdict(s.passes)} — n_f {s.n_f:.3g} against {s.required_factor:g} "
-                  f"required (a screen, not a life prediction){yield_flag}", soft_wrap=False)
+                  f"required (a screen, not a life prediction){yield_flag}{wider_flag}", soft_wrap=False)
     cycle = f"Load cycle {cycle_words(fatigue, named)}"
     if fatigue.forces is not None:
         low, high = (format_quantity(v, "force", units) for v in fatigue.forces)
@@ -113,10 +114,21 @@ def _print_fatigue(fatigue: FatigueSignOff, units: str, named: bool, console: Co
     _item(console, " • ", f"{cycle}; at the notch the nominal stress runs {stress(s.cycle.low.nominal_mpa)} to "
           f"{stress(s.cycle.high.nominal_mpa)} (sa = {stress(s.sa_nominal_mpa)}, sm = {stress(s.sm_nominal_mpa)}) and "
           f"the elastic peak {stress(s.cycle.low.peak_mpa)} to {stress(s.cycle.high.peak_mpa)}.")
-    for line in screen_statements(s, units):
+    for line in fatigue_statements(fatigue, units):
         _item(console, " • ", line)
     for line in fatigue.basis:
         _item(console, "   ", line, "dim")
+
+
+def fatigue_statements(fatigue: FatigueSignOff, units: str) -> list[str]:
+    """The screen's statements in `units`, after the caution on a wider range not screened, when there is one."""
+    wider = fatigue.wider
+    caution = [] if wider is None else [
+        f"NOT SCREENED: on the finest mesh the cycle's elastic stress range is {wider.ratio:.3g} times the screened "
+        f"notch's {'at no raiser' if wider.feature is None else f'on {wider.feature}'} at "
+        f"{point_text(wider.location, units)}, where neither load case has its peak; check that point's cycle "
+        "(its Kt, nominal stresses and Goodman factor) before signing off."]
+    return caution + list(screen_statements(fatigue.screen, units))
 
 
 def _item(console: Console, lead: str, text: str, style: str = "") -> None:
