@@ -19,7 +19,6 @@ from __future__ import annotations
 
 import copy
 import json
-import math
 
 import jsonschema
 import numpy as np
@@ -192,6 +191,39 @@ def test_the_record_holds_the_cycle_between_cases(hatch):
     assert f["notch"]["case"] == "slam" and f["notch"]["location"] == list(hatch.case_named("slam").peak.location)
     assert f["other_notches"][0]["case"] == "opening" and f["other_notches"][0]["feature"] == "hole 1"
     assert [c["fatigue"] for c in record["cases"]] == [None, None]
+
+
+def test_a_wider_range_where_neither_case_peaks_is_named_as_not_screened(tmp_path, capsys):
+    # both cases peak at the big hole on the axis; the small hole near the top edge, which the bending of the
+    # min case compresses and the pull stretches, sees a wider range but neither case's peak
+    part = _part([{"name": "pull", "axial": 60000.0}, {"name": "pull and bend", "axial": 60000.0, "bending": -2.0e6},
+                  {"name": "bend", "bending": -2.0e6}],
+                 {"min_case": "pull and bend", "max_case": "pull"}, {"tolerance": 0.02})
+    part["hole"] = [{"center": [-60.0, 0.0], "diameter": 30.0}, {"center": [60.0, 25.0], "diameter": 6.0}]
+    path, out = tmp_path / "part.toml", tmp_path / "out.json"
+    path.write_text(toml_text(part), encoding="utf-8")
+    assert main(["check", str(path), "--json", str(out)]) == 0
+    printed = capsys.readouterr().out
+    record = json.loads(out.read_text())
+    jsonschema.Draft202012Validator(check_schema()).validate(record)
+    f = record["fatigue"]
+    assert f["feature"] == "hole 1" and f["other_notches"] == []
+    wider = f["wider_range"]
+    assert wider["feature"] == "hole 2" and wider["ratio"] > 2.0
+    assert "a wider range elsewhere is NOT SCREENED" in printed and "NOT SCREENED: on the finest mesh" in printed
+    # superposition (linear elasticity): the two cases differ by the bending alone, so the range at a free edge
+    # is the bending case's edge stress there; the ratio is the bending case's at hole 2's point over the notch's
+    result = check_part(part_from_dict(part))
+    bend = result.case_named("bend").solution
+    nodes = bend.mesh.nodes
+
+    def edge_stress(point):
+        node = int(np.argmin(np.linalg.norm(nodes - np.asarray(point), axis=1)))
+        p = bend.principal[node]
+        return p[0] if abs(p[0]) >= abs(p[1]) else p[1]
+
+    ratio = abs(edge_stress(wider["location"])) / abs(edge_stress(f["notch"]["location"]))
+    assert wider["ratio"] == pytest.approx(ratio, rel=1e-6)
 
 
 def test_the_goodman_figure_stays_flat_for_a_compressive_mean(hatch):
