@@ -123,11 +123,11 @@ def _print_fatigue(fatigue: FatigueSignOff, units: str, named: bool, console: Co
 def fatigue_statements(fatigue: FatigueSignOff, units: str) -> list[str]:
     """The screen's statements in `units`, after the caution on a wider range not screened, when there is one."""
     wider = fatigue.wider
+    where = "" if wider is None else "at no raiser" if wider.feature is None else f"on {wider.feature}"
     caution = [] if wider is None else [
-        f"NOT SCREENED: on the finest mesh the cycle's elastic stress range is {wider.ratio:.3g} times the screened "
-        f"notch's {'at no raiser' if wider.feature is None else f'on {wider.feature}'} at "
-        f"{point_text(wider.location, units)}, where neither load case has its peak; check that point's cycle "
-        "(its Kt, nominal stresses and Goodman factor) before signing off."]
+        f"NOT SCREENED: {where} at {point_text(wider.location, units)}, where neither load case has its peak, the "
+        f"cycle's elastic stress range on the finest mesh is {wider.ratio:.3g} times that at the notch screened; "
+        "check that point's cycle (its Kt, nominal stresses and Goodman factor) before signing off."]
     return caution + list(screen_statements(fatigue.screen, units))
 
 

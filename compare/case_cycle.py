@@ -10,9 +10,10 @@ is at another node (a min case that compresses another raiser harder than the ma
 one). The cycle is screened at each candidate and the one with the smaller modified Goodman factor governs
 (the max case's on a tie); the other is reported beside it with its factor. A point where neither case
 peaks may still see a wider range (a raiser one case stretches and the other compresses, each less than
-its own peak): the finest mesh's boundary nodes are searched for the widest elastic range of the edge
-stress (each node's principal stress of larger magnitude, signed), and a point more than NEAR of the
-width from every screened notch whose range passes theirs by more than WIDER is named as not screened.
+its own peak): the finest mesh's boundary nodes the peak search covers are searched for the widest
+elastic range of the edge stress (each node's principal stress of larger magnitude, signed), and a point
+more than NEAR of the width from every screened notch whose range passes theirs by more than WIDER is
+named as not screened.
 
 The two states at a notch where load case R (the notch case) has its converged peak P_R, O being the other:
 - n is R's governing principal direction at the notch's node on the finest mesh (on a free edge, the
@@ -38,14 +39,13 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from ..geometry.outline import nearest_raiser, plate_polygon
+from ..geometry.outline import nearest_raiser
 from ..geometry.registry import outline_size
 from ..geometry.spec import SectionSpec
 from .edge_cut import EDGE_NORMAL, edge_cut
 from .fatigue import NotchCycle, NotchState
 from .method_of_sections import section_result
-from .nominal import edge_nominals, nominal_stresses
-from .sections import ligaments
+from .nominal import edge_nominals, gross_section, nominal_stresses
 from .signoff import (NOT_SCREENED, FatigueSignOff, OtherNotch, WiderRange, case_words, notch_at_load, notch_screen,
                       screen_basis)
 
@@ -86,12 +86,14 @@ def case_cycle_signoff(low: CheckResult, high: CheckResult) -> FatigueSignOff:
 def wider_range(low: CheckResult, high: CheckResult, notches: list[int]) -> WiderRange | None:
     """The boundary point of the finest mesh, away from the screened `notches` (node indices), whose elastic
     stress range between the two cases is the widest, when it passes theirs by more than WIDER; else None.
-    The nodes the peak search leaves out (support singularities) are left out here too."""
+    The nodes the peak search leaves out are left out here too: support singularities, and where a pin or
+    fastener bears (its compression is bearing, checked on its own)."""
     mesh, spec = high.solution.mesh, high.spec
     nodes = mesh.boundary_nodes()
     for solution in (low.solution, high.solution):
         if solution.excluded is not None:
             nodes = nodes[~solution.excluded[nodes]]
+        nodes = nodes[~solution.bearing[nodes]]
     ranges = np.abs(_edge_stress(high.solution.principal[nodes]) - _edge_stress(low.solution.principal[nodes]))
     screened = float(np.max(np.abs(_edge_stress(high.solution.principal[notches])
                                    - _edge_stress(low.solution.principal[notches]))))
@@ -168,8 +170,8 @@ def _nominal_on_cut(case: CheckResult, ref: CheckResult, peak: float) -> float:
                                 cut.window, cut.side)
         return edge_nominals(case.spec, peak, result, section.gross).net.stress
     result = section_result(case.spec, case.solution, SectionSpec(section.point, section.normal, CUT_LABEL))
-    gross_width = sum(b - a for a, b in ligaments(plate_polygon(case.spec), section.point, section.normal))
-    return nominal_stresses(case.spec, peak, result, gross_width).net.stress
+    gross = ref.gross or gross_section(case.spec, ref.peak.feature, section.point, section.normal)
+    return nominal_stresses(case.spec, peak, result, gross).net.stress
 
 
 def _cycle_basis(ref: CheckResult, other: CheckResult, low: CheckResult, high: CheckResult, ratio: float) -> str:
