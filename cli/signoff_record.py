@@ -127,7 +127,7 @@ def fatigue_record(fatigue: FatigueSignOff | None) -> dict[str, Any] | None:
                           for o in fatigue.others],
         "wider_range": None if fatigue.wider is None else {
             "feature": raiser_label(fatigue.wider.feature), "location": list(fatigue.wider.location),
-            "ratio": fatigue.wider.ratio},
+            "ratio": _finite(fatigue.wider.ratio)},
         "feature": raiser_label(fatigue.feature),
         "root_radius": s.root_radius_mm,
         "notch_sensitivity": {"q": s.q, "method": s.method},

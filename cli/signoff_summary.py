@@ -6,6 +6,8 @@ edge; the sentences come from compare.design.design_statements and compare.fatig
 
 from __future__ import annotations
 
+import math
+
 from rich.console import Console
 from rich.table import Table
 from rich.text import Text
@@ -126,9 +128,14 @@ def fatigue_statements(fatigue: FatigueSignOff, units: str) -> list[str]:
     where = "" if wider is None else "at no raiser" if wider.feature is None else f"on {wider.feature}"
     caution = [] if wider is None else [
         f"NOT SCREENED: {where} at {point_text(wider.location, units)}, where neither load case has its peak, the "
-        f"cycle's elastic stress range on the finest mesh is {wider.ratio:.3g} times that at the notch screened; "
+        f"cycle's elastic stress range on the finest mesh is {_times(wider.ratio)} that at the notch screened; "
         "check that point's cycle (its Kt, nominal stresses and Goodman factor) before signing off."]
     return caution + list(screen_statements(fatigue.screen, units))
+
+
+def _times(ratio: float) -> str:
+    """A ratio of ranges in words: "2.71 times", or "wider than" when the other range is nil."""
+    return f"{ratio:.3g} times" if math.isfinite(ratio) else "wider than"
 
 
 def _item(console: Console, lead: str, text: str, style: str = "") -> None:

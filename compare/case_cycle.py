@@ -106,7 +106,8 @@ def wider_range(low: CheckResult, high: CheckResult, notches: list[int]) -> Wide
     location = (float(mesh.nodes[nodes[k], 0]), float(mesh.nodes[nodes[k], 1]))
     from .check import ON_RAISER  # the check's own rule for the raiser a point belongs to
 
-    return WiderRange(nearest_raiser(spec, location, ON_RAISER * width), location, float(ranges[k] / screened))
+    ratio = float(ranges[k]) / screened if screened > 0.0 else math.inf  # inf: the notches see no range at all
+    return WiderRange(nearest_raiser(spec, location, ON_RAISER * width), location, ratio)
 
 
 def _edge_stress(principal: np.ndarray) -> np.ndarray:

@@ -110,7 +110,8 @@ class OtherNotch:
 class WiderRange:
     """A point of a cycle between two load cases where the elastic stress range on the finest mesh is wider
     than at the notches screened and neither case has its peak, so it is not screened (compare/case_cycle.py):
-    the raiser (None: at no raiser), where (mm), and its range over the widest screened notch's."""
+    the raiser (None: at no raiser), where (mm), and its range over the widest screened notch's (infinite when
+    the screened notches see no range)."""
 
     feature: RaiserId | None
     location: tuple[float, float]
