@@ -20,7 +20,7 @@ def run(args: argparse.Namespace) -> int:
     from rich.table import Table
 
     from ..geometry.materials import MATERIALS
-    from ..geometry.units import format_quantity, unit_label
+    from ..geometry.units import format_stated, unit_label
 
     from .terminal import out_console
 
@@ -33,16 +33,16 @@ def run(args: argparse.Namespace) -> int:
                             ("at cycles", "right"), ("K'", "right"), ("n'", "right")):
         table.add_column(column, justify=justify)
 
-    def number(value: float) -> str:
-        return format_quantity(value, "stress", args.units).removesuffix(f" {stress}")
+    def number(value) -> str:
+        """A value as its source states it, in the chosen system (the source's own number in its system)."""
+        return "—" if value is None else format_stated(value, args.units).removesuffix(f" {stress}")
 
     for row in MATERIALS:
-        fatigue = "—" if row.fatigue_strength_mpa is None else number(row.fatigue_strength_mpa)
         life = "—" if row.fatigue_life_cycles is None else f"{row.fatigue_life_cycles:.0e}"
-        cyclic = (("—", "—") if row.cyclic_strength_mpa is None
-                  else (number(row.cyclic_strength_mpa), f"{row.cyclic_exponent:g}"))
-        table.add_row(row.key, row.family, number(row.youngs_modulus_mpa), f"{row.poisson_ratio:g}",
-                      number(row.yield_mpa), number(row.ultimate_mpa), fatigue, life, *cyclic)
+        exponent = "—" if row.cyclic_exponent is None else f"{row.cyclic_exponent:g}"
+        table.add_row(row.key, row.family, number(row.youngs_modulus), f"{row.poisson_ratio:g}",
+                      number(row.minimum_yield), number(row.minimum_ultimate), number(row.fatigue_strength), life,
+                      number(row.cyclic_strength), exponent)
     out.print(table)
     out.print("[bold]Sources[/bold]")
     for row in MATERIALS:

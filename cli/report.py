@@ -35,8 +35,8 @@ from ..compare.method_of_sections import SectionResult
 from ..compare.signoff import cycle_words
 from ..geometry.kinds.hole import named as named_hole
 from ..geometry.registry import kind_of, named, raiser_label
-from ..geometry.spec import Load, PartSpec
-from ..geometry.units import DEFAULT_SYSTEM, format_number
+from ..geometry.spec import Load, Material, PartSpec
+from ..geometry.units import DEFAULT_SYSTEM, format_number, format_stated
 from . import plots
 from .loads_summary import bearing_rows, boundary_rows
 from .summary import estimate_basis, estimate_how
@@ -333,9 +333,7 @@ def _part_section(result: CheckResult, figures: list[Rendered], part_text: str |
     rows = [
         ("Plate", f"{_amount(plate.length, 'length', units, unit=False)} × {_amount(plate.width, 'length', units)}, "
          f"thickness {_amount(plate.thickness, 'length', units)}, {plate.condition}"),
-        ("Material", f"E {_amount(material.E, 'stress', units)}, ν {_num(material.nu)}, yield "
-         f"{_amount(material.yield_strength, 'stress', units)}, ultimate "
-         f"{_amount(material.ultimate, 'stress', units)}"),
+        ("Material", material_text(material, units)),
         *((("Load", _load_text(spec.load, units, spec)),) if len(result.cases) < 2 else
           ((f"Load case {r.case}", _load_text(r.spec.load, units, r.spec)) for r in result.cases)),
         ("Mesh study", f"target error {spec.mesh.tolerance:.2%}, at most {spec.mesh.max_levels} levels and "
@@ -354,6 +352,24 @@ def _part_section(result: CheckResult, figures: list[Rendered], part_text: str |
     if part_text is not None:
         parts.append("<h3>The part file as read</h3><pre>" + esc(part_text) + "</pre>")
     return _section("part", "The part and what it carries", *parts)
+
+
+def material_text(material: Material, units: str) -> str:
+    """E, ν and the strengths in `units`; a value taken from the material table whose source states it in
+    another unit system is followed by the source's own number ("yield 241.3 MPa (35 ksi as stated)")."""
+    stated = dict(material.stated)
+
+    def value(key: str, mpa: float | None) -> str:
+        own = stated.get(key)
+        text = _amount(mpa, "stress", units) if own is None else format_stated(own, units)
+        return text if own is None or own.native_to(units) else f"{text} ({own} as stated)"
+
+    parts = [f"E {value('E', material.E)}", f"ν {_num(material.nu)}", f"yield {value('yield', material.yield_strength)}",
+             f"ultimate {value('ultimate', material.ultimate)}"]
+    if material.fatigue_strength is not None:
+        life = "" if material.fatigue_life is None else f" at {material.fatigue_life:.0e} cycles"
+        parts.append(f"fatigue strength {value('fatigue_strength', material.fatigue_strength)}{life}")
+    return ", ".join(parts)
 
 
 def _load_text(load: Load, units: str, spec: PartSpec) -> str:

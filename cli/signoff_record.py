@@ -22,7 +22,7 @@ fatigue: cycle {min_fraction, max_fraction, min_force, max_force, alternating_fo
          first_cycle_yield {yields, elastic_peak, yield, reversed}, local (null unless the root yields and
          a cyclic curve is known: {high, low: {stress, strain}, stress_range, strain_range, mean_stress,
          strain_amplitude, plastic_strain_amplitude, first, curve {E, K, n, source}}), statements, basis
-part.material: E, nu, yield, ultimate, grade, family, ductile, fatigue_strength, fatigue_life, source.
+part.material: E, nu, yield, ultimate, grade, family, ductile, fatigue_strength, fatigue_life, source, stated.
 Values that are not defined (no ultimate factor, no root radius) are null; an infinite factor is null.
 """
 
@@ -165,7 +165,9 @@ def _local_record(fatigue: FatigueSignOff) -> dict[str, Any] | None:
 
 
 def material_record(material: Material) -> dict[str, Any]:
-    """The part's material: E, nu and strengths in MPa, fatigue life in cycles, and where they came from."""
+    """The part's material: E, nu and strengths in MPa, fatigue life in cycles, and where they came from;
+    `stated` holds each value taken from the built-in table as its source states it (number and unit,
+    e.g. "yield": {"value": 35, "unit": "ksi"}), of which the MPa value is the conversion."""
     return {
         "E": material.E,
         "nu": material.nu,
@@ -177,4 +179,5 @@ def material_record(material: Material) -> dict[str, Any]:
         "fatigue_strength": material.fatigue_strength,
         "fatigue_life": material.fatigue_life,
         "source": material.source,
+        "stated": {key: {"value": value.value, "unit": value.unit} for key, value in material.stated},
     }

@@ -139,6 +139,7 @@ def _material(t: dict[str, Any], units: str) -> Material:
         fatigue_strength=strength,
         fatigue_life=life,
         source=_material_source(t, row),
+        stated=() if row is None else tuple((key, value) for key, value in row.stated() if key not in t),
     )
     _strengths_in_order(material, units)
     return material

@@ -16,6 +16,7 @@ from typing import TYPE_CHECKING, Any
 from .kinds.hole import NAME as HOLE
 
 if TYPE_CHECKING:
+    from .units import Stated
     from .kinds.hole import Hole
     from .kinds.lug_end import Lug
     from .kinds.stepped import Step
@@ -44,6 +45,8 @@ class Material:
     fatigue_strength: fully reversed fatigue strength in MPa, or None.
     fatigue_life:     the life in cycles that fatigue strength applies to; None for an endurance limit.
     source:           where the values come from (the table row's source, and which keys the file set).
+    stated:           the values taken from the table row as its source states them ([material] key, Stated:
+                      number and unit, e.g. ("yield", 35 ksi)); the floats above are their conversions to MPa.
     """
 
     E: float
@@ -56,6 +59,7 @@ class Material:
     fatigue_strength: float | None = None
     fatigue_life: float | None = None
     source: str | None = None
+    stated: tuple[tuple[str, Stated], ...] = ()
 
 
 PIN_CONTACTS = ("cosine", "rigid")  # how a pin presses on its hole (see Pin)

@@ -190,6 +190,63 @@ def format_point(point: tuple[float, float], system: str = DEFAULT_SYSTEM, digit
     return f"({format_number(x, digits)}, {format_number(y, digits)}) {unit_label('length', system)}"
 
 
+# Stress units a source may state a material value in, in MPa per unit. The US customary factors are the
+# exact definitions (1 lbf = 4.4482216152605 N, 1 in = 25.4 mm; NIST SP 811), so no pint is needed to read
+# the material table; tests/test_materials.py checks them against pint.
+LBF_N = 0.45359237 * 9.80665
+PSI_MPA = LBF_N / 25.4**2
+STATED_UNITS: dict[str, float] = {"MPa": 1.0, "GPa": 1e3, "psi": PSI_MPA, "ksi": 1e3 * PSI_MPA}
+_FAMILY = {"MPa": "SI", "GPa": "SI", "psi": "US", "ksi": "US"}
+
+
+@dataclass(frozen=True)
+class Stated:
+    """A stress or modulus as its source states it: the number and the source's unit (one of STATED_UNITS).
+
+    `mpa` is the value converted once for the computation; `in_system(system)` is the number in a unit
+    system's stress unit: the stated number itself in the source's unit, an exact power-of-ten scaling
+    between units of one family (68 ksi is 68000 psi, 68.9 GPa is 68900 MPa), a conversion otherwise."""
+
+    value: float
+    unit: str
+
+    def __post_init__(self) -> None:
+        if self.unit not in STATED_UNITS:
+            raise ValueError(f"stated unit {self.unit!r} is not one of {', '.join(STATED_UNITS)}")
+
+    @property
+    def mpa(self) -> float:
+        """The value in MPa."""
+        return self.value * STATED_UNITS[self.unit]
+
+    def native_to(self, system: str) -> bool:
+        """True when `system`'s stress unit is of the source's family (SI or US customary): there the value
+        is shown as the source's number (scaled by a power of ten at most)."""
+        return _FAMILY[unit_label("stress", system)] == _FAMILY[self.unit]
+
+    def in_system(self, system: str = DEFAULT_SYSTEM) -> float:
+        """The number in the stress unit of `system` (its label: MPa, psi or ksi)."""
+        target = unit_label("stress", system)
+        if self.native_to(system):
+            return float(f"{self.value * STATED_UNITS[self.unit] / STATED_UNITS[target]:.12g}")
+        return float(from_internal(self.mpa, "stress", system))
+
+    def __str__(self) -> str:
+        return f"{format_number(self.value, 6)} {self.unit}"
+
+
+def format_stated(stated: Stated, system: str = DEFAULT_SYSTEM, digits: int = 4) -> str:
+    """A stated value in `system`'s stress unit with its label: "68 ksi" in in-kip-ksi, "68000 psi" in
+    in-lbf-psi, "468.8 MPa" in mm-N-MPa; the source's number wherever `system` is its source's."""
+    return f"{format_number(stated.in_system(system), max(digits, _digits(stated.value)))} {unit_label('stress', system)}"
+
+
+def _digits(value: float) -> int:
+    """Significant figures of a stated number as written (29000 -> 2, 113.8 -> 4)."""
+    text = f"{abs(value):.12g}".replace(".", "").lstrip("0").rstrip("0")
+    return max(len(text), 1)
+
+
 def _dimension_name(dimensionality: pint.util.UnitsContainer) -> str:
     """Plain name of a dimensionality ("a length", "a force", ...) or the raw pint form."""
     ureg = _registry()

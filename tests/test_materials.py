@@ -11,6 +11,7 @@ import pytest
 
 from stressraiser.geometry.materials import FAMILIES, MATERIALS, lookup_material, material_keys
 from stressraiser.geometry.errors import PartError
+from stressraiser.geometry.units import STATED_UNITS, Stated, format_stated
 
 E_RANGE_MPA = {
     "steel": (190_000.0, 215_000.0),
@@ -48,8 +49,40 @@ def test_en_grade_names_state_minimum_yield(key: str, yield_mpa: float) -> None:
 
 
 def test_a36_yield_is_36_ksi() -> None:
-    # ASTM A36 (from memory): Fy 36 ksi; 1 ksi = 6.894757 MPa (NIST SP 811), rel 0.1 %
-    assert lookup_material("a36").yield_mpa == pytest.approx(36 * 6.894757, rel=1e-3)
+    # ASTM A36 (from memory): Fy 36 ksi, kept as stated; 1 ksi = 6.894757 MPa (NIST SP 811)
+    row = lookup_material("a36")
+    assert row.minimum_yield == Stated(36.0, "ksi")
+    assert row.yield_mpa == pytest.approx(36 * 6.894757, rel=1e-7)
+
+
+def test_stated_units_agree_with_pint() -> None:
+    # the exact US customary definitions (NIST SP 811) against pint's own, an independent library
+    import pint
+
+    ureg = pint.UnitRegistry()
+    for unit, mpa in STATED_UNITS.items():
+        assert mpa == pytest.approx(ureg.Quantity(1.0, unit).to("MPa").magnitude, rel=1e-14), unit
+
+
+@pytest.mark.parametrize("key, stated", [("7075-t6", "68 ksi"), ("6061-t6", "35 ksi"), ("2024-t3", "42 ksi"),
+                                         ("ti-6al-4v", "120 ksi"), ("s275", "275 MPa"), ("6082-t6", "255 MPa")])
+def test_minimum_yield_is_kept_as_its_standard_states_it(key: str, stated: str) -> None:
+    # ASTM B209 / B265 minimums in ksi, EN 10025-2 / EN 485-2 minimums in MPa (from memory, as in each row's
+    # source): the number and the unit of the standard, shown again exactly in that standard's unit system
+    row = lookup_material(key)
+    assert str(row.minimum_yield) == stated
+    system = "in-kip-ksi" if stated.endswith("ksi") else "mm-N-MPa"
+    assert format_stated(row.minimum_yield, system) == stated
+    # in the other unit system of the same family, a power of ten: 68 ksi is 68000 psi exactly
+    if system == "in-kip-ksi":
+        assert format_stated(row.minimum_yield, "in-lbf-psi") == f"{int(row.minimum_yield.value) * 1000} psi"
+
+
+def test_every_row_states_its_values_in_a_known_unit() -> None:
+    for row in MATERIALS:
+        for key, value in row.stated():
+            assert value.unit in STATED_UNITS, (row.key, key)
+            assert value.mpa == pytest.approx(value.value * STATED_UNITS[value.unit], rel=1e-15)
 
 
 def test_lookup_ignores_case_and_spaces() -> None:

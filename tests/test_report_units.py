@@ -240,3 +240,36 @@ def test_kt_rows_name_their_nominal() -> None:
     assert [row[0] for row in nominal_rows(result)] == ["Other nominals", "  axial, net section"]
     for label, value, note in kt_rows(_fake_result("in-lbf-psi", pin)):
         assert len(label) <= 24 and len(value) <= 17 and len(note) <= 37  # the key table's columns at 80
+
+
+def test_material_values_are_the_sources_own_numbers(inch_report) -> None:
+    # the example's 6061-T6: ASTM B209 minimum yield 35 ksi and tensile 42 ksi, ASM Handbook vol. 2 fatigue
+    # strength 14 ksi and E = 68.9 GPa (from memory, the table row's source); 35 ksi is 35000 psi exactly
+    r, page, _, printed = inch_report
+    material = r["part"]["material"]
+    assert material["stated"]["yield"] == {"value": 35.0, "unit": "ksi"}
+    assert material["stated"]["E"] == {"value": 68.9, "unit": "GPa"}
+    assert material["yield"] == pytest.approx(35.0 * KSI, rel=1e-12)  # converted once, exactly
+    assert "yield 35000 psi, ultimate 42000 psi, fatigue strength 14000 psi at 5e+08 cycles" in page
+    E, = _one(rf"E {NUMBER} psi \(68\.9 GPa as stated\)", page)  # an SI value in a psi part: both shown
+    assert E * PSI == pytest.approx(68_900.0, rel=REL)
+    assert "(yield 35000 psi / 1.5)" in printed  # the design statements of the summary
+    assert not re.search(r"3480\d psi|3499\d psi", printed + page)  # no round trip through a rounded MPa value
+
+
+def test_material_in_another_unit_system_names_the_sources_number() -> None:
+    from stressraiser.cli.report import material_text
+    from stressraiser.geometry.partfile import part_from_dict
+
+    from conftest import strap
+
+    # ASTM A36: Fy 36 ksi, Fu 58 ksi, E 29 000 ksi (AISC 360-16), from memory as in the table's row; in a
+    # millimetre part each is converted (NIST SP 811: 36 ksi = 248.2 MPa) and the source's number follows
+    spec = part_from_dict(strap(material={"grade": "a36", "ultimate": 420.0}))
+    text = material_text(spec.material, spec.units)
+    assert "yield 248.2 MPa (36 ksi as stated)" in text
+    assert "E 199948 MPa (29000 ksi as stated)" in text
+    assert "ultimate 420 MPa," not in text and text.endswith("ultimate 420 MPa")  # set in the file: no source
+    # an EN grade in a millimetre part is its own number, nothing added
+    spec = part_from_dict(strap(material={"grade": "s275"}))
+    assert material_text(spec.material, spec.units) == "E 210000 MPa, ν 0.3, yield 275 MPa, ultimate 410 MPa"
