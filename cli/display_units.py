@@ -13,7 +13,8 @@ often -1e-15 after meshing.
 Section resultants are shown in larger units: kN and kN·m in mm-N-MPa (as the sections table always
 has); the US systems use their own force and moment units. JSON records are not touched: they stay in
 mm-N-MPa and declare `display_units`. The same holds for the warnings of a check (compare/notices.py):
-`warning_text` writes them in the part file's system, the record keeps their mm-N-MPa text.
+`warning_text` writes them in the part file's system, the record keeps their mm-N-MPa text; an unnamed
+section cut is restated by geometry.cut_labels.cut_label.
 """
 
 from __future__ import annotations
@@ -22,6 +23,7 @@ import math
 import re
 
 from ..compare.notices import Notice
+from ..geometry.cut_labels import cut_label
 from ..geometry.units import DEFAULT_SYSTEM, format_number, to_internal, unit_label
 
 _FIXED = re.compile(r"^(?P<head>[^.]*)\.(?P<decimals>\d+)f$")
@@ -89,30 +91,6 @@ def shown_point(location: tuple[float, float], units: str, spec: str = ".2f") ->
 def point_text(location: tuple[float, float], units: str, spec: str = ".2f") -> str:
     """`shown_point` followed by the length label, e.g. "(0.000, 0.250) in"."""
     return f"{shown_point(location, units, spec)} {label('length', units)}"
-
-
-_THROUGH = re.compile(r"^through \((?P<x1>[^,()]+), (?P<y1>[^,()]+)\) and \((?P<x2>[^,()]+), (?P<y2>[^,()]+)\)$")
-
-
-def cut_label(text: str, point: tuple[float, float], units: str) -> str:
-    """The label of a section cut in `units`. Unnamed cuts are labelled in mm by the part reader ("x = 38.1",
-    "through (0, -5) and (0, 5)", from `point`, the cut's first point in mm); those are re-stated in `units`
-    with the length label. Names the user gave, and every label in mm-N-MPa, are returned as they are."""
-    if units == DEFAULT_SYSTEM:
-        return text
-    length = label("length", units)
-    for axis, coordinate in (("x", point[0]), ("y", point[1])):
-        if text == f"{axis} = {coordinate:g}":
-            return f"{axis} = {shown(coordinate, 'length', units, 'g')} {length}"
-    through = _THROUGH.match(text)
-    if through is not None and (through["x1"], through["y1"]) == (f"{point[0]:g}", f"{point[1]:g}"):
-        try:
-            x1, y1, x2, y2 = (float(through[k]) for k in ("x1", "y1", "x2", "y2"))
-        except ValueError:
-            return text
-        a, b = shown_point((x1, y1), units, "g"), shown_point((x2, y2), units, "g")
-        return f"through {a} and {b} {length}"
-    return text
 
 
 def warning_text(warning: Notice | str, units: str) -> str:

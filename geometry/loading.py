@@ -10,6 +10,7 @@ from dataclasses import replace
 
 from shapely.geometry import LineString
 
+from .cut_labels import cut_label
 from .errors import PartError
 from .kinds import bar
 from .kinds.hole import named as named_hole
@@ -44,9 +45,11 @@ def validate_loading(spec: PartSpec) -> None:
         (px, py), (nx, ny) = section.point, section.normal
         line = LineString([(px + reach * ny, py - reach * nx), (px - reach * ny, py + reach * nx)])
         if outline.intersection(line).length <= 0.0:
-            x0, y0, x1, y1 = outline.bounds
-            raise PartError(f"section {n}: the cut {section.label} misses the part (it spans "
-                            f"x = {x0:g} to {x1:g}, y = {y0:g} to {y1:g} mm)")
+            from .units import format_quantity
+
+            x0, y0, x1, y1 = (format_quantity(v, "length", spec.units) for v in outline.bounds)
+            raise PartError(f"section {n}: the cut {cut_label(section.label, section.point, spec.units)} misses the "
+                            f"part (it spans x = {x0} to {x1}, y = {y0} to {y1})")
 
 
 def case_keys(spec: PartSpec) -> list[tuple[str, LoadCase]]:

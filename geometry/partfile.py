@@ -232,10 +232,13 @@ def _load(t: dict[str, Any], units: str, where: str = "load") -> Load:
         raise PartError(f"{where}.pin: cannot be combined with {where}.{ends[0]}; check the pin load and the end "
                         "loads as separate load cases")
     if load.remote is None and load.pin is None and not load.has_end_loads and not load.edges:
+        from .units import unit_label
+
         name = f"{where}.{ends[0]}" if ends else where
-        raise PartError(f"{name}: every load is zero; give a non-zero {where}.axial (N, positive in tension), "
-                        f"{where}.bending (N mm) or {where}.shear (N), a [load.remote] or [load.pin] table, or "
-                        "[[load.edge]] loads")
+        force, moment = unit_label("force", units), unit_label("moment", units)
+        raise PartError(f"{name}: every load is zero; give a non-zero {where}.axial ({force}, positive in tension), "
+                        f"{where}.bending ({moment}) or {where}.shear ({force}), a [load.remote] or [load.pin] table, "
+                        "or [[load.edge]] loads")
     return load
 
 
@@ -454,7 +457,7 @@ def _fatigue(data: dict[str, Any], spec: PartSpec) -> FatigueSpec | None:
     if q is not None and "notch_sensitivity" in t:
         raise PartError("fatigue.q: give either q or notch_sensitivity, not both")
     if q is None:
-        _method_fits(t, method, m)
+        _method_fits(t, method, m, spec.units)
     strength, exponent, source = _cyclic_curve(t, m, spec.units)
     return FatigueSpec(
         **cycle, notch_sensitivity=method, q=q,
@@ -631,7 +634,7 @@ def _fatigue_material(m: Material, units: str) -> None:
                         "cycles that material.fatigue_strength applies to")
 
 
-def _method_fits(t: dict[str, Any], method: str, m: Material) -> None:
+def _method_fits(t: dict[str, Any], method: str, m: Material, units: str) -> None:
     """The Peterson and Neuber fits are for steels, Neuber's only for Su 340-1700 MPa."""
     from .materials import STEEL_FAMILIES
 
@@ -642,9 +645,12 @@ def _method_fits(t: dict[str, Any], method: str, m: Material) -> None:
         return
     low, high = NEUBER_STEEL_RANGE_MPA
     if method == "neuber" and not low <= m.ultimate <= high:
+        from .units import format_number, format_quantity, from_internal, unit_label
+
+        span = "-".join(format_number(float(from_internal(v, "stress", units)), 3) for v in (low, high))
         raise PartError(f"fatigue.notch_sensitivity: Neuber's steel fit needs an ultimate strength of "
-                        f"{low:.0f}-{high:.0f} MPa; material.ultimate is {m.ultimate:.4g} MPa; use \"peterson\" "
-                        "or give fatigue.q")
+                        f"{span} {unit_label('stress', units)}; material.ultimate is "
+                        f"{format_quantity(m.ultimate, 'stress', units)}; use \"peterson\" or give fatigue.q")
 
 
 def _no_compression(spec: PartSpec, what: str, only: str | None = None) -> None:

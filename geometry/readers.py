@@ -26,7 +26,6 @@ MAGNITUDES = {
     "moment": (1e-6, 1e15),
     "area": (1e-6, 1e12),
 }
-UNIT_NAMES = {"length": "mm", "force": "N", "stress": "MPa", "moment": "N*mm", "area": "mm^2"}
 ANGLE_LIMIT = 360.0  # degrees either way
 
 
@@ -89,22 +88,25 @@ def number(t: dict[str, Any], key: str, where: str, quantity: str | None = None,
         value = math.inf
     if not math.isfinite(value):
         raise PartError(f"{name}: must be a finite number; got {shown(t[key])}")
-    in_range(value, name, quantity)
+    in_range(value, name, quantity, units=units)
     if abs(value) > 1e12:
         raise PartError(f"{name}: must be a finite number of magnitude below 1e12; got {shown(value)}")
     return value
 
 
-def in_range(value: float, name: str, quantity: str | None, positive: bool = False) -> None:
-    """Refuse magnitudes outside MAGNITUDES[quantity]; signed lengths (coordinates) may be small."""
+def in_range(value: float, name: str, quantity: str | None, positive: bool = False, units: str = DEFAULT_UNITS) -> None:
+    """Refuse magnitudes outside MAGNITUDES[quantity] (`value` in mm, N, MPa; the message in `units`);
+    signed lengths (coordinates) may be small."""
     if quantity not in MAGNITUDES or value == 0.0:
         return
     low, high = MAGNITUDES[quantity]
-    unit = UNIT_NAMES[quantity]
-    if abs(value) > high:
-        raise PartError(f"{name}: {value:.6g} {unit} is beyond the largest magnitude allowed, {high:g} {unit}")
-    if abs(value) < low and (positive or quantity != "length"):
-        raise PartError(f"{name}: {value:.6g} {unit} is below the smallest magnitude allowed, {low:g} {unit}")
+    if abs(value) > high or (abs(value) < low and (positive or quantity != "length")):
+        from .units import format_quantity, from_internal, unit_label
+
+        limit = "beyond the largest" if abs(value) > high else "below the smallest"
+        bound = float(from_internal(high if abs(value) > high else low, quantity, units))
+        raise PartError(f"{name}: {format_quantity(value, quantity, units, 6)} is {limit} magnitude allowed, "
+                        f"{bound:.3g} {unit_label(quantity, units)}")
 
 
 def positive(t: dict[str, Any], key: str, where: str, quantity: str | None = None, units: str = DEFAULT_UNITS,
@@ -114,7 +116,7 @@ def positive(t: dict[str, Any], key: str, where: str, quantity: str | None = Non
     if value is not None and value <= 0.0:
         raise PartError(f"{where}.{key}: must be greater than zero; got {shown(t[key])}")
     if value is not None:
-        in_range(value, f"{where}.{key}", quantity, positive=True)
+        in_range(value, f"{where}.{key}", quantity, positive=True, units=units)
     return value
 
 

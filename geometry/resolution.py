@@ -27,6 +27,7 @@ from __future__ import annotations
 from .errors import PartError
 from .registry import outline_size
 from .spec import PartSpec
+from .units import format_quantity
 from .validate import FINEST_ELEMENT_FRACTION
 
 MAX_FEATURES = 200  # features and sections in one part file, all kinds together
@@ -58,18 +59,22 @@ def check_resolution(spec: PartSpec) -> None:
     check_locking(spec)
     from .raisers import part_raisers  # raisers imports validate; import here to keep the order one way
 
+    def length_text(value: float, digits: int = 4) -> str:
+        return format_quantity(value, "length", spec.units, digits)
+
     length, width = outline_size(spec)
     shortest = MIN_LENGTH_FRACTION * width
     if length < shortest:
-        raise PartError(f"plate.length: {length:g} mm is less than {MIN_LENGTH_FRACTION:.0%} of the width "
-                        f"({shortest:.3g} mm); the mesh cannot grade a strip that short without degenerate elements")
+        raise PartError(f"plate.length: {length_text(length)} is less than {MIN_LENGTH_FRACTION:.0%} of the width "
+                        f"({length_text(shortest, 3)}); the mesh cannot grade a strip that short without degenerate "
+                        "elements")
     limit = min_curvature(spec)
     for raiser in part_raisers(spec):
         if not raiser.curvature >= limit:
             raise PartError(
-                f"{raiser.id}: radius {raiser.curvature:.3g} mm is below the smallest the mesh resolves, "
-                f"{limit:.3g} mm ({MIN_CURVATURE_ELEMENTS * FINEST_ELEMENT_FRACTION:.1%} of the plate width "
-                f"{outline_size(spec)[1]:g} mm); enlarge it or model a narrower part")
+                f"{raiser.id}: radius {length_text(raiser.curvature, 3)} is below the smallest the mesh resolves, "
+                f"{length_text(limit, 3)} ({MIN_CURVATURE_ELEMENTS * FINEST_ELEMENT_FRACTION:.1%} of the plate width "
+                f"{length_text(width)}); enlarge it or model a narrower part")
 
 
 def check_locking(spec: PartSpec) -> None:

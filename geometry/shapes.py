@@ -91,7 +91,7 @@ def split_arc(arc: Arc, most: float = 0.5 * math.pi + 1e-9) -> list[Arc]:
 class Edge:
     """A piece of the outline: its line or arc, its name (what loads and supports refer to: "held",
     "loaded", "side", "lug end", "shoulder"; a concave raiser edge is named by its RaiserId) and the
-    words that name it in a message ("the side y = 40")."""
+    words that name it in a message, in the part file's units ("the side y = 40 mm")."""
 
     segment: Segment
     name: str | RaiserId

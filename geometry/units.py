@@ -168,7 +168,8 @@ def format_number(value: float, digits: int = 4) -> str:
         return "0"
     exponent = math.floor(math.log10(abs(value)))
     if not -3 <= exponent < 7:
-        return f"{value:.{digits - 1}e}"
+        mantissa, power = f"{value:.{digits - 1}e}".split("e")
+        return (mantissa.rstrip("0").rstrip(".") if "." in mantissa else mantissa) + "e" + power
     text = f"{value:.{max(0, digits - 1 - exponent)}f}"
     return text.rstrip("0").rstrip(".") if "." in text else text
 

@@ -19,6 +19,7 @@ from .outline import cutout_regions, plate_polygon, segment_coords
 from .registry import RaiserId, kind_of, named, outline_of, outline_raisers, outline_size
 from .shapes import full_circle
 from .spec import PartSpec
+from .units import format_quantity
 
 # Smallest element the mesher may use, as a fraction of the plate width, and how many such elements a
 # ligament must hold. Together they set the thinnest ligament the tool accepts.
@@ -45,13 +46,13 @@ def validate_geometry(spec: PartSpec) -> None:
             raise PartError(f"{rid}: lies off the plate, wholly outside its outline; move it onto the part")
     for name, gaps in feature_gaps(spec).items():
         for other, gap in gaps.items():
-            _check_gap(name, other, gap, limit)
+            _check_gap(name, other, gap, limit, spec.units)
 
 
 def feature_gaps(spec: PartSpec) -> dict[RaiserId, dict[str, float]]:
     """For every raiser, the clear distance (mm) to each outline edge it is not cut from and to the other
     raisers that could be nearer than those edges (0 where they cross, touch or overlap), keyed by their
-    names in words ("the side y = 40", "hole 2"). Raisers farther than the raiser's nearest edge or raiser
+    names in words ("the side y = 40 mm", "hole 2"). Raisers farther than the raiser's nearest edge or raiser
     are left out: they can be neither its thinnest ligament nor a ligament below the limit."""
     plate = plate_polygon(spec)
     tolerance = ON_EDGE * outline_size(spec)[1]
@@ -118,11 +119,13 @@ def _gap(a, b) -> float:
     return 0.0 if a.intersects(b) else float(a.distance(b))
 
 
-def _check_gap(feature: RaiserId, other: str, gap: float, limit: float) -> None:
+def _check_gap(feature: RaiserId, other: str, gap: float, limit: float, units: str) -> None:
+    """Refuse a gap (mm) that is closed or thinner than `limit` (mm); the message in the part file's `units`."""
     if gap <= 0.0:
         raise PartError(f"{feature}: crosses or touches {other}; move it or make it smaller")
     if gap < limit:
         raise PartError(
-            f"{feature}: ligament to {other} is {gap:.3g} mm; at least {limit:.3g} mm is needed "
-            f"({ELEMENTS_PER_LIGAMENT} elements of the finest allowed size)"
+            f"{feature}: ligament to {other} is {format_quantity(gap, 'length', units, 3)}; at least "
+            f"{format_quantity(limit, 'length', units, 3)} is needed ({ELEMENTS_PER_LIGAMENT} elements of the finest "
+            "allowed size)"
         )

@@ -13,6 +13,7 @@ from dataclasses import asdict
 from typing import TYPE_CHECKING, Any
 
 from ..shapes import Edge, Line, Segment, segment_points
+from ..units import format_quantity
 from . import lug_end, stepped
 from .base import OutlineRaiser, RaiserId
 
@@ -43,21 +44,23 @@ def long_edges(spec: PartSpec) -> tuple[float, float]:
 def path(spec: PartSpec) -> tuple[Edge, ...]:
     """The outer boundary as a closed counter-clockwise chain of named lines and arcs (material on the
     left): bottom edge left to right, loaded end, top edge right to left, held end."""
-    half_l = 0.5 * spec.plate.length
+    half_l, units = 0.5 * spec.plate.length, spec.units
     lug = lug_end.lug_end(spec)
     top = stepped.top_chain(spec, *long_edges(spec))
-    chain = [_edge(e.segment.mapped(1, -1), _image(e.name), e.label) for e in top]
+    chain = [_edge(e.segment.mapped(1, -1), _image(e.name), e.label, units) for e in top]
     right_y = segment_points(top[-1].segment)[1][1]
     left_y = segment_points(top[0].segment)[0][1]
     if lug and lug.end == "loaded":
         chain += lug_end.end_arcs(lug)
     else:
-        chain.append(Edge(Line((half_l, -right_y), (half_l, right_y)), "loaded", f"the loaded end x = {half_l:g}"))
-    chain += [_edge(e.segment.reversed(), e.name, e.label) for e in reversed(top)]
+        chain.append(Edge(Line((half_l, -right_y), (half_l, right_y)), "loaded",
+                          f"the loaded end x = {format_quantity(half_l, 'length', units)}"))
+    chain += [_edge(e.segment.reversed(), e.name, e.label, units) for e in reversed(top)]
     if lug and lug.end == "held":
         chain += lug_end.end_arcs(lug)
     else:
-        chain.append(Edge(Line((-half_l, left_y), (-half_l, -left_y)), "held", f"the held end x = {-half_l:g}"))
+        chain.append(Edge(Line((-half_l, left_y), (-half_l, -left_y)), "held",
+                          f"the held end x = {format_quantity(-half_l, 'length', units)}"))
     return tuple(chain)
 
 
@@ -66,10 +69,11 @@ def _image(name: str | RaiserId) -> str | RaiserId:
     return stepped.mirrored(name, "y") if isinstance(name, RaiserId) else name
 
 
-def _edge(segment: Segment, name: str | RaiserId, label: str) -> Edge:
-    """An edge of the long sides, labelled for messages ("the side y = 40", "the fillet 1")."""
+def _edge(segment: Segment, name: str | RaiserId, label: str, units: str) -> Edge:
+    """An edge of the long sides, labelled for messages in the part file's `units` ("the side y = 40 mm",
+    "the fillet 1")."""
     if name == "side":
-        label = f"the side y = {segment_points(segment)[0][1]:g}"
+        label = f"the side y = {format_quantity(segment_points(segment)[0][1], 'length', units)}"
     elif isinstance(name, RaiserId):
         label = f"the {name}"
     return Edge(segment, name, label)

@@ -15,6 +15,7 @@ from typing import TYPE_CHECKING, Any
 from ..errors import PartError
 from ..readers import known, table
 from ..shapes import Arc, Edge, Point
+from ..units import format_point, format_quantity
 from .hole import named
 from .stepped import half_width_at
 
@@ -80,15 +81,16 @@ def check(spec: PartSpec) -> None:
     lug = lug_end(spec)
     if lug is None:
         return
-    n = spec.lug.hole
+    n, units = spec.lug.hole, spec.units
     hole = spec.holes[n - 1]
     if lug.end == "held":
         raise PartError(f"lug.hole: the lug is the loaded end, pulled through its pin against the held end; "
-                        f"{named(n)} must be near x = +{0.5 * spec.plate.length:g}")
+                        f"{named(n)} must be near x = +{format_quantity(0.5 * spec.plate.length, 'length', units)}")
     if math.dist(hole.center, lug.center) > 1e-6 * spec.plate.width:
-        raise PartError(f"lug.hole: {named(n)} takes the pin, so its centre must be at ({lug.center[0]:g}, 0), half "
-                        f"the width ({lug.radius:g} mm) from the {lug.end} end; got ({hole.center[0]:g}, "
-                        f"{hole.center[1]:g})")
+        raise PartError(f"lug.hole: {named(n)} takes the pin, so its centre must be at "
+                        f"{format_point(lug.center, units)}, half the width "
+                        f"({format_quantity(lug.radius, 'length', units)}) from the {lug.end} end; got "
+                        f"{format_point(hole.center, units)}")
     held = any(h.pin == n for h in spec.support.holds)
     for case in spec.load_cases:
         pin = case.load.pin

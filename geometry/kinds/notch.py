@@ -184,17 +184,20 @@ def check(spec: PartSpec, notch: Notch, where: str) -> None:
         raise PartError(f"{where}.x: {format_quantity(notch.x, 'length', units)} lies off the plate, whose long "
                         f"edges run from x = {format_quantity(x_left, 'length', units)} to "
                         f"{format_quantity(x_right, 'length', units)}; put the notch on an edge it cuts")
+    def length(value: float) -> str:
+        return format_quantity(value, "length", spec.units)
+
     half = bar.half_width_at(spec, notch.x)
     if half is None:
         lo, hi = stepped.fillet_zone(spec)
-        raise PartError(f"{where}.x: x = {notch.x:g} lies on the step's shoulder fillet (x = {lo:g} to "
-                        f"{hi:g}); put the notch on a straight edge")
+        raise PartError(f"{where}.x: x = {length(notch.x)} lies on the step's shoulder fillet (x = {length(lo)} to "
+                        f"{length(hi)}); put the notch on a straight edge")
     if notch.depth >= half:
-        raise PartError(f"{where}.depth: {notch.depth:g} mm is not less than half the width at x = "
-                        f"{notch.x:g} ({half:g} mm)")
+        raise PartError(f"{where}.depth: {length(notch.depth)} is not less than half the width at x = "
+                        f"{length(notch.x)} ({length(half)})")
     if notch.shape == "V" and notch.depth < notch.radius:
         raise PartError(f"{where}.depth: a V notch must be at least as deep as its root radius "
-                        f"({notch.radius:g} mm); got {notch.depth:g} mm")
+                        f"({length(notch.radius)}); got {length(notch.depth)}")
 
 
 def record(notch: Notch) -> dict[str, Any]:

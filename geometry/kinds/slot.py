@@ -17,6 +17,7 @@ from typing import TYPE_CHECKING, Any, ClassVar
 
 from ..errors import PartError
 from ..shapes import Arc, Line, Loop, Point, Segment
+from ..units import format_quantity
 from .base import (CurvedEdges, NetCut, Oriented, across, describe_oriented, mirror_oriented, opens_onto_no_edge,
                    read_oriented)
 
@@ -37,8 +38,9 @@ class Slot(Oriented):
 def read(t: dict[str, Any], where: str, units: str) -> Slot:
     slot = Slot(**read_oriented(t, where, units))
     if slot.length <= slot.width:
-        raise PartError(f"{where}.length: {slot.length:g} mm must exceed the width {slot.width:g} mm (the length "
-                        "runs end to end; a slot no longer than it is wide is a hole)")
+        raise PartError(f"{where}.length: {format_quantity(slot.length, 'length', units)} must exceed the width "
+                        f"{format_quantity(slot.width, 'length', units)} (the length runs end to end; a slot no longer "
+                        "than it is wide is a hole)")
     return slot
 
 

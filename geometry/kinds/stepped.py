@@ -21,6 +21,7 @@ from typing import TYPE_CHECKING, Any
 from ..errors import PartError
 from ..readers import choice, known, number, positive, table
 from ..shapes import Arc, Edge, Line
+from ..units import format_quantity
 from .base import CurvedEdges, OutlineRaiser, RaiserId, across
 
 if TYPE_CHECKING:
@@ -54,7 +55,8 @@ def read(data: dict[str, Any], units: str, plate_width: float) -> Step | None:
     known(t, {"x", "width", "radius", "narrow"}, TABLE)
     width = positive(t, "width", TABLE, "length", units)
     if width >= plate_width:
-        raise PartError(f"step.width: the narrow width {width:g} mm must be less than plate.width {plate_width:g} mm")
+        raise PartError(f"step.width: the narrow width {format_quantity(width, 'length', units)} must be less than "
+                        f"plate.width {format_quantity(plate_width, 'length', units)}")
     return Step(x=number(t, "x", TABLE, "length", units), width=width,
                 radius=positive(t, "radius", TABLE, "length", units),
                 narrow=choice(t, "narrow", TABLE, NARROW_ENDS, "loaded"))
@@ -124,7 +126,8 @@ def top_chain(spec: PartSpec, x_left: float, x_right: float) -> list[Edge]:
     wide_point, narrow_point = fillet.first, fillet.last
     chain = [Edge(Line((lo, shape.wide), (xs, shape.wide)), "side")]
     if wide_point[1] < shape.wide - 1e-12 * shape.wide and abs(wide_point[0] - xs) < 1e-9 * shape.wide:
-        chain.append(Edge(Line((xs, shape.wide), wide_point), "shoulder", f"the shoulder at x = {step.x:g}"))
+        chain.append(Edge(Line((xs, shape.wide), wide_point), "shoulder",
+                          f"the shoulder at x = {format_quantity(step.x, 'length', spec.units)}"))
     chain.append(Edge(fillet, TOP, f"the {TOP}"))
     chain.append(Edge(Line(narrow_point, (hi, shape.narrow)), "side"))
     if shape.sense < 0:
@@ -155,13 +158,17 @@ def check(spec: PartSpec, limit: float, x_left: float, x_right: float) -> None:
     if shape is None:
         return
     step = spec.step
+
+    def length(value: float, digits: int = 4) -> str:
+        return format_quantity(value, "length", spec.units, digits)
+
     narrow_end, wide_end = (x_right, x_left) if shape.sense > 0 else (x_left, x_right)
     room = (narrow_end - shape.x_narrow) * shape.sense
     if room < limit:
-        raise PartError(f"step.radius: a {step.radius:g} mm fillet from x = {step.x:g} reaches x = "
-                        f"{shape.x_narrow:g}, which leaves {max(room, 0.0):.3g} mm of narrow part before the "
-                        f"{step.narrow} end; at least {limit:.3g} mm is needed (a smaller radius or step.x)")
+        raise PartError(f"step.radius: a {length(step.radius)} fillet from x = {length(step.x)} reaches x = "
+                        f"{length(shape.x_narrow)}, which leaves {length(max(room, 0.0), 3)} of narrow part before "
+                        f"the {step.narrow} end; at least {length(limit, 3)} is needed (a smaller radius or step.x)")
     wide = (step.x - wide_end) * shape.sense
     if wide < limit:
-        raise PartError(f"step.x: {step.x:g} leaves {max(wide, 0.0):.3g} mm of wide part; at least "
-                        f"{limit:.3g} mm is needed")
+        raise PartError(f"step.x: {length(step.x)} leaves {length(max(wide, 0.0), 3)} of wide part; at least "
+                        f"{length(limit, 3)} is needed")

@@ -43,9 +43,9 @@ class Window(Oriented):
 def read(t: dict[str, Any], where: str, units: str) -> Window:
     window = Window(**read_oriented(t, where, units, ("radius",)), radius=positive(t, "radius", where, "length", units))
     if not 2.0 * window.radius < min(window.length, window.width):
-        raise PartError(f"{where}.radius: {window.radius:g} mm must be less than half the width and half the length "
-                        f"({0.5 * min(window.length, window.width):g} mm); a window rounded that far is a slot or "
-                        "a hole")
+        raise PartError(f"{where}.radius: {format_quantity(window.radius, 'length', units)} must be less than half "
+                        f"the width and half the length ({format_quantity(0.5 * min(window.length, window.width), 'length', units)}); "
+                        "a window rounded that far is a slot or a hole")
     return window
 
 
