@@ -18,11 +18,18 @@ from dataclasses import dataclass
 
 import numpy as np
 import shapely
+from matplotlib.backends.backend_agg import FigureCanvasAgg
+from matplotlib import rcParams
 from matplotlib.figure import Figure
+from matplotlib.font_manager import FontProperties
 from matplotlib.lines import Line2D
+from matplotlib.text import Annotation
 from matplotlib.patches import FancyArrowPatch, Polygon as PolygonPatch
 from matplotlib.ticker import AutoLocator, Formatter
+from matplotlib.transforms import Bbox
 from matplotlib.tri import Triangulation
+from scipy.sparse import coo_matrix
+from scipy.sparse.csgraph import connected_components
 
 from ..compare.check import CheckResult, NetSection
 from ..compare.design import DesignCheck
@@ -33,6 +40,7 @@ from ..geometry.outline import cutout_regions, part_polygon, plate_polygon
 from ..geometry.registry import kind_of, named, raiser_label
 from ..geometry.units import DEFAULT_SYSTEM
 from .citation import short_source
+from .label_placement import annotation_at, at_position, axes_region, figure_region, obstacles, place, settle
 from .summary import estimate_how
 from .display_units import cut_label, display_unit, label as unit_label, point_text, quantity_text, shown, unsigned_zero
 
@@ -154,14 +162,28 @@ def _peak_radius(result: CheckResult) -> float:
     return 0.1 * (maxy - miny)
 
 
-def _raiser_centre(result: CheckResult) -> tuple[float, float]:
-    """Centre of the bounding box of the edges of the raiser holding the peak (a hole's centre), else the
-    peak itself."""
+def _raiser_points(result: CheckResult) -> np.ndarray | None:
+    """Boundary nodes (mm) of the piece of the peak's raiser that holds the peak: the whole edge of a hole,
+    the one notch of an opposite pair the peak is in. None when the finest mesh does not name the raiser."""
     mesh = result.solution.mesh
     edges = mesh.edges.get(result.peak.feature)
     if edges is None or not len(edges):
+        return None
+    nodes, local = np.unique(np.asarray(edges), return_inverse=True)
+    local = local.reshape(-1, 2)
+    graph = coo_matrix((np.ones(len(local)), (local[:, 0], local[:, 1])), shape=(len(nodes), len(nodes)))
+    _, piece = connected_components(graph, directed=False)
+    points = mesh.nodes[nodes]
+    nearest = int(np.argmin(np.hypot(*(points - np.asarray(result.peak.location)).T)))
+    return points[piece == piece[nearest]]
+
+
+def _raiser_centre(result: CheckResult) -> tuple[float, float]:
+    """Centre of the bounding box of the edge of the raiser piece holding the peak (a hole's centre), else the
+    peak itself."""
+    points = _raiser_points(result)
+    if points is None:
         return tuple(result.peak.location)  # type: ignore[return-value]
-    points = mesh.nodes[np.unique(edges)]
     return tuple(0.5 * (points.min(axis=0) + points.max(axis=0)))  # type: ignore[return-value]
 
 
@@ -176,21 +198,20 @@ def _zoom_window(result: CheckResult, centre: tuple[float, float], half: float
 
 
 def _raiser_window(result: CheckResult):
-    """Window showing the whole raiser that holds the peak: around the bounding box of its boundary edges
-    when the mesh names them (else its centre), at least 2.2 of its smallest radii each way."""
-    mesh = result.solution.mesh
-    edges = mesh.edges.get(result.peak.feature)
+    """Window showing the whole raiser piece that holds the peak (one notch of a pair): around the bounding box
+    of its boundary edges when the mesh names them (else the peak), at least 2.2 of its smallest radii each
+    way."""
+    points = _raiser_points(result)
     half = 2.2 * _peak_radius(result)
-    if edges is not None and len(edges):
-        points = mesh.nodes[np.unique(edges)]
+    if points is not None:
         half = max(half, 0.55 * float(np.max(points.max(axis=0) - points.min(axis=0))) * 1.25)
     return _zoom_window(result, _raiser_centre(result), half)
 
 
-def _peak_window(result: CheckResult):
-    """Close window at the peak itself, a third of the raiser radius each way, shifted away from the
-    raiser's centre so that it shows mostly material."""
-    half = 0.33 * _peak_radius(result)
+def _peak_window(result: CheckResult, radii: float = 0.33):
+    """Close window at the peak itself, `radii` raiser radii each way, shifted away from the raiser's centre
+    so that it shows mostly material."""
+    half = radii * _peak_radius(result)
     (px, py), (cx, cy) = result.peak.location, _raiser_centre(result)
     away = np.hypot(px - cx, py - cy)
     shift = 0.8 * half / away if away > 0 else 0.0
@@ -216,14 +237,58 @@ def _box(ax, window, colour: str) -> None:
 
 class DisplayLocator(AutoLocator):
     """Ticks at round numbers of a display unit on an axis whose data are in internal units; `factor` is
-    internal units per display unit (cli/display_units.display_unit)."""
+    internal units per display unit (cli/display_units.display_unit). On a horizontal axis the ticks thin
+    out until their labels, measured by their characters at the tick labels' font size, fit the axis's
+    length with a gap between them (long labels such as "−0.075" on a small close-up)."""
 
     def __init__(self, factor: float) -> None:
         super().__init__()
         self.factor = factor
 
     def tick_values(self, vmin: float, vmax: float) -> np.ndarray:
-        return np.asarray(super().tick_values(vmin / self.factor, vmax / self.factor)) * self.factor
+        low, high = sorted((vmin / self.factor, vmax / self.factor))
+        ticks = self._round(low, high, "auto")
+        room = self._room()
+        while room is not None and len(ticks) > 2 and _label_width(ticks, low, high, self._font_px()) > room:
+            fewer = self._round(low, high, max(1, len(ticks) - 3))
+            if len(fewer) >= len(ticks):
+                break
+            ticks = fewer
+        return ticks * self.factor
+
+    def _round(self, low: float, high: float, nbins) -> np.ndarray:
+        """Round ticks in the display unit with at most `nbins` intervals ("auto": matplotlib's choice)."""
+        self.set_params(nbins=nbins)
+        try:
+            return np.asarray(super().tick_values(low, high))
+        finally:
+            self.set_params(nbins="auto")
+
+    def _room(self) -> float | None:
+        """Length (pixels) of a horizontal axis; None for a vertical one, or before the axis has an axes."""
+        axis = self.axis
+        if axis is None or getattr(axis, "axis_name", None) != "x" or axis.axes is None:
+            return None
+        return float(axis.axes.bbox.width)
+
+    def _font_px(self) -> float:
+        """Font size (pixels) of the axis's tick labels."""
+        size = FontProperties(size=rcParams["xtick.labelsize"]).get_size_in_points()
+        return size * self.axis.axes.figure.dpi / 72.0
+
+
+def _label_width(ticks: np.ndarray, low: float, high: float, font_px: float) -> float:
+    """Pixels the labels of the ticks inside [low, high] take in a row, with a gap of a character and a half
+    between neighbours (a digit of DejaVu Sans is about 0.64 of the font size wide)."""
+    shown = [t for t in ticks if low - 1e-9 * abs(high - low) <= t <= high + 1e-9 * abs(high - low)]
+    decimals = _decimals(shown)
+    chars = sum(len(f"{t:.{decimals}f}") for t in shown)
+    return 0.64 * font_px * (chars + 1.5 * max(len(shown) - 1, 0))
+
+
+def _decimals(values) -> int:
+    """The fewest decimals (at most 6) that show every value exactly."""
+    return next((d for d in range(7) if all(abs(round(v, d) - v) <= 1e-9 * max(1.0, abs(v)) for v in values)), 6)
 
 
 class DisplayFormatter(Formatter):
@@ -236,9 +301,7 @@ class DisplayFormatter(Formatter):
 
     def set_locs(self, locs) -> None:
         super().set_locs(locs)
-        values = [float(v) / self.factor for v in locs]
-        self.decimals = next((d for d in range(7) if all(abs(round(v, d) - v) <= 1e-9 * max(1.0, abs(v))
-                                                          for v in values)), 6)
+        self.decimals = _decimals([float(v) / self.factor for v in locs])
 
     def __call__(self, x: float, pos: int | None = None) -> str:
         return unsigned_zero(f"{x / self.factor:.{self.decimals}f}").replace("-", "\N{MINUS SIGN}")
@@ -317,33 +380,101 @@ def outline_figure(result: CheckResult) -> Figure:
     _draw_support(ax, spec, (minx, miny, maxx, maxy), step)
     _draw_loads(ax, spec, (minx, miny, maxx, maxy), step)
     _draw_raisers(ax, result)
-    if raisers:
-        handles = [Line2D([], [], ls="none", label=f"{rid}: {kind_of(item).describe(item, units)}")
-                   for rid, item in raisers]
-        fig.legend(handles=handles, loc="outside lower center", ncols=min(2, len(handles)), fontsize=9,
-                   frameon=False, handlelength=0, handletextpad=0, columnspacing=1.5)
+    legend = _raiser_legend(fig, result)
     # critical sections; sections on the same cut share one line and one label
     cuts: dict[tuple, list[SectionView]] = {}
     for view in critical_sections(result):
         key = tuple(np.round(np.concatenate([view.point, view.normal]), 6))
         cuts.setdefault(key, []).append(view)
+    section_labels = []
     for views in cuts.values():
         view = views[0]
         lo = min(a for v in views for a, _ in v.section.ligaments) - 0.25 * step
         hi = max(b for v in views for _, b in v.section.ligaments) + 0.25 * step
         a, b = view.ends(lo, hi)
         ax.plot([a[0], b[0]], [a[1], b[1]], color=FE_LINE, lw=1.0, ls="--")
-        low = a if a[1] <= b[1] else b
+        low, high = (a, b) if a[1] <= b[1] else (b, a)
         names = ", ".join(v.label.removeprefix("section ") for v in views)
         label = ("sections " if len(views) > 1 else "section ") + names
-        ax.text(low[0], low[1] - 0.1 * step, label + (f"\n{view.where(units)}" if view.across_x else ""),
-                ha="center", va="top", fontsize=8, color=FE_LINE)
+        text = ax.text(low[0], low[1] - 0.1 * step, label + (f"\n{view.where(units)}" if view.across_x else ""),
+                       ha="center", va="top", fontsize=8, color=FE_LINE)
+        gap = 0.1 * step
+        section_labels.append((text, [at_position(low[0], low[1] - gap, "center", "top"),
+                                      at_position(high[0], high[1] + gap, "center", "bottom"),
+                                      at_position(low[0] + gap, low[1], "left", "bottom"),
+                                      at_position(low[0] - gap, low[1], "right", "bottom"),
+                                      at_position(high[0] + gap, high[1], "left", "top"),
+                                      at_position(high[0] - gap, high[1], "right", "top")]))
     ax.text(0.99, 0.01, f"thickness {_fmt(spec.plate.thickness, 'length', units)} · origin at the plate centre",
             transform=ax.transAxes, ha="right", va="bottom", fontsize=8, color=GROSS_LINE)
     _frame(ax, xlim, ylim, units)
     for side in ("top", "right"):
         ax.spines[side].set_visible(False)
+    _fit_legend(fig, legend, 2, handlelength=0, handletextpad=0)
+    names = [(t, [annotation_at(dx, dy, ha, va) for dx, dy, ha, va in RAISER_NAME_SPOTS], ax) for t in ax.texts
+             if isinstance(t, Annotation)]
+    _settle_and_place(fig, [(text, spots, ax) for text, spots in section_labels] + names)
     return fig
+
+
+# offsets (points) and alignment of a raiser's name from the corner of its cut-out, in order of preference
+RAISER_NAME_SPOTS = ((4, 4, "left", "bottom"), (-4, 4, "right", "bottom"), (4, -4, "left", "top"),
+                     (-4, -4, "right", "top"), (14, 0, "left", "center"), (-14, 0, "right", "center"))
+
+
+# offsets (points) and alignment of a label from the point it names, in order of preference
+AROUND = ((0, 9, "center", "bottom"), (0, -9, "center", "top"), (9, 0, "left", "center"), (-9, 0, "right", "center"),
+          (9, 9, "left", "bottom"), (-9, 9, "right", "bottom"), (9, -9, "left", "top"), (-9, -9, "right", "top"))
+
+
+def around(first: tuple[float, float, str, str] | None = None, reach: float = 1.0) -> list:
+    """Candidates for a label of a point: `first` (offset points and alignment), then AROUND scaled by
+    `reach`."""
+    spots = ([first] if first else []) + [(reach * dx, reach * dy, ha, va) for dx, dy, ha, va in AROUND]
+    return [annotation_at(*spot) for spot in spots]
+
+
+def _settle_and_place(fig: Figure, labels, sizes=()) -> None:
+    """Lay the figure out once, then place each (text, candidates, axes) in order, inside its axes (the figure
+    when axes is None) and clear of everything else and of the labels placed before it."""
+    renderer = settle(fig)
+    avoid = obstacles(fig, renderer, skip=[text for text, _, _ in labels])
+    for text, candidates, ax in labels:
+        place(text, candidates, renderer, avoid, figure_region(fig) if ax is None else axes_region(ax, renderer), sizes)
+
+
+def _raiser_legend(fig: Figure, result: CheckResult):
+    """Below the drawing, each raiser's dimensions in its kind's words (None without raisers)."""
+    units = result.spec.units
+    raisers = named(result.spec)
+    if not raisers:
+        return None
+    handles = [Line2D([], [], ls="none", label=f"{rid}: {kind_of(item).describe(item, units)}")
+               for rid, item in raisers]
+    return fig.legend(handles=handles, loc="outside lower center", ncols=min(2, len(handles)), fontsize=9,
+                      frameon=False, handlelength=0, handletextpad=0, columnspacing=1.5)
+
+
+def _fit_legend(fig: Figure, legend, ncols: int = 2, **options) -> None:
+    """A figure legend below the axes ("outside lower center", `ncols` columns, drawn with `options`) whose
+    columns are wider than the figure goes to one column (the figure grows to hold its rows), and to a
+    smaller type if one entry is still too wide: no entry is cut at the figure's edge."""
+    if legend is None:
+        return
+    renderer = (fig.canvas if isinstance(fig.canvas, FigureCanvasAgg) else FigureCanvasAgg(fig)).get_renderer()
+    room = 0.98 * fig.bbox.width
+    if legend.get_window_extent(renderer).width <= room:
+        return
+    handles, labels = legend.legend_handles, [t.get_text() for t in legend.get_texts()]
+    rows_before = math.ceil(len(labels) / min(ncols, len(labels)))
+    legend.remove()
+    for size in (9, 8, 7):
+        legend = fig.legend(handles, labels, loc="outside lower center", ncols=1, fontsize=size, frameon=False,
+                            **options)
+        if legend.get_window_extent(renderer).width <= room or size == 7:
+            break
+        legend.remove()
+    fig.set_figheight(fig.get_figheight() + 0.22 * (len(labels) - rows_before))
 
 
 def _draw_raisers(ax, result: CheckResult) -> None:
@@ -533,6 +664,7 @@ def mesh_figure(result: CheckResult) -> Figure:
         for spine in axis.spines.values():
             spine.set_edgecolor(colour)
             spine.set_linewidth(1.2)
+    settle(fig)
     return fig
 
 
@@ -565,22 +697,76 @@ def stress_map_figure(result: CheckResult) -> Figure:
                            rasterized=True)
     _outline_patches(result, near, fill="none", edge=INK, lw=0.8)
     near.plot(px, py, marker="o", ms=9, mfc="none", mec="white", mew=2.0)
-    cx, cy = 0.5 * sum(window[0]), 0.5 * sum(window[1])
-    near.annotate(f"peak {quantity_text(result.peak.stress, 'stress', units)}\n(finest mesh "
-                  f"{shown(result.peak.fe_stress, 'stress', units)})", xy=(px, py),
-                  xytext=(cx, cy), fontsize=9, color="white", ha="center", va="center",
-                  arrowprops=dict(arrowstyle="-|>", color=INK, lw=0.9, shrinkA=4, shrinkB=6),
-                  bbox=dict(boxstyle="round,pad=0.3", facecolor=INK, edgecolor="none", alpha=0.85))
+    label = near.annotate(f"peak {quantity_text(result.peak.stress, 'stress', units)}\n(finest mesh "
+                          f"{shown(result.peak.fe_stress, 'stress', units)})", xy=(px, py),
+                          xytext=(0.5 * sum(window[0]), 0.5 * sum(window[1])), fontsize=9, color="white",
+                          ha="center", va="center",
+                          arrowprops=dict(arrowstyle="-|>", color=INK, lw=0.9, shrinkA=4, shrinkB=6),
+                          bbox=dict(boxstyle="round,pad=0.3", facecolor=INK, edgecolor="none", alpha=0.85))
+    label.set_in_layout(False)
     near.set_title(f"max principal around {raiser_label(result.peak.feature)}", fontsize=10, loc="left")
     _frame(near, *window, units)
     unit_colorbar(fig.colorbar(image, ax=near, shrink=0.9, pad=0.02), "stress", units, "max principal")
+    hot_spot = _hot_spot_inset(result, near, window, s1, limits)
     image = other.tripcolor(close, vm, shading="gouraud", cmap=STRESS_MAP, rasterized=True,
                             vmin=0.0, vmax=float(np.max(vm[np.unique(close.triangles)])))
     _outline_patches(result, other, fill="none", edge=INK, lw=0.8)
     other.set_title("von Mises, same close-up", fontsize=10, loc="left")
     _frame(other, *window, units)
     unit_colorbar(fig.colorbar(image, ax=other, shrink=0.9, pad=0.02), "stress", units, "von Mises")
+    renderer = settle(fig)
+    avoid = obstacles(fig, renderer, skip=[label])
+    # the label keeps clear of the hot spot itself (a ring of the peak marker's size and the root radius)
+    peak_px = near.transData.transform((px, py))
+    reach = max(16.0, float(near.transData.transform((px + _peak_radius(result), py))[0] - peak_px[0]))
+    avoid.append(Bbox.from_extents(*(peak_px - reach), *(peak_px + reach)))
+    if hot_spot is not None:
+        avoid += [hot_spot.get_window_extent(renderer), *(patch.get_window_extent(renderer) for patch in
+                                                          near.patches if patch.get_label() == HOT_SPOT_BOX)]
+    (x0, x1), (y0, y1) = window
+    spots = [annotation_at(x0 + fx * (x1 - x0), y0 + fy * (y1 - y0))
+             for fx, fy in ((0.5, 0.5), (0.5, 0.78), (0.5, 0.22), (0.28, 0.5), (0.72, 0.5), (0.28, 0.78),
+                            (0.72, 0.78), (0.28, 0.22), (0.72, 0.22))]
+    place(label, spots, renderer, avoid, axes_region(near, renderer), (8,))
     return fig
+
+
+HOT_SPOT_FRACTION = 0.12  # a peak radius below this fraction of the close-up's half width gets an inset
+HOT_SPOT_RADII = 2.5  # the inset's half width, in peak radii
+HOT_SPOT_BOX = "hot spot"  # the label of the box the inset zooms on
+
+
+def _hot_spot_inset(result: CheckResult, near, window, s1: np.ndarray, limits: tuple[float, float]):
+    """An inset in the raiser close-up `near`, zoomed on the peak, when the raiser's radius at the peak is
+    small against the close-up (a sharp notch root, a small hole in a long edge): the hot spot itself,
+    HOT_SPOT_RADII of that radius each way. Placed in the corner of the close-up farthest from the peak;
+    returns the inset axes, or None when the close-up already shows the hot spot."""
+    radius = _peak_radius(result)
+    half = 0.5 * (window[0][1] - window[0][0])
+    if radius >= HOT_SPOT_FRACTION * half:
+        return None
+    zoom = _peak_window(result, HOT_SPOT_RADII)
+    px, py = result.peak.location
+    (x0, x1), (y0, y1) = window
+    corners = [(fx, fy) for fx in (0.02, 0.58) for fy in (0.02, 0.58)]
+    fx, fy = max(corners, key=lambda c: math.hypot(x0 + (c[0] + 0.2) * (x1 - x0) - px,
+                                                   y0 + (c[1] + 0.2) * (y1 - y0) - py))
+    inset = near.inset_axes([fx, fy, 0.4, 0.4])
+    inset.tripcolor(_window_triangulation(result, zoom), s1, shading="gouraud", cmap=STRESS_MAP, vmin=limits[0],
+                    vmax=limits[1], rasterized=True)
+    _outline_patches(result, inset, fill="none", edge=INK, lw=0.8)
+    inset.plot(px, py, marker="o", ms=7, mfc="none", mec="white", mew=1.5)
+    inset.set_aspect("equal")
+    inset.set_xlim(*zoom[0])
+    inset.set_ylim(*zoom[1])
+    inset.set_xticks([])
+    inset.set_yticks([])
+    for spine in inset.spines.values():
+        spine.set_edgecolor("white")
+        spine.set_linewidth(1.2)
+    box = near.indicate_inset_zoom(inset, edgecolor="white", alpha=0.9)
+    (box.rectangle if hasattr(box, "rectangle") else box[0]).set_label(HOT_SPOT_BOX)
+    return inset
 
 
 # --- the signature picture: stress across a critical section -----------------------------------------
@@ -618,10 +804,11 @@ def section_figure(result: CheckResult, view: SectionView) -> Figure:
         name = nominal_label(result, view)
         ax.axhline(nominal, color=HANDBOOK_MARK, lw=1.2, ls="--", zorder=2,
                    label=f"nominal stress of Kt ({name}) {quantity_text(nominal, 'stress', units)}")
-    # the converged peak: at its own position when it lies on this cut, else at the cut's maximum
+    # the converged peak: at its own position when it lies on this cut, else (a fillet's peak beside the
+    # cut through the fillets' ends) at the end of the ligament nearest to it, the edge where it is
     along, off = view.position(view.location)
     on_cut = abs(off) <= 1e-6 * max(1.0, abs(hi - lo))
-    yp = along if on_cut else float(y[int(np.argmax(s))])
+    yp = along if on_cut else peak_edge(view)
     ax.plot(yp, view.peak, marker="o", ms=7, color=INK, zorder=5)
     ax.vlines(yp, ns.average, view.peak, colors=INK, lw=0.8, ls="--", zorder=5)
     # the label sits in a band above all the curves, pointing down at the peak; it never covers data
@@ -631,17 +818,23 @@ def section_figure(result: CheckResult, view: SectionView) -> Figure:
     left, right = lo - 0.02 * (hi - lo), hi + 0.02 * (hi - lo)
     where = (yp - left) / (right - left)
     ha = "left" if where < 0.3 else "right" if where > 0.7 else "center"
-    offside = "" if on_cut else (f"\nthe peak lies {quantity_text(abs(off), 'length', units, '.2f')} off this cut, "
-                                 f"at {point_text(view.location, units)}; marked at the cut's highest point")
+    offside = "" if on_cut else (f"\nit lies {quantity_text(abs(off), 'length', units, '.2f')} off this cut, at "
+                                 f"{point_text(view.location, units)}:\nmarked at the edge nearest to it")
     basis = "the nominal stress of Kt" if own_nominal else "net-section average"
-    ax.annotate(f"peak {quantity_text(view.peak, 'stress', units)} ({raiser_label(view.feature)}, converged) = "
-                f"{view.kt_net:.2f} × {basis};\n"
-                f"the {basis.removeprefix('the ')} understates the peak by {1 - nominal / view.peak if view.peak else 0.0:.0%}{offside}",
-                xy=(yp, view.peak), xytext=(yp, top + 0.13 * span), ha=ha, va="bottom", fontsize=9, color=INK,
-                arrowprops=dict(arrowstyle="-|>", color=INK, lw=0.8, shrinkA=2, shrinkB=5),
-                bbox=dict(boxstyle="round,pad=0.3", facecolor="white", edgecolor=INK, lw=0.6), zorder=6)
+    band = top + 0.13 * span
+    label = ax.annotate(
+        f"peak {quantity_text(view.peak, 'stress', units)} ({raiser_label(view.feature)}, converged)\n"
+        f"= {view.kt_net:.2f} × {basis}: the {basis.removeprefix('the ').removeprefix('net-section ')} understates "
+        f"it by {1 - nominal / view.peak if view.peak else 0.0:.0%}{offside}",
+        xy=(yp, view.peak), xytext=(yp, band), ha=ha, va="bottom", fontsize=9, color=INK,
+        arrowprops=dict(arrowstyle="-|>", color=INK, lw=0.8, shrinkA=2, shrinkB=5),
+        bbox=dict(boxstyle="round,pad=0.3", facecolor="white", edgecolor=INK, lw=0.6), zorder=6)
+    label.set_in_layout(False)
+    inset = 0.01 * (right - left)
+    label_spots = [annotation_at(yp, band, ha, "bottom"), annotation_at(left + inset, band, "left", "bottom"),
+                   annotation_at(right - inset, band, "right", "bottom"), annotation_at(0.5 * (left + right), band)]
     ax.set_xlim(left, right)
-    ax.set_ylim(bottom - 0.05 * span, top + (0.36 if on_cut else 0.46) * span)
+    ax.set_ylim(bottom - 0.05 * span, top + (0.36 if on_cut else 0.56) * span)
     # the three levels a reviewer compares, named on the right-hand axis
     def level(value: float) -> str:
         return shown(value, "stress", units, ".0f")
@@ -663,8 +856,18 @@ def section_figure(result: CheckResult, view: SectionView) -> Figure:
                  f"net area {quantity_text(ns.area, 'area', units)}", fontsize=10, loc="left")
     ax.grid(True, color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)
-    fig.legend(loc="outside lower center", ncols=2 if own_nominal else 3, fontsize=8, frameon=False)
+    ncols = 2 if own_nominal else 3
+    _fit_legend(fig, fig.legend(loc="outside lower center", ncols=ncols, fontsize=8, frameon=False), ncols)
+    _settle_and_place(fig, [(label, label_spots, ax)], (8, 7))
     return fig
+
+
+def peak_edge(view: SectionView) -> float:
+    """Position along the cut (mm) of the ligament end nearest to the peak's own position projected onto the
+    cut: the edge where a peak that lies off the cut is."""
+    along, _ = view.position(view.location)
+    ends = [end for ligament in view.section.ligaments for end in ligament]
+    return float(min(ends, key=lambda end: abs(end - along)))
 
 
 def nominal_label(result: CheckResult, view: SectionView) -> str:
@@ -701,11 +904,13 @@ def cut_figure(result: CheckResult, section: SectionResult) -> Figure:
     ax.plot(where, peak, "o", ms=7, color=INK, zorder=5)
     first, last = float(y.min()), float(y.max())
     share = (where - first) / max(last - first, 1e-9)
-    ax.annotate(f"largest normal traction {quantity_text(peak, 'stress', units)}",
-                xy=(where, peak), xytext=(0, 12 if peak >= 0 else -12),
-                textcoords="offset points", ha="left" if share < 0.3 else "right" if share > 0.7 else "center",
-                va="bottom" if peak >= 0 else "top", fontsize=9,
-                bbox=dict(boxstyle="round,pad=0.25", facecolor="white", edgecolor="none", alpha=0.9))
+    first = (0, 12 if peak >= 0 else -12, "left" if share < 0.3 else "right" if share > 0.7 else "center",
+             "bottom" if peak >= 0 else "top")
+    label = ax.annotate(f"largest normal traction {quantity_text(peak, 'stress', units)}",
+                        xy=(where, peak), xytext=first[:2], textcoords="offset points", ha=first[2], va=first[3],
+                        fontsize=9, bbox=dict(boxstyle="round,pad=0.25", facecolor="white", edgecolor="none",
+                                              alpha=0.9))
+    label.set_in_layout(False)
     values = np.concatenate([sn, st, [section.average_normal, 0.0]])
     low, high = float(values.min()), float(values.max())
     pad = 0.18 * max(high - low, 1e-9)
@@ -717,7 +922,8 @@ def cut_figure(result: CheckResult, section: SectionResult) -> Figure:
     ax.set_title(name if name == where else f"{name}, {where}", fontsize=10, loc="left")
     ax.grid(True, color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)
-    fig.legend(loc="outside lower center", ncols=3, fontsize=8, frameon=False)
+    _fit_legend(fig, fig.legend(loc="outside lower center", ncols=3, fontsize=8, frameon=False), 3)
+    _settle_and_place(fig, [(label, around(first, 1.4), ax)])
     return fig
 
 
@@ -754,9 +960,8 @@ def convergence_figure(result: CheckResult) -> Figure:
                  else f"order {est.used_order:.2f} (observed {est.order:.2f})")
         ax.plot(hh, curve, color=FE_LINE, lw=1.0, ls="--", label=f"fitted error curve, {order}, Fs {est.safety:g}")
     ax.plot(h, peaks, "o-", color=INK, ms=6, lw=1.2, label="FE peak of each mesh level")
-    for lv, x, p in zip(study.levels, h, peaks):
-        ax.annotate(f"{2 * lv.nodes:,} DOFs", xy=(x, p), xytext=(6, 5), textcoords="offset points", fontsize=8,
-                    color=GROSS_LINE)
+    dofs = [ax.annotate(f"{2 * lv.nodes:,} DOFs", xy=(x, p), xytext=(6, 5), textcoords="offset points", fontsize=8,
+                        color=GROSS_LINE) for lv, x, p in zip(study.levels, h, peaks)]
     how = estimate_how(est)
     ax.errorbar([0.0], [est.value], yerr=[[band], [band]], fmt="D", color=FE_LINE, ms=7, capsize=4, lw=1.2,
                 label=f"{how}: {quantity_text(est.value, 'stress', units)}")
@@ -771,7 +976,8 @@ def convergence_figure(result: CheckResult) -> Figure:
                  fontsize=10, loc="left")
     ax.grid(True, color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)
-    fig.legend(loc="outside lower center", ncols=2, fontsize=8, frameon=False)
+    _fit_legend(fig, fig.legend(loc="outside lower center", ncols=2, fontsize=8, frameon=False), 2)
+    _settle_and_place(fig, [(label, around((6, 5, "left", "bottom")), ax) for label in dofs])
     return fig
 
 
@@ -796,16 +1002,16 @@ def handbook_figure(result: CheckResult) -> Figure | None:
     rows = np.arange(len(labels))[::-1]
     dots.axvspan(kt.net - band, kt.net + band, color=FE_LINE, alpha=0.15, lw=0)
     dots.errorbar([kt.net], [rows[0]], xerr=[[band], [band]], fmt="D", color=FE_LINE, ms=7, capsize=4)
+    dot_labels = []
     for row, m in zip(rows[1:], matches):
         dots.plot([m.kt_net], [row], "o", ms=8, color=HANDBOOK_MARK, mfc=HANDBOOK_MARK if m.in_range else "white",
                   mew=1.5)
-        dots.annotate(f"{m.kt_net:.3f} (FE {kt.net / m.kt_net - 1:+.1%})" + ("" if m.in_range else ", outside range"),
-                      xy=(m.kt_net, row), xytext=(0, 9), textcoords="offset points", ha="center", fontsize=8)
-    dots.annotate(f"{kt.net:.3f} ± {kt.error:.2%}", xy=(kt.net, rows[0]), xytext=(0, 9),
-                  textcoords="offset points", ha="center", fontsize=8, color=FE_LINE)
-    values = [kt.net - band, kt.net + band] + [m.kt_net for m in matches]
-    spread = max(max(values) - min(values), 0.02 * kt.net)
-    dots.set_xlim(min(values) - 0.6 * spread, max(values) + 0.6 * spread)
+        dot_labels.append(dots.annotate(
+                      f"{m.kt_net:.3f} (FE {kt.net / m.kt_net - 1:+.1%})" + ("" if m.in_range else ", outside range"),
+                      xy=(m.kt_net, row), xytext=(0, 9), textcoords="offset points", ha="center", fontsize=8))
+    dot_labels.insert(0, dots.annotate(f"{kt.net:.3f} ± {kt.error:.2%}", xy=(kt.net, rows[0]), xytext=(0, 9),
+                                       textcoords="offset points", ha="center", fontsize=8, color=FE_LINE))
+    dots.set_xlim(*kt_span([kt.net - band, kt.net + band] + [m.kt_net for m in matches], kt.net))
     dots.set_ylim(-0.7, len(labels) - 0.4)
     dots.set_yticks(rows, labels, fontsize=8)
     dots.set_xlabel("Kt on the net section (–)")
@@ -820,14 +1026,34 @@ def handbook_figure(result: CheckResult) -> Figure | None:
         ax.plot(xs, ys, color=HANDBOOK_MARK, lw=1.6, label=short_source(case.source))
         x = params[curve_key]
         fe = kt.net if case.nominal == "net" else kt.gross
-        ax.errorbar([x], [fe], yerr=[[fe * kt.error if math.isfinite(kt.error) else 0.0]] * 2, fmt="D",
-                    color=FE_LINE, ms=7, capsize=4, label=f"this part: {curve_key} = {x:.3g}, Kt = {fe:.3f}")
+        fe_band = fe * kt.error if math.isfinite(kt.error) else 0.0
+        ax.axhspan(fe - fe_band, fe + fe_band, color=FE_LINE, alpha=0.15, lw=0)
+        ax.errorbar([x], [fe], yerr=[[fe_band]] * 2, fmt="D", color=FE_LINE, ms=7, capsize=4,
+                    label=f"this part: {curve_key} = {x:.3g}, Kt = {fe:.3f}")
+        ax.set_ylim(*kt_span(list(ys) + [fe - fe_band, fe + fe_band], fe))
         ax.set_xlabel(curve_key + " (–)")
         ax.set_ylabel(f"Kt, {case.nominal} nominal {case.nominal_text} (–)")
         ax.set_title("preferred case over its range", fontsize=9, loc="left")
         ax.grid(True, color="#e4e4e4", lw=0.6)
         ax.legend(fontsize=8, loc="best")
+    _settle_and_place(fig, [(label, around(), dots) for label in dot_labels])
     return fig
+
+
+MIN_KT_SPAN = 0.2  # the shortest Kt axis of the handbook figure, as a fraction of the FE Kt
+
+
+def kt_span(values: list[float], kt: float) -> tuple[float, float]:
+    """Limits of a Kt axis that shows `values` on an honest scale: their range with a margin, and never less
+    than MIN_KT_SPAN of `kt` around their middle, so that a 2 % difference looks like 2 % of the axis's
+    reach, not like its whole width."""
+    low, high = min(values), max(values)
+    margin = 0.15 * (high - low)
+    low, high = low - margin, high + margin
+    short = MIN_KT_SPAN * abs(kt) - (high - low)
+    if short > 0:
+        low, high = low - 0.5 * short, high + 0.5 * short
+    return low, high
 
 
 # --- design and fatigue (present when the part file asks for them) ------------------------------------
@@ -845,6 +1071,7 @@ def design_figure(design: DesignCheck | None, units: str = DEFAULT_SYSTEM) -> Fi
     fig = _figure(height=1.2 + 0.55 * len(checks))
     ax = fig.add_subplot()
     rows = np.arange(len(checks))[::-1]
+    labels = []
     for row, line in zip(rows, checks):
         colour = PASS_FILL if line.passes else FAIL_FILL
         ax.barh(row, line.actual_mpa, color=colour, height=0.55)
@@ -853,14 +1080,13 @@ def design_figure(design: DesignCheck | None, units: str = DEFAULT_SYSTEM) -> Fi
         if math.isfinite(line.margin):
             text += f", margin {line.margin:+.2f}"
         text += ", passes" if line.passes else ", FAILS"
-        ax.annotate(text, xy=(max(line.actual_mpa, line.allowable_mpa), row), xytext=(6, 0), textcoords="offset points",
-                    va="center",
-                    ha="left", fontsize=9, color=INK, zorder=4,
-                    bbox=dict(boxstyle="round,pad=0.2", facecolor="white", edgecolor="none", alpha=0.9))
+        labels.append(ax.annotate(text, xy=(max(line.actual_mpa, line.allowable_mpa), row), xytext=(6, 0),
+                                  textcoords="offset points", va="center", ha="left", fontsize=9, color=INK, zorder=4,
+                                  bbox=dict(boxstyle="round,pad=0.2", facecolor="white", edgecolor="none", alpha=0.9)))
     yield_mpa = design.yield_mpa
     ax.axvline(yield_mpa, color=GROSS_LINE, lw=1.0, ls=":")
-    ax.text(yield_mpa, -0.62, f" yield {quantity_text(yield_mpa, 'stress', units, '.0f')}", ha="left",
-            va="center", fontsize=8, color=GROSS_LINE)
+    yield_label = ax.text(yield_mpa, -0.62, f" yield {quantity_text(yield_mpa, 'stress', units, '.0f')}", ha="left",
+                          va="center", fontsize=8, color=GROSS_LINE)
     ax.set_yticks(rows, [names.get(c.key, c.key) + (" (governs)" if c is governs else "") for c in checks])
     top = max([c.actual_mpa for c in checks] + [c.allowable_mpa for c in checks] + [yield_mpa])
     ax.set_xlim(0, 1.75 * top)
@@ -869,6 +1095,9 @@ def design_figure(design: DesignCheck | None, units: str = DEFAULT_SYSTEM) -> Fi
     unit_axis(ax.xaxis, "stress", units, "stress")
     ax.grid(True, axis="x", color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)
+    _settle_and_place(fig, [(label, around((6, 0, "left", "center"), 0.8), ax) for label in labels]
+                      + [(yield_label, [at_position(yield_mpa, -0.62, "left", "center"),
+                                        at_position(yield_mpa, -0.62, "right", "center")], ax)])
     return fig
 
 
@@ -895,8 +1124,8 @@ def fatigue_figure(fatigue: FatigueScreen | None, units: str = DEFAULT_SYSTEM) -
     if math.isfinite(fatigue.n_f):
         text += f"\nfactor of safety {fatigue.n_f:.2f}"
     text += ", passes" if passes else ", FAILS"
-    ax.annotate(text, xy=(sm, sa), xytext=(10, 10), textcoords="offset points", fontsize=9, zorder=4,
-                bbox=dict(boxstyle="round,pad=0.25", facecolor="white", edgecolor="none", alpha=0.9))
+    label = ax.annotate(text, xy=(sm, sa), xytext=(10, 10), textcoords="offset points", fontsize=9, zorder=4,
+                        bbox=dict(boxstyle="round,pad=0.25", facecolor="white", edgecolor="none", alpha=0.9))
     ax.set_xlim(left, 1.05 * max(su, sm))
     ax.set_ylim(0, 1.25 * max(se, sa))
     unit_axis(ax.xaxis, "stress", units, "mean stress σm")
@@ -904,4 +1133,5 @@ def fatigue_figure(fatigue: FatigueScreen | None, units: str = DEFAULT_SYSTEM) -
     ax.grid(True, color="#e4e4e4", lw=0.6)
     ax.set_axisbelow(True)
     ax.legend(fontsize=8, loc="upper right")
+    _settle_and_place(fig, [(label, around((10, 10, "left", "bottom"), 1.2), ax)])
     return fig

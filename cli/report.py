@@ -21,7 +21,7 @@ import html
 import io
 import math
 import time
-from collections.abc import Iterable
+from collections.abc import Callable, Iterable
 from dataclasses import dataclass
 from datetime import datetime, timezone
 from pathlib import Path
@@ -106,38 +106,54 @@ def write_report(result: CheckResult, directory: str | Path, part_file: str | Pa
 
 # --- figures ----------------------------------------------------------------------------------------
 
-def render_figures(result: CheckResult) -> list[Rendered]:
-    """Every figure of the report, in reading order, rendered to PNG and SVG."""
+@dataclass(frozen=True)
+class FigureJob:
+    """One figure of the report: file stem, report section, caption, and the function that draws it."""
+
+    name: str
+    section: str
+    caption: str
+    build: Callable[[CheckResult], Any]
+
+
+def figure_jobs(result: CheckResult) -> list[FigureJob]:
+    """Every figure of the report, in reading order (a job may draw None: nothing to show)."""
     units = result.spec.units
-    wanted: list[tuple[str, str, str, Any]] = [
-        ("outline", "part", "Outline of the part with its main dimensions, the held end, the load and the "
-         "critical section (dashed).", plots.outline_figure),
-        ("mesh", "mesh", "The finest mesh of the study, and a close-up where the peak is: the elements shrink "
-         "towards the raiser edge.", plots.mesh_figure),
-        ("stress_map", "stress", "Maximum principal stress on the finest mesh; the circle marks the peak.",
-         plots.stress_map_figure),
+    jobs = [
+        FigureJob("outline", "part", "Outline of the part with its main dimensions, the held end, the load and the "
+                  "critical section (dashed).", plots.outline_figure),
+        FigureJob("mesh", "mesh", "The finest mesh of the study, and a close-up where the peak is: the elements "
+                  "shrink towards the raiser edge.", plots.mesh_figure),
+        FigureJob("stress_map", "stress", "Maximum principal stress on the finest mesh; the circle marks the peak.",
+                  plots.stress_map_figure),
     ]
     for n, view in enumerate(plots.critical_sections(result), start=1):
-        wanted.append((f"section_{n}", "section", f"Normal stress across {view.label} ({view.where(units)}): "
-                       "the FE distribution against the flat net-section average a hand calculation uses.",
-                       lambda r, v=view: plots.section_figure(r, v)))
+        jobs.append(FigureJob(f"section_{n}", "section", f"Normal stress across {view.label} ({view.where(units)}): "
+                              "the FE distribution against the flat net-section average a hand calculation uses.",
+                              lambda r, v=view: plots.section_figure(r, v)))
     for n, section in enumerate(result.sections, start=1):
-        wanted.append((f"cut_{n}", "cuts", f"Tractions along the requested cut {_cut_name(section, units)}.",
-                       lambda r, c=section: plots.cut_figure(r, c)))
-    wanted.append(("convergence", "convergence", "Peak stress of each mesh level against element size, and "
-                   "the converged value with its error band at zero element size.", plots.convergence_figure))
-    wanted.append(("handbook", "handbook", "This part's Kt beside the published cases that match its geometry.",
-                   plots.handbook_figure))
+        jobs.append(FigureJob(f"cut_{n}", "cuts", f"Tractions along the requested cut {_cut_name(section, units)}.",
+                              lambda r, c=section: plots.cut_figure(r, c)))
+    jobs.append(FigureJob("convergence", "convergence", "Peak stress of each mesh level against element size, and "
+                          "the converged value with its error band at zero element size.", plots.convergence_figure))
+    jobs.append(FigureJob("handbook", "handbook", "This part's Kt beside the published cases that match its geometry.",
+                          plots.handbook_figure))
     design, fatigue = signoff_records(result)
-    wanted.append(("design", "design", "Each stress of the design check against its own allowable (dashed).",
-                   lambda r: plots.design_figure(design, units)))
-    wanted.append(("fatigue", "fatigue", "Fatigue screen on a modified Goodman diagram (notched stresses).",
-                   lambda r: plots.fatigue_figure(fatigue, units)))
+    jobs.append(FigureJob("design", "design", "Each stress of the design check against its own allowable (dashed).",
+                          lambda r: plots.design_figure(design, units)))
+    jobs.append(FigureJob("fatigue", "fatigue", "Fatigue screen on a modified Goodman diagram (notched stresses).",
+                          lambda r: plots.fatigue_figure(fatigue, units)))
+    return jobs
+
+
+def render_figures(result: CheckResult) -> list[Rendered]:
+    """Every figure of the report, in reading order, rendered to PNG and SVG."""
     out = []
-    for name, section, caption, build in wanted:
-        fig = build(result)
+    for job in figure_jobs(result):
+        fig = job.build(result)
         if fig is not None:
-            out.append(Rendered(name, section, caption, *figure_bytes(fig), width=round(96 * fig.get_figwidth())))
+            out.append(Rendered(job.name, job.section, job.caption, *figure_bytes(fig),
+                                width=round(96 * fig.get_figwidth())))
     return out
 
 
