@@ -3,9 +3,11 @@
 First the start-up of the command-line process (see `startup`). For each part: the whole console process
 (interpreter start, imports, meshing, solving, output), best of n, then the per-level stage times measured in-process (mesh, assemble, solve, recover) with the solver
 each level used, and Kt against the preferred handbook case. `--order 2` checks a copy of each part file
-with quadratic triangles. Prints figures only; asserts nothing about time. Usage:
+with quadratic triangles. `--report` also times the whole process with `--report DIR` (the review report
+written into a temporary folder), beside the same command without it, run for run. Prints figures only;
+asserts nothing about time. Usage:
 
-    python benchmarks/check_stages.py [PART ...] [--repeat 3] [--order 1|2]
+    python benchmarks/check_stages.py [PART ...] [--repeat 3] [--order 1|2] [--report]
 """
 
 from __future__ import annotations
@@ -35,15 +37,17 @@ def with_order(text: str, order: int) -> str:
     return text + f"\n[mesh]\norder = {order}\n"
 
 
-def whole_process(part: Path, repeat: int) -> tuple[list[float], dict]:
+def whole_process(part: Path, repeat: int, report: bool = False) -> tuple[list[float], dict]:
     """Time the console command end to end, as an installed copy runs: with the package's compiled
     bytecode cached (pip compiles it at install; PYTHONDONTWRITEBYTECODE, if set here, would make every
-    run recompile the sources, about 0.15 s), after one untimed run that writes the cache."""
+    run recompile the sources, about 0.15 s), after one untimed run that writes the cache. With `report`,
+    the command also writes the review report (`--report`) into a temporary folder."""
     times, record = [], {}
     env = {k: v for k, v in os.environ.items() if k != "PYTHONDONTWRITEBYTECODE"}
     with tempfile.TemporaryDirectory() as tmp:
         out = Path(tmp) / "r.json"
         command = [sys.executable, "-m", "stressraiser", "check", str(part), "--json", str(out), "--quiet"]
+        command += ["--report", str(Path(tmp) / "review")] if report else []
         subprocess.run(command, check=False, capture_output=True, env=env)
         for _ in range(repeat):
             start = time.perf_counter()
@@ -77,6 +81,19 @@ def startup(repeat: int) -> None:
             if counted:
                 best[name] = min(best[name], time.perf_counter() - start)
     print(f"start-up, best of {repeat}: " + "; ".join(f"{name} {t:.3f} s" for name, t in best.items()))
+
+
+def with_report(part: Path, repeat: int) -> None:
+    """The whole process with and without --report, alternating run for run (a shared machine's load then
+    falls on both alike), best and all runs of each."""
+    plain, reported = [], []
+    for _ in range(repeat):
+        plain += whole_process(part, 1)[0]
+        reported += whole_process(part, 1, report=True)[0]
+    for name, times in (("check", plain), ("check --report", reported)):
+        print(f"{name:>15}: min {min(times):.2f} s over {len(times)} runs (all: "
+              + ", ".join(f"{t:.2f}" for t in times) + ")")
+    print(f"the report adds {min(reported) - min(plain):.2f} s (best against best)")
 
 
 def stages(part: Path) -> list[dict]:
@@ -117,9 +134,15 @@ def main() -> None:
     parser.add_argument("parts", nargs="*", help="part files (default: every bundled example)")
     parser.add_argument("--repeat", type=int, default=3)
     parser.add_argument("--order", type=int, choices=(1, 2), default=1)
+    parser.add_argument("--report", action="store_true", help="time the command with and without --report")
     args = parser.parse_args()
     parts = [Path(p) for p in args.parts] or sorted(EXAMPLES.glob("*.toml"))
     print(f"machine: {machine()}")
+    if args.report:
+        for part in parts:
+            print(f"\npart: {part.name}")
+            with_report(part, args.repeat)
+        return
     print(f"element order {args.order}")
     startup(args.repeat)
     with tempfile.TemporaryDirectory() as tmp:

@@ -244,17 +244,21 @@ class DisplayLocator(AutoLocator):
     def __init__(self, factor: float) -> None:
         super().__init__()
         self.factor = factor
+        self._found: dict[tuple, np.ndarray] = {}  # ticks by (limits, room): an axis asks again and again
 
     def tick_values(self, vmin: float, vmax: float) -> np.ndarray:
         low, high = sorted((vmin / self.factor, vmax / self.factor))
-        ticks = self._round(low, high, "auto")
         room = self._room()
-        while room is not None and len(ticks) > 2 and _label_width(ticks, low, high, self._font_px()) > room:
-            fewer = self._round(low, high, max(1, len(ticks) - 3))
-            if len(fewer) >= len(ticks):
-                break
-            ticks = fewer
-        return ticks * self.factor
+        key = (low, high, room, None if room is None else self._font_px())
+        if key not in self._found:
+            ticks = self._round(low, high, "auto")
+            while room is not None and len(ticks) > 2 and _label_width(ticks, low, high, key[3]) > room:
+                fewer = self._round(low, high, max(1, len(ticks) - 3))
+                if len(fewer) >= len(ticks):
+                    break
+                ticks = fewer
+            self._found[key] = ticks * self.factor
+        return self._found[key].copy()
 
     def _round(self, low: float, high: float, nbins) -> np.ndarray:
         """Round ticks in the display unit with at most `nbins` intervals ("auto": matplotlib's choice)."""

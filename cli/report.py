@@ -4,11 +4,14 @@
 
     report.html          the report; figures embedded as base64 PNG, no network access needed
     figures/NAME.png     every figure as a PNG (150 dpi) ...
-    figures/NAME.svg     ... and as an SVG (the dense mesh and colour-map layers are rasterised inside)
+    figures/NAME.svg     ... and the figures of lines and text also as an SVG (the mesh and the stress map are
+                         pictures of a dense mesh: a PNG says all they have to say)
     part.vtu             finest-mesh displacement and stress fields (cli/fields.py)
     check.json           the JSON record (cli/record.py, schema cli/check.schema.json)
 
-All text placed in the HTML is escaped. Every number the report and its figures show is in the part
+The figures are drawn in two processes where the machine has two cores or more (`render_figures`): a
+child forked with the result in memory draws part of them while this process draws the rest and the
+fields; a child that fails leaves its figures to this process. All text placed in the HTML is escaped. Every number the report and its figures show is in the part
 file's unit system (`spec.units`), converted by cli/display_units.py like the terminal summary; part.vtu
 and check.json stay in mm, N, MPa (the report says so beside them).
 """
@@ -20,7 +23,10 @@ import dataclasses
 import html
 import io
 import math
+import multiprocessing
+import os
 import time
+import warnings
 from collections.abc import Callable, Iterable
 from dataclasses import dataclass
 from datetime import datetime, timezone
@@ -46,8 +52,10 @@ from .files import write_atomic, write_json
 from .record import SCHEMA, check_record
 from .signoff_summary import CHECK_HEADER, check_caption, check_rows, fatigue_statements, notch_words
 from .summary import fe_kt_for, kt_rows, on_edge_cut, peak_state, range_words, verdict
+from .text_cache import cached_text_layouts
 
 PNG_DPI = 150
+PNG_COMPRESSION = 1  # zlib level of the PNG files: a little larger than at the default 6, in a fraction of the time
 REPORT_NAME = "report.html"
 FIELDS_NAME = "part.vtu"
 RECORD_NAME = "check.json"
@@ -56,14 +64,20 @@ FIGURES_DIR = "figures"
 
 @dataclass(frozen=True)
 class Rendered:
-    """A rendered figure: file stem, the report section it belongs to, caption, PNG and SVG bytes."""
+    """A rendered figure: file stem, the report section it belongs to, caption, PNG bytes and SVG bytes (None
+    for a picture of a dense mesh, where an SVG adds nothing to the PNG)."""
 
     name: str
     section: str
     caption: str
     png: bytes
-    svg: bytes
+    svg: bytes | None
     width: int  # display width in CSS pixels (96 per inch of figure)
+
+    @property
+    def files(self) -> tuple[tuple[str, bytes], ...]:
+        """(suffix, bytes) of each file of the figure."""
+        return (("png", self.png),) + ((("svg", self.svg),) if self.svg is not None else ())
 
 
 @dataclass(frozen=True)
@@ -84,15 +98,13 @@ def write_report(result: CheckResult, directory: str | Path, part_file: str | Pa
     directory = Path(directory)
     seconds: dict[str, float] = {}
     clock = time.perf_counter()
-    figures = render_figures(result)
-    seconds["figures"], clock = time.perf_counter() - clock, time.perf_counter()
-    fields = vtu_bytes(result.spec, result.solution)
-    seconds["fields"], clock = time.perf_counter() - clock, time.perf_counter()
+    figures, fields = render_figures(result, beside=lambda: vtu_bytes(result.spec, result.solution))
+    seconds["figures and fields"], clock = time.perf_counter() - clock, time.perf_counter()
     part_text = _read_text(part_file)
     page = report_html(result, figures, part_text=part_text, part_name=None if part_file is None else Path(part_file).name)
     paths = []
     for fig in figures:
-        for suffix, data in (("png", fig.png), ("svg", fig.svg)):
+        for suffix, data in fig.files:
             path = directory / FIGURES_DIR / f"{fig.name}.{suffix}"
             write_atomic(path, data)
             paths.append(path)
@@ -108,12 +120,17 @@ def write_report(result: CheckResult, directory: str | Path, part_file: str | Pa
 
 @dataclass(frozen=True)
 class FigureJob:
-    """One figure of the report: file stem, report section, caption, and the function that draws it."""
+    """One figure of the report: file stem, report section, caption, the function that draws it, whether
+    it is a figure of lines and text (written as SVG too) and how long it takes to draw and write, relative
+    to the outline drawing (measured by benchmarks/report_write.py; to share the figures between two
+    processes)."""
 
     name: str
     section: str
     caption: str
     build: Callable[[CheckResult], Any]
+    vector: bool = True
+    cost: float = 1.0
 
 
 def figure_jobs(result: CheckResult) -> list[FigureJob]:
@@ -123,21 +140,21 @@ def figure_jobs(result: CheckResult) -> list[FigureJob]:
         FigureJob("outline", "part", "Outline of the part with its main dimensions, the held end, the load and the "
                   "critical section (dashed).", plots.outline_figure),
         FigureJob("mesh", "mesh", "The finest mesh of the study, and a close-up where the peak is: the elements "
-                  "shrink towards the raiser edge.", plots.mesh_figure),
+                  "shrink towards the raiser edge.", plots.mesh_figure, vector=False, cost=1.4),
         FigureJob("stress_map", "stress", "Maximum principal stress on the finest mesh; the circle marks the peak.",
-                  plots.stress_map_figure),
+                  plots.stress_map_figure, vector=False, cost=2.1),
     ]
     for n, view in enumerate(plots.critical_sections(result), start=1):
         jobs.append(FigureJob(f"section_{n}", "section", f"Normal stress across {view.label} ({view.where(units)}): "
                               "the FE distribution against the flat net-section average a hand calculation uses.",
-                              lambda r, v=view: plots.section_figure(r, v)))
+                              lambda r, v=view: plots.section_figure(r, v), cost=1.4))
     for n, section in enumerate(result.sections, start=1):
         jobs.append(FigureJob(f"cut_{n}", "cuts", f"Tractions along the requested cut {_cut_name(section, units)}.",
-                              lambda r, c=section: plots.cut_figure(r, c)))
+                              lambda r, c=section: plots.cut_figure(r, c), cost=1.2))
     jobs.append(FigureJob("convergence", "convergence", "Peak stress of each mesh level against element size, and "
-                          "the converged value with its error band at zero element size.", plots.convergence_figure))
+                          "the converged value with its error band at zero element size.", plots.convergence_figure, cost=1.1))
     jobs.append(FigureJob("handbook", "handbook", "This part's Kt beside the published cases that match its geometry.",
-                          plots.handbook_figure))
+                          plots.handbook_figure, cost=1.4))
     design, fatigue = signoff_records(result)
     jobs.append(FigureJob("design", "design", "Each stress of the design check against its own allowable (dashed).",
                           lambda r: plots.design_figure(design, units)))
@@ -146,27 +163,114 @@ def figure_jobs(result: CheckResult) -> list[FigureJob]:
     return jobs
 
 
-def render_figures(result: CheckResult) -> list[Rendered]:
-    """Every figure of the report, in reading order, rendered to PNG and SVG."""
-    out = []
-    for job in figure_jobs(result):
-        fig = job.build(result)
-        if fig is not None:
-            out.append(Rendered(job.name, job.section, job.caption, *figure_bytes(fig),
-                                width=round(96 * fig.get_figwidth())))
-    return out
+def render_figures(result: CheckResult, beside: Callable[[], Any] = lambda: None) -> tuple[list[Rendered], Any]:
+    """Every figure of the report, in reading order, rendered to PNG (and SVG for figures of lines and
+    text), and the value of `beside()` (other work, e.g. the fields file). With two cores or more a forked
+    child draws about half of the figures (by their cost) while this process draws the others and then runs
+    `beside`."""
+    jobs = figure_jobs(result)
+    mine, theirs = _share(jobs) if _cores() >= 2 and _can_fork() else (jobs, [])
+    with cached_text_layouts():
+        child = _Child(result, theirs) if theirs else None
+        try:
+            drawn = {job.name: _render(result, job) for job in mine}
+            extra = beside()
+            drawn.update(child.collect() if child is not None else {})
+        finally:
+            if child is not None:
+                child.stop()
+    return [fig for job in jobs if (fig := drawn.get(job.name)) is not None], extra
 
 
-def figure_bytes(fig) -> tuple[bytes, bytes]:
-    """PNG and SVG bytes of a matplotlib Figure (no dates in the metadata, fixed SVG ids: files repeat run to run)."""
+def _render(result: CheckResult, job: FigureJob) -> Rendered | None:
+    fig = job.build(result)
+    if fig is None:
+        return None
+    return Rendered(job.name, job.section, job.caption, *figure_bytes(fig, svg=job.vector),
+                    width=round(96 * fig.get_figwidth()))
+
+
+BESIDE_COST = 0.6  # the fields file this process writes beside its figures, in figure-cost units
+
+
+def _share(jobs: list[FigureJob]) -> tuple[list[FigureJob], list[FigureJob]]:
+    """The jobs for this process and for the child: the costliest first to the less loaded of the two, this
+    process starting with BESIDE_COST for the other work it does meanwhile."""
+    loads, shares = [BESIDE_COST, 0.0], ([], [])
+    for job in sorted(jobs, key=lambda j: -j.cost):
+        k = 0 if loads[0] <= loads[1] else 1
+        loads[k] += job.cost
+        shares[k].append(job)
+    return shares
+
+
+def _cores() -> int:
+    try:
+        return len(os.sched_getaffinity(0))
+    except AttributeError:  # not on Linux
+        return os.cpu_count() or 1
+
+
+def _can_fork() -> bool:
+    return "fork" in multiprocessing.get_all_start_methods()
+
+
+class _Child:
+    """A forked process drawing `jobs` of `result` (inherited in memory, nothing pickled but the bytes it
+    sends back). `collect` returns its figures by name; if the child fails or dies, this process draws them."""
+
+    def __init__(self, result: CheckResult, jobs: list[FigureJob]) -> None:
+        self.result, self.jobs = result, jobs
+        context = multiprocessing.get_context("fork")
+        self.receive, send = context.Pipe(duplex=False)
+        with warnings.catch_warnings():  # Python 3.12+ warns about forking a process with threads: the child
+            warnings.simplefilter("ignore", DeprecationWarning)  # uses none of them (no BLAS, no gmsh)
+            self.process = context.Process(target=_draw_in_child, args=(send, result, jobs), daemon=True)
+            self.process.start()
+        send.close()
+
+    def collect(self) -> dict[str, Rendered | None]:
+        try:
+            status, value = self.receive.recv()
+        except (EOFError, OSError):
+            status, value = "failed", None
+        self.process.join()
+        if status == "done":
+            return value
+        return {job.name: _render(self.result, job) for job in self.jobs}  # its error, if any, raised here
+
+    def stop(self) -> None:
+        if self.process.is_alive():
+            self.process.terminate()
+        self.process.join()
+        self.receive.close()
+
+
+def _draw_in_child(send, result: CheckResult, jobs: list[FigureJob]) -> None:
+    """The child's work: draw its figures and send them back, or say that it failed (the parent draws them)."""
+    try:
+        send.send(("done", {job.name: _render(result, job) for job in jobs}))
+    except BaseException:  # noqa: BLE001 - any failure: the parent draws these figures itself
+        send.send(("failed", None))
+    finally:
+        send.close()
+
+
+def figure_bytes(fig, svg: bool = True) -> tuple[bytes, bytes | None]:
+    """PNG bytes of a matplotlib Figure, and SVG bytes when `svg` (None otherwise); no dates in the metadata,
+    fixed SVG ids: files repeat run to run. The PNG is compressed quickly (PNG_COMPRESSION)."""
     import matplotlib
 
-    png, svg = io.BytesIO(), io.BytesIO()
-    fig.savefig(png, format="png", dpi=PNG_DPI, facecolor="white", metadata={"Software": None})
+    png = io.BytesIO()
+    fig.savefig(png, format="png", dpi=PNG_DPI, facecolor="white", metadata={"Software": None},
+                pil_kwargs={"compress_level": PNG_COMPRESSION})
+    if not svg:
+        return png.getvalue(), None
     fig.set_layout_engine("none")  # keep the layout just computed: laying out again costs as much as drawing
+    vector = io.BytesIO()
     with matplotlib.rc_context({"svg.hashsalt": "stressraiser"}):  # element ids repeat run to run
-        fig.savefig(svg, format="svg", dpi=PNG_DPI, facecolor="white", metadata={"Date": None})
-    return png.getvalue(), svg.getvalue()
+        fig.savefig(vector, format="svg", dpi=PNG_DPI, facecolor="white", metadata={"Date": None})
+    return png.getvalue(), vector.getvalue()
 
 
 # --- HTML -------------------------------------------------------------------------------------------
@@ -242,8 +346,9 @@ def _figures(figures: Iterable[Rendered]) -> str:
         out.append(
             f'<figure id="fig-{esc(fig.name)}"><img src="data:image/png;base64,{data}" width="{fig.width}" '
             f'alt="{esc(fig.caption)}">'
-            f"<figcaption>{esc(fig.caption)} Files: <a href=\"{FIGURES_DIR}/{esc(fig.name)}.png\">PNG</a>, "
-            f"<a href=\"{FIGURES_DIR}/{esc(fig.name)}.svg\">SVG</a>.</figcaption></figure>"
+            f"<figcaption>{esc(fig.caption)} Files: "
+            + ", ".join(f"<a href=\"{FIGURES_DIR}/{esc(fig.name)}.{suffix}\">{suffix.upper()}</a>" for suffix, _ in fig.files)
+            + ".</figcaption></figure>"
         )
     return "\n".join(out)
 
@@ -632,7 +737,8 @@ def _files_section(figures: list[Rendered]) -> str:
              + "; cell data " + ", ".join(CELL_FIELDS) + " (in mm and MPa whatever the part file's units)"),
             (RECORD_NAME, f"the JSON record ({SCHEMA}; numbers in mm, N, MPa, its display_units names the "
                           "part file's system)")]
-    rows += [(f"{FIGURES_DIR}/{fig.name}.png, .svg", fig.caption) for fig in figures]
+    rows += [(f"{FIGURES_DIR}/{fig.name}." + ", .".join(suffix for suffix, _ in fig.files), fig.caption)
+             for fig in figures]
     return _section("files", "Files beside this report", _table(rows, header=("file", "contents")))
 
 

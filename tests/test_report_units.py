@@ -23,7 +23,10 @@ from types import SimpleNamespace
 
 import pytest
 
+import stressraiser.cli.report as report_module
 import stressraiser.compare.check as check_module
+from matplotlib.text import Text
+from stressraiser.cli import plots
 from stressraiser.cli.display_units import point_text, shown, shown_point, unsigned_zero, warning_text
 from stressraiser.cli.loads_summary import nominal_rows
 from stressraiser.cli.main import main
@@ -66,7 +69,15 @@ def inch_report(tmp_path_factory):
         return real(spec, study, solution, replace(peak, stress=-peak.stress, location=corner), section, kt)
 
     printed = io.StringIO()
+    results = []
+    write_report = report_module.write_report
+
+    def kept(result, *args, **kwargs):  # the result the report is written from, to draw its figures again
+        results.append(result)
+        return write_report(result, *args, **kwargs)
+
     with pytest.MonkeyPatch.context() as patch, contextlib.redirect_stdout(printed):
+        patch.setattr(report_module, "write_report", kept)
         patch.setattr(check_module, "result_warnings", faulty)
         patch.setattr(check_module, "EQUILIBRIUM_WARNING", 0.0)
         patch.setenv("COLUMNS", "200")  # no wrapped warnings
@@ -77,6 +88,9 @@ def inch_report(tmp_path_factory):
     page = html.unescape((review / "report.html").read_text(encoding="utf-8"))
     svg = {p.stem: "\n".join(re.findall(r"<!-- (.*?) -->", p.read_text(encoding="utf-8")))
            for p in (review / "figures").glob("*.svg")}  # the text of each figure (matplotlib's comments)
+    # the mesh and the stress map have no SVG (pictures of a dense mesh): their words from the figures drawn
+    for name, build in (("mesh", plots.mesh_figure), ("stress_map", plots.stress_map_figure)):
+        svg[name] = "\n".join(t.get_text() for t in build(results[0]).findobj(Text) if t.get_visible())
     return json.loads((folder / "record.json").read_text()), page, svg, printed.getvalue()
 
 
