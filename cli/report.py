@@ -25,6 +25,7 @@ import io
 import math
 import multiprocessing
 import os
+import signal
 import time
 import warnings
 from collections.abc import Callable, Iterable
@@ -40,6 +41,7 @@ from ..compare.fatigue import FatigueScreen
 from ..compare.method_of_sections import SectionResult
 from ..compare.signoff import cycle_words
 from ..geometry.kinds.hole import named as named_hole
+from ..geometry.process_lifetime import end_with_parent
 from ..geometry.registry import kind_of, named, raiser_label
 from ..geometry.spec import Load, Material, PartSpec
 from ..geometry.units import DEFAULT_SYSTEM, format_number, format_stated
@@ -225,7 +227,7 @@ class _Child:
         self.receive, send = context.Pipe(duplex=False)
         with warnings.catch_warnings():  # Python 3.12+ warns about forking a process with threads: the child
             warnings.simplefilter("ignore", DeprecationWarning)  # uses none of them (no BLAS, no gmsh)
-            self.process = context.Process(target=_draw_in_child, args=(send, result, jobs), daemon=True)
+            self.process = context.Process(target=_draw_in_child, args=(send, result, jobs, os.getpid()), daemon=True)
             self.process.start()
         send.close()
 
@@ -246,8 +248,13 @@ class _Child:
         self.receive.close()
 
 
-def _draw_in_child(send, result: CheckResult, jobs: list[FigureJob]) -> None:
-    """The child's work: draw its figures and send them back, or say that it failed (the parent draws them)."""
+def _draw_in_child(send, result: CheckResult, jobs: list[FigureJob], parent: int) -> None:
+    """The child's work: draw its figures and send them back, or say that it failed (the parent draws them).
+    Like the mesher's child it leaves signals to its parent (which stops it) and dies with it."""
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
+    signal.signal(signal.SIGTERM, signal.SIG_DFL)
+    signal.set_wakeup_fd(-1)  # the parent's, inherited: the parent's watcher is not this process's
+    end_with_parent(parent)
     try:
         send.send(("done", {job.name: _render(result, job) for job in jobs}))
     except BaseException:  # noqa: BLE001 - any failure: the parent draws these figures itself

@@ -52,7 +52,7 @@ def test_a_child_that_dies_leaves_its_figures_to_this_process(strap, plain, monk
     if not report._can_fork():
         pytest.skip("this platform cannot fork a process")
     monkeypatch.setattr(report, "_cores", lambda: 2)
-    monkeypatch.setattr(report, "_draw_in_child", lambda send, result, jobs: os._exit(9))  # dies, sends nothing
+    monkeypatch.setattr(report, "_draw_in_child", lambda send, result, jobs, parent: os._exit(9))  # dies, sends nothing
     figures, _ = report.render_figures(strap)
     assert _files(figures) == _files(plain)
 
