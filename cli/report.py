@@ -11,9 +11,10 @@
 
 The figures are drawn in two processes where the machine has two cores or more (`render_figures`): a
 child forked with the result in memory draws part of them while this process draws the rest and the
-fields; a child that fails leaves its figures to this process. All text placed in the HTML is escaped. Every number the report and its figures show is in the part
-file's unit system (`spec.units`), converted by cli/display_units.py like the terminal summary; part.vtu
-and check.json stay in mm, N, MPa (the report says so beside them).
+fields; a child that fails leaves its figures to this process. All text placed in the HTML is escaped.
+Every number the report and its figures show is in the part file's unit system (`spec.units`), converted
+by cli/display_units.py like the terminal summary; part.vtu and check.json stay in mm, N, MPa (the report
+says so beside them).
 """
 
 from __future__ import annotations
