@@ -44,8 +44,7 @@ def run(args: argparse.Namespace) -> int:
         out.print(f"  formula    {escape(case.formula)}")
         out.print(f"  nominal    {case.nominal}: {escape(case.nominal_text)}")
         out.print(f"  range      {escape(_range_text(case.ranges))}")
-        checked = getattr(case, "checked", None)
-        if checked:
-            out.print(f"  FE-checked {escape(_range_text(checked))}")
+        if case.checked:
+            out.print(f"  FE-checked {escape(_range_text(case.checked))}")
         out.print(f"  source     {escape(case.source)}")
     return 0

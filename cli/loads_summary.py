@@ -73,7 +73,7 @@ def boundary_rows(result: CheckResult) -> list[Row]:
     and how long it is, and each pin hold's contact."""
     spec, units = result.spec, result.spec.units
     rows: list[Row] = []
-    for hold in getattr(getattr(spec, "support", None), "holds", ()):
+    for hold in spec.support.holds:
         if hold.pin is not None:
             contact = next((c for c in result.solution.held_pins if c.hole == hold.pin), None)
             note = (f"contact {contact.arc[0]:+.1f}° … {contact.arc[1]:+.1f}° from {contact.seat:.0f}°, reaction "
@@ -84,7 +84,7 @@ def boundary_rows(result: CheckResult) -> list[Row]:
         picked = stretch(spec, hold.where)
         rows.append((f"{hold.key.capitalize()}", hold.mode, f"{_pieces(picked)}, "
                      f"{quantity_text(picked.length, 'length', units, '.4g')} long"))
-    for edge in getattr(spec.load, "edges", ()):
+    for edge in spec.load.edges:
         picked = stretch(spec, edge.where)
         value = (quantity_text(edge.pressure, "stress", units) if edge.pressure != 0.0
                  else quantity_text(edge.force, "force", units, resultant=True))
@@ -100,7 +100,7 @@ def _pieces(picked) -> str:
 def print_cases(result: CheckResult, console: Console) -> None:
     """With several load cases: one row per case (its governing peak, nominal, Kt with band, the design
     margin when [design] is given) and which case governs."""
-    cases = getattr(result, "cases", ())
+    cases = result.cases
     if len(cases) < 2:
         return
     units = result.spec.units

@@ -506,7 +506,7 @@ def _draw_support(ax, spec, bounds, step: float) -> None:
     minx, miny, maxx, maxy = bounds
     if spec.load.remote is not None:
         return
-    holds = getattr(getattr(spec, "support", None), "holds", ()) or ()
+    holds = spec.support.holds
     if holds:
         _draw_holds(ax, spec, holds, step)
         return
@@ -551,7 +551,7 @@ def _draw_edge_loads(ax, spec, step: float) -> list[str]:
 
     units = spec.units
     notes = []
-    for edge in getattr(spec.load, "edges", ()) or ():
+    for edge in spec.load.edges:
         picked = stretch(spec, edge.where)
         for seg in picked.pieces:
             points = segment_samples(seg, 5)[1:-1]

@@ -449,11 +449,11 @@ def verdict_state(result: CheckResult) -> str:
     the study did not converge: amber), "passes" (a design check passed, converged: green), or "plain"
     (converged, nothing to sign off: blue)."""
     design, fatigue = signoff_records(result)
-    if getattr(design, "passes", None) is False:
+    if design is not None and not design.passes:
         return "fails"
-    if getattr(fatigue, "passes", None) is False or not result.kt.converged:
+    if (fatigue is not None and not fatigue.passes) or not result.kt.converged:
         return "caution"
-    return "passes" if getattr(design, "passes", None) else "plain"
+    return "passes" if design is not None else "plain"
 
 
 def _part_section(result: CheckResult, figures: list[Rendered], part_text: str | None) -> str:

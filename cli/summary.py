@@ -29,7 +29,7 @@ def verdict(result: CheckResult) -> str:
     basis = f" on the {nominal.net.label.split(',')[0]} nominal" if nominal and result.spec.load.kind != "axial" else ""
     if on_edge_cut(result):
         basis = " on the cut normal to the edge at the peak"
-    cases = getattr(result, "every_case", (result,))
+    cases = result.every_case
     case = f" in load case {result.case!r} (governs {len(cases)} cases)" if len(cases) > 1 else ""
     return (f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f}{basis} — peak {peak} "
             f"({peak_words(result)}) at {raiser_label(result.peak.feature)}{case}, {state} in {len(result.study.levels)} mesh levels")
@@ -48,7 +48,7 @@ def peak_state(result: CheckResult) -> str:
 
 def on_edge_cut(result: CheckResult) -> bool:
     """Whether the result's Kt is on the cut normal to the edge at the peak (compare/edge_cut.py)."""
-    return getattr(getattr(result, "net_section", None), "kind", None) == EDGE_NORMAL
+    return result.net_section.kind == EDGE_NORMAL
 
 
 def print_summary(result: CheckResult, console: Console) -> None:
@@ -114,7 +114,7 @@ def kt_rows(result: CheckResult) -> list[Row]:
     if nominal.net.key == nominal.gross.key:  # one nominal for both (a remote stress state)
         return [(f"Kt on {nominal.net.label}", net, nominal_note(nominal.net.formula, nominal.net.stress, units))]
     gross = nominal_note(nominal.gross.formula, nominal.gross.stress, units)
-    gross_section = getattr(result, "gross", None)
+    gross_section = result.gross
     if gross_section is not None and gross_section.symbol != "W":
         gross += f", {gross_section.definition}"
     return [("Kt on net section", net, nominal_note(nominal.net.formula, nominal.net.stress, units)),
