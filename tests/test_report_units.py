@@ -231,7 +231,8 @@ def test_negative_zero_is_shown_as_zero() -> None:
 def _fake_result(units: str, nominals: tuple[Nominal, ...], net: int = 0, gross: int = 1):
     return SimpleNamespace(kt=KtResult(2.1, 2.8, 0.005, True), gross_average=nominals[gross].stress,
                            nominal=NominalSet(nominals[net], nominals[gross], nominals),
-                           spec=SimpleNamespace(units=units))
+                           spec=SimpleNamespace(units=units), gross=None,
+                           net_section=SimpleNamespace(kind="across the load"))
 
 
 def test_kt_rows_name_their_nominal() -> None:
