@@ -158,6 +158,15 @@ def _two_parts(folder: Path) -> tuple[Path, Path]:
     return first, second
 
 
+def _modified_since(path, started: float) -> bool:
+    """Whether `path` was written at or after `started`; a file that vanished meanwhile (the command's
+    short-lived write probe) was not."""
+    try:
+        return path.stat().st_mtime >= started
+    except FileNotFoundError:
+        return False
+
+
 def test_report_folder_is_replaced_whole(tmp_path):
     # A run killed (SIGKILL: no clean-up) while it writes a new report over an earlier one must leave the
     # earlier report exactly as it was (or the new one whole): never a mix of two parts' figures. And a
@@ -172,7 +181,7 @@ def test_report_folder_is_replaced_whole(tmp_path):
     try:
         def writing() -> bool:  # a fresh folder beside it with a figure in it, or any file of the folder touched
             fresh = [p for p in tmp_path.iterdir() if p.name.startswith(".review.")]
-            touched = [p for p in folder.rglob("*") if p.stat().st_mtime >= started] if folder.exists() else []
+            touched = [p for p in folder.rglob("*") if _modified_since(p, started)] if folder.exists() else []
             return bool(fresh and list(fresh[0].rglob("*.png")) or touched)
         assert wait_until(lambda: process.poll() is not None or writing(), 120.0, step=0.002)
         process.send_signal(signal.SIGKILL)
