@@ -74,8 +74,14 @@ HAND_BASIS = {
               "sx, sy, txy for a ductile metal, the largest principal stress in magnitude for a brittle one): the "
               "plate away from its raisers.",
 }
+HAND_BASIS["fasteners"] = (
+    "Hand check: N / A + M s / I at the peak on the cut normal to the edge there (the load reaching that cut "
+    "through the fastener groups, taken as beam theory spreads it); each fastener's bearing F / (d t) and, "
+    "with design.fastener_shear_strength, its average shear F / (n pi d^2 / 4) are checked on their own "
+    "(the fastener rows). The fasteners' forces are the FE's sharing, not equal shares.")
 HAND_LABELS = {"axial": "net-section average", "bending": "net-section bending stress",
-               "combined": "net-section extreme-fibre stress", "pin": "net-section average beside the pin"}
+               "combined": "net-section extreme-fibre stress", "pin": "net-section average beside the pin",
+               "fasteners": "cut at the peak, N / A + M s / I"}
 
 
 @dataclass(frozen=True)
