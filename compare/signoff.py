@@ -225,8 +225,19 @@ def von_mises_peak(result: CheckResult) -> tuple[Estimate, tuple[float, float]]:
 
 
 def bearing_stress(result: CheckResult) -> float | None:
-    """A pin's bearing stress F / (d t) in MPa (compare.nominal's "bearing"), or None without a pin."""
+    """A pin's bearing stress F / (d t) in MPa (compare.nominal's "bearing"), or the most loaded fastener's of
+    the part's fastener groups, or None without either."""
+    if result.joints is not None:
+        return max(f.bearing for g in result.joints.groups for f in g.fasteners)
     return next((n.stress for n in result.nominal.all if n.key == "bearing"), None) if result.spec.load.pin else None
+
+
+def fastener_shear(result: CheckResult) -> float | None:
+    """The most loaded fastener's average shear F / (n pi d^2 / 4) (MPa) when [design] gives the fasteners'
+    shear strength, else None."""
+    if result.joints is None or result.spec.design.fastener_shear_strength is None:
+        return None
+    return max(f.shear for g in result.joints.groups for f in g.fasteners)
 
 
 def design_signoff(result: CheckResult) -> DesignSignOff | None:
@@ -256,6 +267,9 @@ def design_signoff(result: CheckResult) -> DesignSignOff | None:
         load_kind=kind,
         bearing_mpa=bearing,
         bearing_strength_mpa=bearing_strength,
+        bearing_label="pin bearing stress" if result.joints is None else "fastener bearing stress, the most loaded",
+        fastener_shear_mpa=fastener_shear(result),
+        fastener_shear_strength_mpa=design.fastener_shear_strength if result.joints is not None else None,
     )
     ultimate = ("not checked (no design.ultimate_factor)" if design.ultimate_factor is None
                 else f"{design.ultimate_factor:g} on ultimate (as given)")

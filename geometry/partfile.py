@@ -412,7 +412,7 @@ def _design(data: dict[str, Any], spec: PartSpec) -> DesignSpec | None:
     if "design" not in data:
         return None
     t = table(data, "design")
-    known(t, {"yield_factor", "ultimate_factor", "behaviour", "bearing_strength"}, "design")
+    known(t, {"yield_factor", "ultimate_factor", "behaviour", "bearing_strength", "fastener_shear_strength"}, "design")
     _no_compression(spec, "[design] check")
     m = spec.material
     if m.yield_strength is None:
@@ -423,14 +423,19 @@ def _design(data: dict[str, Any], spec: PartSpec) -> DesignSpec | None:
     if ultimate_factor is not None and m.ultimate is None:
         raise PartError("material.ultimate: missing; design.ultimate_factor needs the ultimate strength")
     bearing = positive(t, "bearing_strength", "design", "stress", spec.units, required=False)
-    pinned = any(case.load.pin is not None for case in spec.load_cases)
+    pinned = any(case.load.pin is not None for case in spec.load_cases) or bool(spec.fasteners)
     if bearing is not None and not pinned:
-        raise PartError(f"design.bearing_strength: applies to a pin's hole ([load.pin]) only; this part's load is "
-                        f"{spec.load.kind}")
+        raise PartError(f"design.bearing_strength: applies to a pin's hole ([load.pin]) or fastener groups' holes "
+                        f"([[fasteners]]) only; this part's load is {spec.load.kind}")
+    shear = positive(t, "fastener_shear_strength", "design", "stress", spec.units, required=False)
+    if shear is not None and not spec.fasteners:
+        raise PartError("design.fastener_shear_strength: applies to the fasteners of [[fasteners]] groups; this part "
+                        "has none")
     behaviour, basis = _behaviour(t, m, "ductile" in data.get("material", {}))
     defaults = ("yield_factor", "behaviour") + (("bearing_strength",) if pinned else ())
     return DesignSpec(yield_factor=yield_factor, ultimate_factor=ultimate_factor, behaviour=behaviour,
-                      behaviour_basis=basis, bearing_strength=bearing, defaults=_left_out(t, defaults))
+                      behaviour_basis=basis, bearing_strength=bearing, defaults=_left_out(t, defaults),
+                      fastener_shear_strength=shear)
 
 
 def _behaviour(t: dict[str, Any], m: Material, ductile_given: bool) -> tuple[str, str]:
