@@ -49,7 +49,7 @@ def joints_record(result: CheckResult) -> dict[str, Any] | None:
             "fasteners": [{
                 "hole": f.hole, "force": [float(v) for v in f.force], "magnitude": f.magnitude,
                 "direction": f.direction, "share": f.share, "bearing": f.bearing, "shear": f.shear,
-                "bypass": f.bypass, "net_stress": f.net, "peak": _number(f.peak), "peak_error": _number(f.peak_error),
+                "bypass": _number(f.bypass), "net_stress": _number(f.net), "peak": _number(f.peak), "peak_error": _number(f.peak_error),
                 "kt_net": _number(f.kt_net), "kt_bearing": _number(f.kt_bearing), "edge_over_d": _number(f.edge),
                 "pitch_over_d": _number(f.pitch), "hand_force": [float(v) for v in f.hand],
                 "contact_arc": list(f.arc), "peak_pressure": f.peak_pressure,

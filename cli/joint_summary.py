@@ -43,7 +43,7 @@ def print_joints(result: CheckResult, console: Console) -> None:
         for f in g.fasteners:
             table.add_row(str(f.hole), shown(f.magnitude, "force", units, ".3f", True), f"{f.direction:.1f}",
                           f"{f.share:.1%}", shown(f.bearing, "stress", units), shown(f.shear, "stress", units),
-                          shown(f.bypass, "force", units, ".3f", True),
+                          "—" if f.bypass is None else shown(f.bypass, "force", units, ".3f", True),
                           "—" if f.peak is None else shown(f.peak, "stress", units),
                           "—" if f.kt_net is None else f"{f.kt_net:.3f}",
                           "—" if f.kt_bearing is None else f"{f.kt_bearing:.3f}",
@@ -59,4 +59,7 @@ def print_joints(result: CheckResult, console: Console) -> None:
             console.print(f"  {a.words(lambda v: quantity_text(v, 'stress', units))} ({a.check.source})",
                           soft_wrap=False, markup=False)
     passes = ", ".join("—" if p is None else str(p) for p in joints.passes)
-    console.print(f"Contact passes per mesh level: {passes}. {joints.cautions[0]}", soft_wrap=False, markup=False)
+    console.print(f"Contact passes per mesh level: {passes}. Bypass: the plate's load passing the hole; it and "
+                  "Kt net (on N / A_net through the hole, across the group's load) are for a concentric group. "
+                  "Kt brg: on the group's mean bearing F / (d t). Hand: the hand method's force on the fastener. "
+                  f"{joints.cautions[0]}", soft_wrap=False, markup=False)

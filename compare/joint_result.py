@@ -52,7 +52,8 @@ class FastenerRow:
 
     hole: the hole's number; force: (2,) the fastener's force on the part and magnitude; direction: its
     angle from +x; share: of the group's load; bearing, shear: F / (d t), F / (n pi d^2 / 4); bypass: the
-    load passing the hole (module docstring); net: N / A_net on the cut through the hole; peak, peak_error:
+    load passing the hole (module docstring); net: N / A_net on the cut through the hole (both None for an
+    eccentric group: its fasteners' forces turn, and no one cut is the load's path); peak, peak_error:
     the hole's converged tensile peak and its band (None when the study has no estimate for it); kt_net,
     kt_bearing: peak over net and over the group's mean bearing; edge, pitch: over d; hand: the hand
     method's force (2,) on this fastener; arc: contact (first, last) degrees from the seat; peak_pressure:
@@ -65,8 +66,8 @@ class FastenerRow:
     share: float
     bearing: float
     shear: float
-    bypass: float
-    net: float
+    bypass: float | None
+    net: float | None
     peak: float | None
     peak_error: float | None
     kt_net: float | None
@@ -152,13 +153,13 @@ def joint_result(spec: PartSpec, study: Study, solution: Solution) -> JointResul
         fasteners = []
         for k, (number, f) in enumerate(zip(g.holes, mine)):
             size = float(np.linalg.norm(f.force))
-            net, bypass = _net_and_bypass(spec, solution, number, resultant if concentric else f.force, groups)
+            net, bypass = _net_and_bypass(spec, solution, number, resultant, groups) if concentric else (None, None)
             estimate = study.estimates.get(named_hole(number))
             peak = None if estimate is None else float(estimate.value)
             fasteners.append(FastenerRow(
                 number, f.force.copy(), size, directions[k], f.share, f.bearing, f.shear, bypass, net,
                 peak, None if estimate is None else float(estimate.error),
-                None if peak is None or net == 0.0 else abs(peak / net),
+                None if peak is None or not net else abs(peak / net),
                 None if peak is None or bearing_mean == 0.0 else abs(peak / bearing_mean),
                 spaced[k].edge, spaced[k].pitch, hand[k], f.arc, f.peak_pressure))
         averages = _averages(spec, g, fasteners, math.hypot(load[0], load[1]), t, exterior)
