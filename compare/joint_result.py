@@ -42,6 +42,7 @@ from .joint_checks import (ELASTIC_SOURCE, PRACTICE, Understatement, critical_ne
 from .method_of_sections import section_result
 
 CONCENTRIC = 1e-9  # of F times the group's radius: a moment about the centroid below this is none
+ROUND_OFF = 1e-9  # of the cut's force: a bypass below this is statics' round-off of none
 SPACING_CAUTION = ("Edge distance and pitch in multiples of d: the governing design code sets the minima and "
                    "alone decides whether a spacing is enough.")
 
@@ -190,6 +191,8 @@ def _net_and_bypass(spec: PartSpec, solution: Solution, number: int, along: np.n
         if abs(c @ n) < 0.5 * f.hole.diameter:
             on_cut.append(float(f.force @ n))
     bypass = (N - sum(on_cut)) / max(len(on_cut), 1)
+    if abs(bypass) <= ROUND_OFF * max(abs(N), sum(abs(v) for v in on_cut)):
+        bypass = 0.0  # statics to round-off: no load passes an end hole
     return (N / result.area if result.area > 0.0 else 0.0), float(bypass)
 
 

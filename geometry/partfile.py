@@ -603,6 +603,13 @@ def _cycle_fits_load(spec: PartSpec, low: float, high: float, key: str) -> None:
     if low < 0.0 and any(h.pin is not None for h in spec.support.holds):
         raise PartError(f"fatigue.{key}: the part bears on its holding pins one way only, so its cycle cannot go "
                         "below zero (a reversed load presses the other side of the holes, another load case)")
+    if spec.fasteners and low < 0.0:
+        raise PartError(f"fatigue.{key}: fasteners bear on their holes one way only, so the cycle cannot go below "
+                        "zero (a reversed load presses the other side of the holes, another load case)")
+    if any(g.clearance > 0.0 for g in spec.fasteners) and (low, high) != (0.0, 1.0):
+        raise PartError(f"fatigue.{key}: with a clearance the fasteners' contact depends on the load level, so the "
+                        "stresses do not scale with the load; give the cycle from 0 to 1 x the load case "
+                        "(min_fraction = 0, max_fraction = 1), or a cycle between two load cases")
 
 
 def _pin_cycle(pin: Pin | None, low: float, high: float, key: str) -> None:

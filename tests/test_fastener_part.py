@@ -362,3 +362,15 @@ def test_a_pin_loaded_lug_is_a_one_fastener_group():
     assert group.fasteners.fasteners[0].force == pytest.approx([24000.0, 0.0], abs=1e-6)
     assert group.principal[:, 0].max() == pytest.approx(pin.principal[:, 0].max(), rel=1e-9)
     assert group.pressure.max() == pytest.approx(pin.pressure.max(), rel=1e-9)
+
+
+def test_a_fatigue_cycle_of_fasteners_stays_one_way(tmp_path, capsys):
+    # a fastener bears on one side of its hole: a reversed cycle is another load case; with a clearance the
+    # contact depends on the load level, so only the 0-1 cycle of the case is the case scaled
+    fatigue = '[fatigue]\nmin_fraction = {}\nmax_fraction = 1.0\n'
+    assert_refused(tmp_path, capsys, base(extra=fatigue.format(-1.0)), ["fatigue.min_fraction", "one way"])
+    clear = base('[[fasteners]]\nname = "g"\nholes = [1, 2]\nclearance = 0.2\n', extra=fatigue.format(0.5))
+    assert_refused(tmp_path, capsys, clear, ["fatigue.min_fraction", "clearance"])
+    text = base(extra=fatigue.format(0.5)).replace("yield = 355.0", "yield = 355.0\nultimate = 490.0\n"
+                                                   "fatigue_strength = 200.0")
+    assert parse_part(text).fatigue.min_fraction == 0.5
