@@ -374,3 +374,43 @@ def test_a_fatigue_cycle_of_fasteners_stays_one_way(tmp_path, capsys):
     text = base(extra=fatigue.format(0.5)).replace("yield = 355.0", "yield = 355.0\nultimate = 490.0\n"
                                                    "fatigue_strength = 200.0")
     assert parse_part(text).fatigue.min_fraction == 0.5
+
+
+def test_the_summary_and_the_record_carry_every_fastener(splice):
+    import io
+    import json
+
+    import jsonschema
+    from rich.console import Console
+
+    from stressraiser.cli.record import check_record
+    from stressraiser.cli.schema import check_schema
+    from stressraiser.cli.summary import print_summary
+
+    record = json.loads(json.dumps(check_record(splice)))
+    jsonschema.Draft202012Validator(check_schema()).validate(record)
+    rows = [f for g in record["fasteners"]["groups"] for f in g["fasteners"]]
+    fe = [f for g in splice.joints.groups for f in g.fasteners]
+    assert [r["hole"] for r in rows] == [f.hole for f in fe] == list(range(1, 9))
+    assert [r["magnitude"] for r in rows] == [f.magnitude for f in fe]
+    assert record["fasteners"]["contact_passes"] == [lv["contact_passes"] for lv in record["mesh"]["levels"]]
+    assert record["part"]["load"]["fasteners"][0]["group"] == "b"
+    console = Console(width=200, record=True, file=io.StringIO())
+    print_summary(splice, console)
+    text = console.export_text()
+    assert "Fastener group 'a' (holds the part)" in text and "Fastener group 'b' (loads the part)" in text
+    assert "Contact passes per mesh level" in text and "understates" in text
+
+
+def test_every_load_case_loads_its_groups():
+    # two [[load]] cases on one stiffness: each case's groups carry that case's load (statics, exact)
+    cases = ('[[load]]\nname = "along"\n[[load.fasteners]]\ngroup = "g"\nforce = "10 kN"\ndirection = 0.0\n'
+             '[[load]]\nname = "across"\n[[load.fasteners]]\ngroup = "g"\nforce = "4 kN"\ndirection = 90.0\n'
+             'moment = "0.1 kN m"\n')
+    spec = parse_part(base(load=cases, extra='[support]\nheld = "clamped"\n'))
+    along, across = solve_cases(spec, mesh_level(spec, 1.0))
+    assert forces(along).sum(axis=0) == pytest.approx([10000.0, 0.0], abs=1e-9 * 10000.0)
+    assert forces(across).sum(axis=0) == pytest.approx([0.0, 4000.0], abs=1e-9 * 4000.0)
+    arms = np.array(ROW2) - np.mean(ROW2, axis=0)
+    f = forces(across)
+    assert np.sum(arms[:, 0] * f[:, 1] - arms[:, 1] * f[:, 0]) == pytest.approx(1.0e5, rel=1e-9)
