@@ -414,3 +414,20 @@ def test_every_load_case_loads_its_groups():
     arms = np.array(ROW2) - np.mean(ROW2, axis=0)
     f = forces(across)
     assert np.sum(arms[:, 0] * f[:, 1] - arms[:, 1] * f[:, 0]) == pytest.approx(1.0e5, rel=1e-9)
+
+
+def test_a_square_lug_pinned_by_a_one_fastener_group_is_the_lug_case():
+    # the recalled lug chart (compare/pin_cases.py, indicative, with its caution) recognises the lug whose pin
+    # is given as a one-fastener group as it does the [load.pin] lug; a moment or a second group is not it
+    from stressraiser.compare.handbook import handbook_matches
+    from stressraiser.compare.pin_cases import build_square_lug
+
+    lug = build_square_lug({"d/H": 0.4})
+    lug["fasteners"] = [{"name": "pin", "holes": [1]}]
+    lug["load"] = {"fasteners": [{"group": "pin", "force": 10000.0, "direction": 0.0}]}
+    from stressraiser.geometry.partfile import part_from_dict
+
+    (match,) = [m for m in handbook_matches(part_from_dict(lug)) if m.case.key == "pin-loaded-square-lug"]
+    assert "one-fastener group" in match.recognised.description and match.recognised.params["d/H"] == 0.4
+    lug["load"]["fasteners"][0]["direction"] = 90.0
+    assert not [m for m in handbook_matches(part_from_dict(lug)) if m.case.key == "pin-loaded-square-lug"]
