@@ -29,6 +29,7 @@ from ..geometry.spec import PartSpec
 from ..geometry.symmetry import symmetry_tolerance
 from .fastener_groups import Fastener, FastenerGroup, GroupsSolve, group_holes, solve_fastener_groups
 from .fastener_groups import contact_pressure as fastener_contact_pressure
+from .fastener_part import PartFasteners, part_fasteners, part_groups
 
 PIN_GROUP = "the rigid pin"  # how messages name the pin's group
 
@@ -98,21 +99,18 @@ def pin_groups(spec: PartSpec) -> tuple[FastenerGroup, ...]:
 def contact_groups(spec: PartSpec) -> tuple[FastenerGroup, ...]:
     """The fastener groups of spec.load's case: the pins (`pin_groups`), then the part file's fastener
     groups (fem.fastener_part)."""
-    from .fastener_part import part_groups
-
     return pin_groups(spec) + part_groups(spec)
 
 
-def part_fastener_results(solved: GroupsSolve, spec: PartSpec, mesh: Mesh):
+def part_fastener_results(solved: GroupsSolve, spec: PartSpec, mesh: Mesh) -> PartFasteners | None:
     """The part file's fastener groups out of the case's contact solve (fem.fastener_part.PartFasteners), or
     None when the part has none."""
-    from .fastener_part import part_fasteners
-
     return part_fasteners(solved, mesh, len(pin_groups(spec)), contact_groups(spec)) if spec.fasteners else None
 
 
 def has_contact(spec: PartSpec) -> bool:
-    """True when solving the case needs the contact iteration: a rigid loading pin or any pin hold."""
+    """True when solving the case needs the contact iteration: a rigid loading pin, any pin hold or any
+    fastener group."""
     return bool(contact_groups(spec))
 
 
