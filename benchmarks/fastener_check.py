@@ -9,7 +9,7 @@ governing peak, then whether the study converged, its band and the wall time. Ru
 their holes (clearance 0) and with 0.1 mm diametral clearance (16.1 mm holes). Asserts nothing; the
 target (issue 16) is a 1 % band in under 20 s on two cores. Usage:
 
-    python benchmarks/fastener_check.py [--clearances 0 0.1] [--levels 6]
+    python benchmarks/fastener_check.py [--clearances 0 0.1] [--levels 6] [--order 1]
 """
 
 from __future__ import annotations
@@ -29,7 +29,7 @@ HOLD = [(x, y) for x in (-170.0, -130.0) for y in (-50.0, 0.0, 50.0)]
 PULL = [(x, y) for x in (130.0, 170.0) for y in (-50.0, 0.0, 50.0)]
 
 
-def part_text(clearance: float, levels: int) -> str:
+def part_text(clearance: float, levels: int, order: int = 1) -> str:
     holes = "".join(f"[[hole]]\ncenter = [{x}, {y}]\ndiameter = {16.0 + clearance}\n" for x, y in HOLD + PULL)
     return (f'title = "spreader splice plate, twelve bolts, clearance {clearance} mm"\n'
             "[plate]\nlength = 420.0\nwidth = 160.0\nthickness = 12.0\n" + holes +
@@ -38,13 +38,13 @@ def part_text(clearance: float, levels: int) -> str:
             "holds = true\n"
             '[[fasteners]]\nname = "right bolts"\nholes = [7, 8, 9, 10, 11, 12]\ndiameter = 16.0\nshear_planes = 2\n'
             '[load]\n[[load.fasteners]]\ngroup = "right bolts"\nforce = 151327.46\ndirection = [150000.0, 20000.0]\n'
-            f"moment = 1.5e6\n[mesh]\ntolerance = 0.01\nmax_levels = {levels}\n")
+            f"moment = 1.5e6\n[mesh]\ntolerance = 0.01\nmax_levels = {levels}\norder = {order}\n")
 
 
-def run(clearance: float, levels: int) -> dict:
+def run(clearance: float, levels: int, order: int = 1) -> dict:
     with tempfile.TemporaryDirectory() as tmp:
         part, out = Path(tmp) / "plate.toml", Path(tmp) / "check.json"
-        part.write_text(part_text(clearance, levels))
+        part.write_text(part_text(clearance, levels, order))
         before = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss
         clock = time.perf_counter()
         done = subprocess.run([sys.executable, "-m", "stressraiser", "check", str(part), "--json", str(out), "--quiet"],
@@ -56,7 +56,7 @@ def run(clearance: float, levels: int) -> dict:
         record = json.loads(out.read_text())
     levels_out = [{"nodes": lv["nodes"], "passes": lv["contact_passes"], "peak": lv["peak"],
                    "seconds": None} for lv in record["mesh"]["levels"]]
-    return {"clearance": clearance, "wall_s": wall, "peak_rss_mb": peak, "converged": record["kt"]["converged"],
+    return {"clearance": clearance, "order": order, "wall_s": wall, "peak_rss_mb": peak, "converged": record["kt"]["converged"],
             "band": record["kt"]["error"], "peak": record["peak"]["stress"], "feature": record["peak"]["feature"],
             "stop": record["mesh"]["stop_reason"], "levels": levels_out, "exit": done.returncode,
             "passes": record["fasteners"]["contact_passes"]}
@@ -66,14 +66,15 @@ def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--clearances", type=float, nargs="+", default=[0.0, 0.1])
     parser.add_argument("--levels", type=int, default=6)
+    parser.add_argument("--order", type=int, default=1, help="mesh.order: 1 (linear triangles) or 2 (quadratic)")
     args = parser.parse_args()
     print(machine())
     for clearance in args.clearances:
-        r = run(clearance, args.levels)
+        r = run(clearance, args.levels, args.order)
         if "error" in r:
             print(f"clearance {clearance} mm: failed after {r['wall_s']:.1f} s: {r['error']}")
             continue
-        print(f"clearance {clearance} mm: {'converged' if r['converged'] else 'NOT converged'}, band "
+        print(f"clearance {clearance} mm, order {args.order}: {'converged' if r['converged'] else 'NOT converged'}, band "
               f"{r['band']:.2%}, peak {r['peak']:.1f} MPa at {r['feature']}, {len(r['levels'])} levels, "
               f"{r['wall_s']:.1f} s wall, peak memory {r['peak_rss_mb']:.0f} MB; contact passes per level "
               f"{r['passes']}")
