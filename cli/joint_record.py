@@ -54,6 +54,9 @@ def joints_record(result: CheckResult) -> dict[str, Any] | None:
                 "pitch_over_d": _number(f.pitch), "hand_force": [float(v) for v in f.hand],
                 "contact_arc": list(f.arc), "peak_pressure": f.peak_pressure,
             } for f in g.fasteners],
+            "net_path": None if g.net_path is None else {
+                "holes": list(g.net_path.holes), "net_width": g.net_path.width, "gross_width": g.net_path.gross,
+                "fe_peak_hole": g.net_path.fe_hole, "source": g.net_path.source},
             "average_checks": [{
                 "name": a.check.name, "average": a.check.stress, "formula": a.check.formula,
                 "source": a.check.source, "fe_peak": a.peak, "fe_what": a.peak_what, "ratio": a.ratio,

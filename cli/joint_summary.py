@@ -55,6 +55,14 @@ def print_joints(result: CheckResult, console: Console) -> None:
                       f"{force}, moment {shown(mz, 'moment', units, '.4f', True)} {label('moment', units, True)}; "
                       f"fastener forces sum to it within {g.statics_error:.1e}; hand sharing: {g.hand_method}, "
                       f"{g.hand_source}", soft_wrap=False, markup=False)
+        p = g.net_path
+        if p is not None:
+            through = ("holes " + ", ".join(str(h) for h in p.holes)) if p.holes else "no hole (the gross width)"
+            fe = "" if p.fe_hole is None else (f"; the FE's largest tensile peak of the group is at hole {p.fe_hole} "
+                                               f"({'on' if p.fe_on_path else 'off'} that path)")
+            console.print(f"  critical net path by s^2/(4g) ({p.source}): through {through}, net width "
+                          f"{quantity_text(p.width, 'length', units)} of {quantity_text(p.gross, 'length', units)}{fe}",
+                          soft_wrap=False, markup=False)
         for a in g.averages:
             console.print(f"  {a.words(lambda v: quantity_text(v, 'stress', units))} ({a.check.source})",
                           soft_wrap=False, markup=False)

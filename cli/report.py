@@ -656,7 +656,15 @@ def _joints_section(result: CheckResult) -> str:
         parts.append(_table(rows, header=("hole", "force", "direction °", "share", "bearing", "shear", "bypass",
                                           "peak", "Kt net", "Kt brg", "edge / d", "pitch / d", "hand"),
                             numeric=range(13)))
-        parts.append(_list([f"{a.words(lambda v: _amount(v, 'stress', units))} ({a.check.source})" for a in g.averages]))
+        items = [f"{a.words(lambda v: _amount(v, 'stress', units))} ({a.check.source})" for a in g.averages]
+        p = g.net_path
+        if p is not None:
+            through = ("holes " + ", ".join(str(h) for h in p.holes)) if p.holes else "no hole (the gross width)"
+            fe = "" if p.fe_hole is None else (f"; the FE's largest tensile peak of the group is at hole {p.fe_hole} "
+                                               f"({'on' if p.fe_on_path else 'off'} that path)")
+            items.insert(0, f"critical net path by s^2/(4g) ({p.source}): through {through}, net width "
+                            f"{_amount(p.width, 'length', units)} of {_amount(p.gross, 'length', units)}{fe}")
+        parts.append(_list(items))
     passes = ", ".join("—" if p is None else str(p) for p in joints.passes)
     parts.append(_p(f"Contact passes per mesh level: {passes}. {joints.cautions[0]}", "small"))
     return _section("fasteners", "Fastener groups, per fastener and per hole", *parts)

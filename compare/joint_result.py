@@ -18,10 +18,12 @@ fasteners' forces on the part):
   the minima.
 
 The hand checks beside the FE (compare.joint_checks): the group's sharing by equal shares (a concentric
-load) or by the elastic method (an eccentric one), each fastener's hand force against the FE's; and the
-average-stress checks of a simple connection (fastener shear, bearing, net-section tension) with how far
-each understates the FE peak it stands for (the most loaded fastener's shear, the peak contact pressure at
-the group's holes, the tensile peak at its holes).
+load) or by the elastic method (an eccentric one), each fastener's hand force against the FE's; the
+critical net path across the group's load by the s^2 / (4 g) rule ([Cochrane]) beside the hole where the FE
+puts the group's largest tensile peak; and the average-stress checks of a simple connection (fastener
+shear, bearing, net-section tension on that path's net width) with how far each understates the FE peak it
+stands for (the most loaded fastener's shear, the peak contact pressure at the group's holes, the tensile
+peak at its holes).
 """
 
 from __future__ import annotations
@@ -37,7 +39,7 @@ from ..fem.fastener_part import PartFasteners, mean_bearing
 from ..geometry.kinds.hole import named as named_hole
 from ..geometry.outline import part_polygon
 from ..geometry.spec import PartSpec, SectionSpec
-from .joint_checks import (ELASTIC_SOURCE, PRACTICE, Understatement, critical_net_path,
+from .joint_checks import (ELASTIC_SOURCE, PRACTICE, STAGGER_SOURCE, Understatement, critical_net_path,
                            elastic_method, simple_connection, spacing, understatement)
 from .method_of_sections import section_result
 
@@ -84,8 +86,8 @@ class FastenerRow:
 class GroupRows:
     """One group: its name, whether it holds, its load or reaction (Fx, Fy N, Mz N mm about its reference
     point), the FE fasteners' resultant and moment there and the relative statics error, the group's mean
-    bearing, the hand method's name and source, its fasteners, and the average-stress checks with how far
-    each understates the FE peak it stands for."""
+    bearing, the hand method's name and source, its fasteners, the average-stress checks with how far
+    each understates the FE peak it stands for, and its critical net path by the s^2 / (4 g) rule."""
 
     name: str
     holds: bool
@@ -102,6 +104,7 @@ class GroupRows:
     shear_planes: int
     stiffness: float
     stiffness_source: str
+    net_path: NetPathRow | None = None
 
 
 @dataclass(frozen=True)
@@ -163,13 +166,16 @@ def joint_result(spec: PartSpec, study: Study, solution: Solution) -> JointResul
                 None if peak is None or not net else abs(peak / net),
                 None if peak is None or bearing_mean == 0.0 else abs(peak / bearing_mean),
                 spaced[k].edge, spaced[k].pitch, hand[k], f.arc, f.peak_pressure))
-        averages = _averages(spec, g, fasteners, math.hypot(load[0], load[1]), t, exterior)
+        size = math.hypot(load[0], load[1])
+        along = resultant / size if size > 0.0 else np.array([1.0, 0.0])
+        path = net_path(spec, g, fasteners, along, exterior)
+        averages = _averages(g, fasteners, size, t, path)
         fastener = model.fastener
         rows.append(GroupRows(g.name, g.holds, tuple(float(v) for v in load),
                               (float(total[0]), float(total[1]), moment), error, bearing_mean,
                               method, PRACTICE if concentric else ELASTIC_SOURCE, tuple(fasteners), averages,
                               fastener.diameter, fastener.clearance, fastener.shear_planes, fastener.stiffness,
-                              fastener.stiffness_source))
+                              fastener.stiffness_source, path))
     return JointResult(tuple(rows), tuple(lv.passes for lv in study.levels))
 
 
@@ -196,16 +202,37 @@ def _net_and_bypass(spec: PartSpec, solution: Solution, number: int, along: np.n
     return (N / result.area if result.area > 0.0 else 0.0), float(bypass)
 
 
-def _averages(spec: PartSpec, g, rows: list[FastenerRow], force: float, t: float, exterior) -> tuple[Understatement, ...]:
-    """The simple connection's average stresses and how far each understates the FE peak it stands for."""
-    if force == 0.0:
-        return ()
-    direction = rows[int(np.argmax([r.magnitude for r in rows]))].force
-    along = direction / np.linalg.norm(direction)
+@dataclass(frozen=True)
+class NetPathRow:
+    """The group's critical net path by the s^2 / (4 g) rule ([Cochrane]) across its load: the holes on it
+    (numbers, in order across the load), its net width and the plate's gross width on the line through the
+    group's centroid (mm), and the hole of the group's largest FE tensile peak (None without peaks)."""
+
+    holes: tuple[int, ...]
+    width: float
+    gross: float
+    fe_hole: int | None
+    source: str = STAGGER_SOURCE
+
+    @property
+    def fe_on_path(self) -> bool:
+        return self.fe_hole is not None and self.fe_hole in self.holes
+
+
+def net_path(spec: PartSpec, g, rows: list[FastenerRow], along: np.ndarray, exterior) -> NetPathRow:
+    """The group's critical net path across `along` (a unit vector: the group's load) and the FE's hole."""
     centres = np.array([spec.holes[h - 1].center for h in g.holes], float)
     d_holes = [spec.holes[h - 1].diameter for h in g.holes]
     width = _width_across(exterior, centres.mean(axis=0), along)
     path = critical_net_path(width, centres, d_holes, tuple(along))
+    peaks = [(r.peak, r.hole) for r in rows if r.peak is not None]
+    return NetPathRow(tuple(g.holes[i] for i in path.holes), path.width, width, max(peaks)[1] if peaks else None)
+
+
+def _averages(g, rows: list[FastenerRow], force: float, t: float, path: NetPathRow) -> tuple[Understatement, ...]:
+    """The simple connection's average stresses and how far each understates the FE peak it stands for."""
+    if force == 0.0:
+        return ()
     checks = simple_connection(force, len(g.holes), g.diameter, g.shear_planes, t, path.width)
     out = []
     fe_shear = max(r.shear for r in rows)

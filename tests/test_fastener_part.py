@@ -431,3 +431,14 @@ def test_a_square_lug_pinned_by_a_one_fastener_group_is_the_lug_case():
     assert "one-fastener group" in match.recognised.description and match.recognised.params["d/H"] == 0.4
     lug["load"]["fasteners"][0]["direction"] = 90.0
     assert not [m for m in handbook_matches(part_from_dict(lug)) if m.case.key == "pin-loaded-square-lug"]
+
+
+def test_the_critical_net_path_is_a_straight_row_of_the_splice(splice):
+    # the s^2 / (4 g) rule ([Cochrane], from memory) across a rectangular pattern: a straight row of two holes,
+    # W - 2 d = 140 - 36 = 104 mm, beats any staggered path (+ 50^2 / (4 x 70) = 8.9 mm); the FE's largest
+    # peak of each group is at an inner hole, on the row nearest the joint
+    for g in splice.joints.groups:
+        p = g.net_path
+        assert p.width == pytest.approx(140.0 - 2 * 18.0, rel=1e-12) and p.gross == pytest.approx(140.0, rel=1e-12)
+        assert len(p.holes) == 2 and SPLICE[p.holes[0] - 1][0] == SPLICE[p.holes[1] - 1][0]
+        assert abs(SPLICE[p.fe_hole - 1][0]) == 100.0
