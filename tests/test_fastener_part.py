@@ -442,3 +442,16 @@ def test_the_critical_net_path_is_a_straight_row_of_the_splice(splice):
         assert p.width == pytest.approx(140.0 - 2 * 18.0, rel=1e-12) and p.gross == pytest.approx(140.0, rel=1e-12)
         assert len(p.holes) == 2 and SPLICE[p.holes[0] - 1][0] == SPLICE[p.holes[1] - 1][0]
         assert abs(SPLICE[p.fe_hole - 1][0]) == 100.0
+
+
+def test_groups_join_holds_and_edge_loads_on_the_boundary():
+    # a plate held on its left edge by a [[hold]], loaded through a group and by a force on its top edge: the
+    # group carries its own load exactly, and the supports' reactions balance everything (statics)
+    extra = ('[[hold]]\nat = [-150.0, 0.0]\nmode = "fixed"\n'
+             '[[load.edge]]\nat = [0.0, 50.0]\nforce = "2 kN"\ndirection = 0.0\n')
+    spec = parse_part(base(load=LOAD + extra))
+    assert spec.support.holds and spec.load.edges and spec.load.kind == "fasteners"
+    (solution,) = solve_cases(spec, mesh_level(spec, 1.0))
+    assert forces(solution).sum(axis=0) == pytest.approx([10000.0, 0.0], abs=1e-9 * 10000.0)
+    reactions = solution.reactions.reshape(-1, 2).sum(axis=0)
+    assert reactions == pytest.approx([-12000.0, 0.0], abs=1e-6 * 12000.0)
