@@ -455,3 +455,17 @@ def test_groups_join_holds_and_edge_loads_on_the_boundary():
     assert forces(solution).sum(axis=0) == pytest.approx([10000.0, 0.0], abs=1e-9 * 10000.0)
     reactions = solution.reactions.reshape(-1, 2).sum(axis=0)
     assert reactions == pytest.approx([-12000.0, 0.0], abs=1e-6 * 12000.0)
+
+
+def test_a_hole_deforming_far_beyond_its_clearance_is_named():
+    # E given in GPa by mistake (210 for 210 GPa): the holes deform far more than the 0.2 mm clearance, which
+    # then no longer counts (compare/plausibility.py, as for the rigid pin)
+    from stressraiser.compare.plausibility import input_warnings
+
+    text = base('[[fasteners]]\nname = "g"\nholes = [1, 2]\nclearance = 0.2\n').replace("E = 210000.0", "E = 210.0")
+    text = text.replace('"10 kN"', '"30 kN"')  # the holes then deform by about 5 mm
+    spec, solution = solved(text)
+    words = [str(w) for w in input_warnings(spec, solution, 100.0)]
+    assert any("hole 1 deforms by" in w and "fasteners 1 ('g')" in w and "check material.E" in w for w in words)
+    spec, solution = solved(base('[[fasteners]]\nname = "g"\nholes = [1, 2]\nclearance = 0.2\n'))
+    assert not any("deforms by" in str(w) for w in input_warnings(spec, solution, 100.0))
