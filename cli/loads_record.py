@@ -20,6 +20,10 @@ def load_record(spec: PartSpec) -> dict[str, Any]:
     out: dict[str, Any] = {"kind": load.kind, "axial": load.axial, "bending": load.bending, "shear": load.shear}
     if load.edges:
         out["edges"] = [_edge_record(spec, e) for e in load.edges]
+    if load.fasteners:
+        from .joint_record import group_loads_record
+
+        out["fasteners"] = group_loads_record(spec)
     if load.remote is not None:
         out["remote"] = {"sx": load.remote.sx, "sy": load.remote.sy, "txy": load.remote.txy}
     if load.pin is not None:
@@ -165,6 +169,7 @@ def _finite(value: float | None) -> float | None:
 def case_record(result: CheckResult, governing: bool) -> dict[str, Any]:
     """One load case of a check: its load, converged peak, critical section, Kt and band, the peak of
     every mesh level, and its sign-off when the part file asks for one (mm, N, MPa)."""
+    from .joint_record import joints_record
     from .signoff_record import design_record, fatigue_record
 
     ns, kt = result.net_section, result.kt
@@ -183,4 +188,5 @@ def case_record(result: CheckResult, governing: bool) -> dict[str, Any]:
         "warnings": [str(w) for w in result.warnings],
         "design": design_record(result.design),
         "fatigue": fatigue_record(result.fatigue),
+        "fasteners": joints_record(result),
     }

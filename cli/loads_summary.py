@@ -136,6 +136,10 @@ def stress_rows(result: CheckResult) -> list[Row]:
         rows.append(("Compressive peak", quantity_text(s.min_principal.value, "stress", units),
                      f"min principal at {point_text(s.min_principal.location, units)}, where the pin bears: "
                      "bearing, not the Kt"))
+    elif s.compressive_governs and result.joints is not None and result.solution.bearing[s.min_principal.node]:
+        rows.append(("Compressive peak", quantity_text(s.min_principal.value, "stress", units),
+                     f"min principal at {point_text(s.min_principal.location, units)}, where a fastener bears: "
+                     "bearing (the fastener rows), not the Kt"))
     elif s.compressive_governs:
         rows.append(("Compressive peak", quantity_text(s.min_principal.value, "stress", units),
                      f"min principal at {point_text(s.min_principal.location, units)} "

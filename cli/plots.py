@@ -1070,6 +1070,7 @@ def design_figure(design: DesignCheck | None, units: str = DEFAULT_SYSTEM) -> Fi
         return None
     checks = design.checks
     names = {"net-section": "hand check", "remote-stress": "hand check", "bearing": "pin bearing",
+             "fastener-shear": "fastener shear",
              "peak-von-mises": "peak, von Mises", "peak-principal": "peak, max principal"}
     governs = design.peak if design.governing_check == "peak" else design.hand
     fig = _figure(height=1.2 + 0.55 * len(checks))

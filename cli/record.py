@@ -11,6 +11,7 @@ from ..fem.convergence import FORMAL_ORDER
 from ..geometry.registry import kind_of, named, outline_of, raiser_label
 from .loads_record import (case_record, kt_basis, load_record, net_section_statics, nominal_records, peak_component,
                            pin_contact_record, pin_holds_record, section_record, stresses_record, support_record)
+from .joint_record import fasteners_spec_record, joints_record
 from .signoff_record import design_record, fatigue_record, material_record
 
 SCHEMA = "stressraiser.check/1"
@@ -36,6 +37,7 @@ def check_record(result: CheckResult) -> dict[str, Any]:
             "material": material_record(spec.material),
             "load": load_record(spec),
             "support": support_record(spec),
+            "fasteners": fasteners_spec_record(spec),
         },
         "peak": {
             "stress": result.peak.stress,
@@ -77,6 +79,7 @@ def check_record(result: CheckResult) -> dict[str, Any]:
         "nominal_stresses": nominal_records(result),
         "pin_contact": pin_contact_record(result),
         "pin_holds": pin_holds_record(result),
+        "fasteners": joints_record(result),
         "sections": [section_record(r) for r in result.sections],
         "mesh": {
             "tolerance": spec.mesh.tolerance,
@@ -93,7 +96,7 @@ def check_record(result: CheckResult) -> dict[str, Any]:
                 {"scale": lv.scale, "nodes": lv.nodes, "elements": lv.elements, "peak": lv.peak,
                  "location": list(lv.location), "solver": lv.solver,
                  "raisers": {str(name): peak for name, (peak, _) in lv.raisers.items()},
-                 "bearing_pressure": lv.bearing}
+                 "bearing_pressure": lv.bearing, "contact_passes": lv.passes}
                 for lv in study.levels
             ],
         },

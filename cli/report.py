@@ -307,6 +307,7 @@ def report_html(result: CheckResult, figures: list[Rendered], part_text: str | N
         _stress_section(result, by_section.get("stress", [])),
         _sections_section(result, by_section.get("section", [])),
         _cuts_section(result, by_section.get("cuts", [])),
+        _joints_section(result),
         _convergence_section(result, by_section.get("convergence", [])),
         _handbook_section(result, by_section.get("handbook", [])),
         _design_section(result, by_section.get("design", [])),
@@ -622,6 +623,51 @@ def _cuts_section(result: CheckResult, figures: list[Rendered]) -> str:
     text = ("Each cut integrates the FE stresses across the part (normal force N, shear force V, moment M about "
             "the centroid of its material) and compares them with what statics requires of the applied loads.")
     return _section("cuts", "The cuts you asked for", _p(text), table, _figures(figures))
+
+
+def _joints_section(result: CheckResult) -> str:
+    """The fastener groups: per fastener and per hole, the hand checks beside the FE (compare/joint_result.py)."""
+    joints = result.joints
+    if joints is None:
+        return ""
+    units = result.spec.units
+    parts = [_p("Each group's fasteners share its load as the FE finds it: every fastener bears on its hole by "
+                "frictionless contact and is joined to the group's rigid connecting member by its stiffness. "
+                "Bearing F / (d t) and the fastener's average shear F / (n pi d^2 / 4) are common practice; the "
+                "bypass is the plate's load passing the hole (statics of the cut through its centre, across the "
+                "group's load; a concentric group only), Kt net is the hole's converged tensile peak over N / A_net "
+                "on that cut and Kt brg over the group's mean bearing. The hand column is the hand method's force "
+                "on the fastener (equal shares, or the elastic method for an eccentric group).")]
+    for g in joints.groups:
+        fit = "neat fit" if g.clearance == 0.0 else f"clearance {_amount(g.clearance, 'length', units)}"
+        stiff = "rigid" if math.isinf(g.stiffness) else f"{_amount(g.stiffness, 'stiffness', units)} ({g.stiffness_source})"
+        parts.append(f"<h3>{esc(g.name)} ({'holds the part' if g.holds else 'loads the part'})</h3>")
+        parts.append(_p(f"Fastener d {_amount(g.diameter, 'length', units)}, {fit}, {g.shear_planes} shear "
+                        f"plane(s), {stiff}. {'Reaction' if g.holds else 'Load'} "
+                        f"{_amount(math.hypot(*g.load[:2]), 'force', units, resultant=True)}, moment "
+                        f"{_amount(g.load[2], 'moment', units, resultant=True)} about its reference point; the "
+                        f"fasteners' forces sum to it within {g.statics_error:.1e}. Hand sharing: {g.hand_method}, "
+                        f"{g.hand_source}."))
+        rows = [(f.hole, _amount(f.magnitude, "force", units, resultant=True), f"{f.direction:.1f}", f"{f.share:.1%}",
+                 _amount(f.bearing, "stress", units), _amount(f.shear, "stress", units),
+                 _amount(f.bypass, "force", units, resultant=True), _amount(f.peak, "stress", units),
+                 _num(f.kt_net), _num(f.kt_bearing), f"{f.edge:.2f}", _num(f.pitch, 3),
+                 _amount(math.hypot(*f.hand), "force", units, resultant=True)) for f in g.fasteners]
+        parts.append(_table(rows, header=("hole", "force", "direction °", "share", "bearing", "shear", "bypass",
+                                          "peak", "Kt net", "Kt brg", "edge / d", "pitch / d", "hand"),
+                            numeric=range(13)))
+        items = [f"{a.words(lambda v: _amount(v, 'stress', units))} ({a.check.source})" for a in g.averages]
+        p = g.net_path
+        if p is not None:
+            through = ("holes " + ", ".join(str(h) for h in p.holes)) if p.holes else "no hole (the gross width)"
+            fe = "" if p.fe_hole is None else (f"; the FE's largest tensile peak of the group is at hole {p.fe_hole} "
+                                               f"({'on' if p.fe_on_path else 'off'} that path)")
+            items.insert(0, f"critical net path by s^2/(4g) ({p.source}): through {through}, net width "
+                            f"{_amount(p.width, 'length', units)} of {_amount(p.gross, 'length', units)}{fe}")
+        parts.append(_list(items))
+    passes = ", ".join("—" if p is None else str(p) for p in joints.passes)
+    parts.append(_p(f"Contact passes per mesh level: {passes}. {joints.cautions[0]}", "small"))
+    return _section("fasteners", "Fastener groups, per fastener and per hole", *parts)
 
 
 def _percent(value: float | None) -> str:

@@ -93,6 +93,7 @@ def design_record(design: DesignSignOff | None) -> dict[str, Any] | None:
             "net_width": c.net_width_mm,
         },
         "bearing_strength": c.bearing_strength_mpa,
+        "fastener_shear_strength": c.fastener_shear_strength_mpa,
         "passes": c.passes,
         "statements": list(c.statements),
         "basis": list(design.basis),

@@ -63,6 +63,7 @@ def check_rows(design: DesignSignOff, units: str) -> list[tuple[str, ...]]:
 
 
 CHECK_NAMES = {"net-section": "hand check", "remote-stress": "hand check", "bearing": "pin bearing",
+               "fastener-shear": "fastener shear",
                "peak-von-mises": "peak von Mises", "peak-principal": "peak principal"}
 CHECK_HEADER = ("check", "stress", "allowable", "margin", "FoS y", "FoS u", "t req", "")
 

@@ -16,6 +16,7 @@ from .citation import short_source
 from .display_units import label, point_text, quantity_text, shown, warning_text
 from ..compare.edge_cut import EDGE_NORMAL
 from .loads_summary import bearing_rows, boundary_rows, nominal_rows, pin_rows, print_cases, print_sections, stress_rows
+from .joint_summary import print_joints
 from .signoff_summary import print_signoff
 
 
@@ -246,4 +247,5 @@ def print_cautions(result: CheckResult, console: Console) -> None:
     console.print(grid)
 
 
-BLOCKS = (print_heading, print_key_numbers, print_cases, print_sections, print_levels, print_signoff, print_cautions)
+BLOCKS = (print_heading, print_key_numbers, print_cases, print_sections, print_joints, print_levels, print_signoff,
+          print_cautions)

@@ -30,6 +30,7 @@ from .nominal import GrossSection, NominalSet, critical_cut, edge_nominals, gros
 from .sections import Cut
 from .stress_peaks import StressPeaks, stress_peaks
 from .case_cycle import part_fatigue
+from .joint_result import JointResult, joint_result
 from .signoff import DesignSignOff, FatigueSignOff, with_signoff
 
 EQUILIBRIUM_WARNING = 0.005  # relative mismatch of the section force that earns a warning
@@ -171,6 +172,7 @@ class CheckResult:
     cases: tuple[CheckResult, ...] = ()  # with several load cases: every case's result (this one among them)
     bearing: Bearing | None = None  # a pin's contact pressure against P / (d t), where a pin bears
     gross: GrossSection | None = None  # the gross section Kt(gross) is referred to (compare.nominal.gross_section)
+    joints: JointResult | None = None  # the fastener groups per fastener and per hole (compare.joint_result)
 
     @property
     def understatement(self) -> float | None:
@@ -246,7 +248,8 @@ def check_case(spec: PartSpec, study: Study, solution: Solution, name: str = SIN
                                                            + result_warnings(spec, study, solution, peak, section, kt)),
                                     nominal=nominal, stresses=stress_peaks(solution), sections=cuts,
                                     peaks=raiser_peaks(spec, study, solution, matches, head), case=name,
-                                    bearing=bearing_result(spec, study), gross=gross))
+                                    bearing=bearing_result(spec, study), gross=gross,
+                                    joints=joint_result(spec, study, solution)))
 
 
 def _candidate_section(spec: PartSpec, name: RaiserId | str,
@@ -365,6 +368,11 @@ def _cautions(spec: PartSpec) -> tuple[str, ...]:
         extra.append("A pin hold is a rigid, frictionless pin that fits its hole and is fixed in space; clearance, "
                      "friction and the pin's and its mounting's own stiffness change where and how hard the part "
                      "bears on it.")
+    if spec.fasteners:
+        extra.append("Each fastener of a group is a rigid, frictionless pin in its hole (with the stated clearance) "
+                     "joined to a rigid connecting member by its stated stiffness; friction of a preloaded joint, "
+                     "fastener bending, the other member's own flexibility and hole-to-hole fit differences change "
+                     "the sharing and the peaks. A holding group's member is fixed in space.")
     if spec.load.edges:
         extra.append("Loads on the part's edges are spread as stated (a uniform traction over the stretch, or a "
                      "uniform pressure); whatever applies them in service distributes them differently near where "

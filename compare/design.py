@@ -173,6 +173,8 @@ class DesignCheck:
     bearing_strength_mpa: float | None
     passes: bool
     statements: tuple[str, ...]
+    fastener_shear: CheckLine | None = None  # the most loaded fastener's average shear, when a strength is given
+    fastener_shear_strength_mpa: float | None = None
 
     @property
     def peak(self) -> CheckLine:
@@ -183,7 +185,8 @@ class DesignCheck:
     def checks(self) -> tuple[CheckLine, ...]:
         """Every line: the hand check, the bearing (a pin), the governing peak, then the other peak."""
         other = self.peak_principal if self.peak is self.peak_von_mises else self.peak_von_mises
-        return (self.hand, *((self.bearing,) if self.bearing is not None else ()), self.peak, other)
+        return (self.hand, *((self.bearing,) if self.bearing is not None else ()),
+                *((self.fastener_shear,) if self.fastener_shear is not None else ()), self.peak, other)
 
     @property
     def required_net_area_mm2(self) -> float | None:
@@ -266,8 +269,12 @@ def design_statements(c: DesignCheck, system: str = DEFAULT_SYSTEM) -> tuple[str
         ]
     out.append(other)
     if c.bearing is not None:
-        out.append(line(c.bearing, f"Pin bearing ({c.bearing.formula})",
+        out.append(line(c.bearing, f"{c.bearing.label[0].upper()}{c.bearing.label[1:]} ({c.bearing.formula})",
                         f"bearing strength {stress(c.bearing_strength_mpa)} / {c.fos_yield:.4g}")
+                   + " It must pass as well.")
+    if c.fastener_shear is not None:
+        out.append(line(c.fastener_shear, f"Fastener shear ({c.fastener_shear.formula})",
+                        f"shear strength {stress(c.fastener_shear_strength_mpa)} / {c.fos_yield:.4g}")
                    + " It must pass as well.")
     if max(c.peak_von_mises.actual_mpa, c.peak_principal.actual_mpa) > c.yield_mpa:
         out.append(
@@ -276,6 +283,7 @@ def design_statements(c: DesignCheck, system: str = DEFAULT_SYSTEM) -> tuple[str
         )
     out.append(_required_text(c, system))
     with_bearing = " with the bearing check" if c.bearing is not None else ""
+    with_bearing += " and the fastener shear check" if c.fastener_shear is not None else ""
     out.append(f"Overall ({c.governing_check} check governs{with_bearing}): {_verdict(c.passes)}.")
     return tuple(out)
 
@@ -318,6 +326,9 @@ def design_check(
     load_kind: str = "axial",
     bearing_mpa: float | None = None,
     bearing_strength_mpa: float | None = None,
+    bearing_label: str = "pin bearing stress",
+    fastener_shear_mpa: float | None = None,
+    fastener_shear_strength_mpa: float | None = None,
 ) -> DesignCheck:
     """Build the static DesignCheck of one part.
 
@@ -330,7 +341,11 @@ def design_check(
     ductile:            True if local yielding can redistribute the peak under static load.
     load_kind:          geometry.spec.LOAD_KINDS, for the record.
     bearing_mpa, bearing_strength_mpa: a pin's bearing stress F / (d t) and the bearing strength it is
-                        checked against (allowable = strength / fos_yield); both or neither.
+                        checked against (allowable = strength / fos_yield); both or neither; bearing_label
+                        names it (a pin's, or the most loaded fastener's of a group).
+    fastener_shear_mpa, fastener_shear_strength_mpa: the most loaded fastener's average shear
+                        F / (n pi d^2 / 4) and the fasteners' shear strength (allowable = strength / fos_yield);
+                        both or neither.
     """
     _positive("thickness_mm", thickness_mm)
     if net_width_mm is not None:
@@ -353,9 +368,15 @@ def design_check(
     bearing = None
     if bearing_mpa is not None:
         _positive("bearing_strength_mpa", bearing_strength_mpa)
-        bearing = check_line("bearing", "pin bearing stress", "F / (d t)", bearing_mpa,
+        bearing = check_line("bearing", bearing_label, "F / (d t)", bearing_mpa,
                              allowable_stress(bearing_strength_mpa, fos_yield), bearing_strength_mpa,
                              bearing_strength_mpa, None, thickness_mm)
+    shear = None
+    if fastener_shear_mpa is not None:
+        _positive("fastener_shear_strength_mpa", fastener_shear_strength_mpa)
+        shear = check_line("fastener-shear", "fastener shear stress", "F / (n pi d^2 / 4), the most loaded fastener",
+                           fastener_shear_mpa, allowable_stress(fastener_shear_strength_mpa, fos_yield),
+                           fastener_shear_strength_mpa, fastener_shear_strength_mpa, None, None)
     peak_criterion = CRITERION_DUCTILE if ductile else CRITERION_BRITTLE
     governing = hand.key if ductile else "peak"
     main = hand_line if ductile else (von_mises if peak_criterion == CRITERION_DUCTILE else principal)
@@ -380,7 +401,9 @@ def design_check(
         peak_principal=principal,
         bearing=bearing,
         bearing_strength_mpa=bearing_strength_mpa,
-        passes=main.passes and (bearing is None or bearing.passes),
+        passes=main.passes and (bearing is None or bearing.passes) and (shear is None or shear.passes),
         statements=(),
+        fastener_shear=shear,
+        fastener_shear_strength_mpa=fastener_shear_strength_mpa,
     )
     return replace(check, statements=design_statements(check))

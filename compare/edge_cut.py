@@ -59,8 +59,9 @@ class EdgeCut:
 
 def uses_edge_cut(spec: PartSpec) -> bool:
     """Whether the part's Kt is taken on the cut normal to the edge: it is held or loaded on its own
-    boundary ([[hold]] supports, [[load.edge]] loads), so no load axis gives a cut "across the load"."""
-    return bool(spec.support.holds or spec.load.edges)
+    boundary ([[hold]] supports, [[load.edge]] loads) or through fastener groups, so no load axis gives a cut
+    "across the load"."""
+    return bool(spec.support.holds or spec.load.edges or spec.fasteners)
 
 
 def inward_normal(spec: PartSpec, location: tuple[float, float]) -> tuple[float, float] | None:

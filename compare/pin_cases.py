@@ -75,11 +75,20 @@ def recognise_square_lug(spec: PartSpec) -> Recognised | None:
     """One hole on the centre line of a square-ended plate (nothing else), pulled towards the free end by a
     pin through it, the end distance at least one width and the held end at least FAR_END widths away."""
     load = spec.load
-    if load.kind != "pin" or load.pin.hole != 1:
+    if load.kind == "fasteners":  # the pin as a one-fastener group of the part file
+        pin = _group_pin(spec)
+        if pin is None:
+            return None
+        angle, model = pin
+    elif load.kind != "pin" or load.pin.hole != 1:
         return None
-    pin, hole = load.pin, spec.holes[0]
+    else:
+        angle = load.pin.angle
+        model = (f"rigid pin, clearance {load.pin.clearance:g} mm" if load.pin.contact == "rigid"
+                 else "cosine pressure (the data are for a closely fitting pin: contact = \"rigid\" models it)")
+    hole = spec.holes[0]
     H, half_l = spec.plate.width, 0.5 * spec.plate.length
-    if abs(math.sin(pin.angle)) > 1e-9 or math.cos(pin.angle) < 0.0:  # along +x, towards the free end
+    if abs(math.sin(angle)) > 1e-9 or math.cos(angle) < 0.0:  # along +x, towards the free end
         return None
     if abs(hole.center[1]) > POSITION_TOLERANCE * H:
         return None
@@ -88,11 +97,22 @@ def recognise_square_lug(spec: PartSpec) -> Recognised | None:
     x = hole.diameter / H
     if end_distance < MIN_END_DISTANCE * H or far < FAR_END * H or not D_OVER_H[0] <= x <= D_OVER_H[1]:
         return None
-    model = (f"rigid pin, clearance {pin.clearance:g} mm" if pin.contact == "rigid"
-             else "cosine pressure (the data are for a closely fitting pin: contact = \"rigid\" models it)")
     # the case describes the tensile peak at the hole's sides, on the free edge of the pin's hole
     return Recognised("pin-loaded-square-lug", f"pin-loaded square-ended lug, c/H = {end_distance / H:.3g}; FE pin "
                       f"model: {model}", {"d/H": x}, 1.0 / (1.0 - x), raiser=named_hole(1))
+
+
+def _group_pin(spec: PartSpec) -> tuple[float, str] | None:
+    """(direction in radians, the FE model in words) of a part loaded only by one rigid one-fastener group in
+    hole 1, with no moment about it, and held at its end: the lug's pin given as a [[fasteners]] group."""
+    load = spec.load
+    if (len(spec.fasteners) != 1 or spec.fasteners[0].holds or spec.fasteners[0].holes != (1,)
+            or spec.fasteners[0].stiffness != "rigid" or load.has_end_loads or load.edges or spec.support.holds):
+        return None
+    (group_load,) = load.fasteners
+    if group_load.moment != 0.0 or group_load.about is not None:
+        return None
+    return math.radians(group_load.direction), f"one-fastener group, clearance {spec.fasteners[0].clearance:g} mm"
 
 
 def build_square_lug(params: dict[str, float], width: float = 40.0) -> dict:

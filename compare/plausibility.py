@@ -12,7 +12,8 @@ a number in a wrong unit, an overload, a load far too small, a strap that buckle
   end load, from the elastica (the large-deflection solution, docs/references.md [Elastica], solved in
   benchmarks/model_limits.py), stays within 1 % of the linear one up to 10 % of the length (and the root
   moment within 0.6 %).
-- A rigid pin with clearance whose hole deforms more than CLEARANCE_MULTIPLE times the clearance. The
+- A rigid pin with clearance (or a fastener group's fastener) whose hole deforms more than
+  CLEARANCE_MULTIPLE times the clearance. The
   result then no longer depends on the clearance (it is the neat fit's: the gate hinge strap of the
   examples gives Kt 2.661 with E in GPa and 2.657 with a 0.001 mm clearance, against 3.760 with its
   0.1 mm), while at working loads a steel hole deforms by some hundredths of a millimetre: a wrong E or
@@ -64,7 +65,8 @@ def input_warnings(spec: PartSpec, solution: Solution, peak_stress: float) -> li
     modulus = _modulus_below_strength(spec)
     check_e = "check material.E" + ("" if modulus else f" (given in {_slip(spec)}?)")
     found = (modulus, _large_strain(spec, peak_stress, check_e), _large_displacement(spec, solution, check_e),
-             _pin_clearance(spec, solution, check_e), _beyond_strength(spec, peak_stress),
+             _pin_clearance(spec, solution, check_e), _group_clearance(spec, solution, check_e),
+             _beyond_strength(spec, peak_stress),
              _light_load(spec, peak_stress), _buckling(spec))
     return [w for w in found if w is not None]
 
@@ -142,6 +144,21 @@ def _pin_clearance(spec: PartSpec, solution: Solution, check_e: str) -> Notice |
                   "pin's clearance ", Amount(pin.clearance, "length"), "; the result no longer depends on the "
                   f"clearance (it is the neat fit's), and a metal hole at working load deforms far less: {check_e}, "
                   "load.pin.force and the clearance")
+
+
+def _group_clearance(spec: PartSpec, solution: Solution, check_e: str) -> Notice | None:
+    """The first fastener group's hole that deforms more than CLEARANCE_MULTIPLE times its clearance."""
+    for g in spec.fasteners:
+        if g.clearance <= 0.0:
+            continue
+        for hole in g.holes:
+            change = hole_deformation(spec, solution, hole)
+            if change > CLEARANCE_MULTIPLE * g.clearance:
+                return notice(f"hole {hole} deforms by ", Amount(change, "length"), f", {change / g.clearance:.0f} "
+                              f"times the clearance ", Amount(g.clearance, "length"), f" of {g.key} ({g.name!r}); the "
+                              "sharing no longer depends on the clearance (it is the neat fit's), and a metal hole at "
+                              f"working load deforms far less: {check_e}, the group's load and the clearance")
+    return None
 
 
 def ultimate_to_yield() -> float:

@@ -56,6 +56,11 @@ NOT_CHECKED = (
     "Not checked here: buckling, shear tear-out and block shear, welds, bolted joints and fastener load "
     "sharing, and bearing at any hole other than a [load.pin]'s."
 )
+NOT_CHECKED_JOINT = (
+    "Not checked here: buckling, shear tear-out and block shear, welds, the other members of the joint, "
+    "preload, slip and fatigue of the fasteners themselves; the fasteners' sharing is the FE's with the stated "
+    "stiffness and clearance."
+)
 TABLE_VALUES = (
     "The built-in table gives recalled specified minimums (from memory, see `stressraiser materials`); "
     "check them against the governing specification and the mill certificate."
@@ -74,8 +79,14 @@ HAND_BASIS = {
               "sx, sy, txy for a ductile metal, the largest principal stress in magnitude for a brittle one): the "
               "plate away from its raisers.",
 }
+HAND_BASIS["fasteners"] = (
+    "Hand check: N / A + M s / I at the peak on the cut normal to the edge there (the load reaching that cut "
+    "through the fastener groups, taken as beam theory spreads it); each fastener's bearing F / (d t) and, "
+    "with design.fastener_shear_strength, its average shear F / (n pi d^2 / 4) are checked on their own "
+    "(the fastener rows). The fasteners' forces are the FE's sharing, not equal shares.")
 HAND_LABELS = {"axial": "net-section average", "bending": "net-section bending stress",
-               "combined": "net-section extreme-fibre stress", "pin": "net-section average beside the pin"}
+               "combined": "net-section extreme-fibre stress", "pin": "net-section average beside the pin",
+               "fasteners": "cut at the peak, N / A + M s / I"}
 
 
 @dataclass(frozen=True)
@@ -219,8 +230,19 @@ def von_mises_peak(result: CheckResult) -> tuple[Estimate, tuple[float, float]]:
 
 
 def bearing_stress(result: CheckResult) -> float | None:
-    """A pin's bearing stress F / (d t) in MPa (compare.nominal's "bearing"), or None without a pin."""
+    """A pin's bearing stress F / (d t) in MPa (compare.nominal's "bearing"), or the most loaded fastener's of
+    the part's fastener groups, or None without either."""
+    if result.joints is not None:
+        return max(f.bearing for g in result.joints.groups for f in g.fasteners)
     return next((n.stress for n in result.nominal.all if n.key == "bearing"), None) if result.spec.load.pin else None
+
+
+def fastener_shear(result: CheckResult) -> float | None:
+    """The most loaded fastener's average shear F / (n pi d^2 / 4) (MPa) when [design] gives the fasteners'
+    shear strength, else None."""
+    if result.joints is None or result.spec.design.fastener_shear_strength is None:
+        return None
+    return max(f.shear for g in result.joints.groups for f in g.fasteners)
 
 
 def design_signoff(result: CheckResult) -> DesignSignOff | None:
@@ -250,6 +272,9 @@ def design_signoff(result: CheckResult) -> DesignSignOff | None:
         load_kind=kind,
         bearing_mpa=bearing,
         bearing_strength_mpa=bearing_strength,
+        bearing_label="pin bearing stress" if result.joints is None else "fastener bearing stress, the most loaded",
+        fastener_shear_mpa=fastener_shear(result),
+        fastener_shear_strength_mpa=design.fastener_shear_strength if result.joints is not None else None,
     )
     ultimate = ("not checked (no design.ultimate_factor)" if design.ultimate_factor is None
                 else f"{design.ultimate_factor:g} on ultimate (as given)")
@@ -267,33 +292,35 @@ def design_signoff(result: CheckResult) -> DesignSignOff | None:
         basis.append("The von Mises peak's band is wider than the target error mesh.tolerance (it is extrapolated over "
                      "the levels the principal peak needed): treat a von Mises margin inside that band with care.")
     if bearing is not None:
-        basis.append(_bearing_basis(design))
+        basis.append(_bearing_basis(design, result.joints is not None))
     if spec.load.pin is not None and spec.load.pin.contact == "rigid" and spec.load.pin.clearance > 0.0:
         basis.append("With a clearance the rigid pin's contact depends on the load level and the plate's stiffness: "
                      "the required thicknesses, which take every stress as inversely proportional to the thickness, "
                      "are estimates; check the chosen thickness again.")
-    basis += [NOT_CHECKED, CODE_CAUTION]
+    basis += [NOT_CHECKED_JOINT if result.joints is not None else NOT_CHECKED, CODE_CAUTION]
     return DesignSignOff(check, vm, vm_location, tuple(basis))
 
 
 def _peak_basis(result: CheckResult, vm: Estimate) -> str:
     band = f"band ±{vm.error:.2%}" if math.isfinite(vm.error) else "no band"
-    pin = (" Under a pin both are free-edge peaks: the contact's own stresses are the bearing check's."
-           if result.spec.load.pin is not None else "")
+    pin = (" Under a pin or fastener both are free-edge peaks: the contact's own stresses are the bearing check's."
+           if result.spec.load.pin is not None or result.spec.fasteners else "")
     return ("Peak check: the converged largest principal stress (in magnitude) and the von Mises peak, extrapolated "
             f"over the same mesh levels ({vm.method}, {band}); von Mises is the criterion for ductile metals, the "
             "largest principal stress for brittle materials (docs/references.md [Criteria])." + pin)
 
 
-def _bearing_basis(design: DesignSpec) -> str:
+def _bearing_basis(design: DesignSpec, fasteners: bool = False) -> str:
     if design.bearing_strength is not None:
         strength = "the bearing strength as given in [design]"
     else:
         strength = (f"the default bearing strength {BEARING_FACTOR:g} x yield (common practice for a pin in a "
                     "close-fitting hole; docs/references.md [Pin-bearing]: give design.bearing_strength from "
                     "the governing code)")
-    return (f"Bearing: the pin's force over its projected area d t, against {strength} over the factor of "
-            "safety on yield; the real contact pressure peaks above this average (the report's pin rows).")
+    whose = "the most loaded fastener's force (the FE's sharing)" if fasteners else "the pin's force"
+    rows = "the fastener rows" if fasteners else "the report's pin rows"
+    return (f"Bearing: {whose} over its projected area d t, against {strength} over the factor of "
+            f"safety on yield; the real contact pressure peaks above this average ({rows}).")
 
 
 def _where(feature: RaiserId | None) -> str:

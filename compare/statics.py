@@ -108,6 +108,13 @@ def reference_stress(spec: PartSpec) -> float:
         for curve in bl.curves:
             p, ds = curve.samples(4000)
             best = max(best, float(np.sum(np.linalg.norm(bl.traction(p), axis=1) * ds) / ds.sum()))
+    groups = {g.name: g for g in spec.fasteners}
+    for load in spec.load.fasteners:  # a group's mean bearing F / (n d t), its moment as a force at its radius
+        g = groups[load.group]
+        centres = np.array([spec.holes[h - 1].center for h in g.holes])
+        radius = float(np.sqrt(np.mean(np.sum((centres - centres.mean(axis=0)) ** 2, axis=1))))
+        force = load.force + (abs(load.moment) / radius if radius > 0.0 else 0.0)
+        best = max(best, force / (len(g.holes) * g.diameter * spec.plate.thickness))
     return best
 
 
@@ -136,12 +143,14 @@ def _support_side(spec: PartSpec, solution: Solution, p0: np.ndarray, n: np.ndar
 def support_points(spec: PartSpec, solution: Solution) -> np.ndarray | None:
     """(k, 2) the nodes of every support that takes a share statics must place, or None without any."""
     mesh = solution.mesh
-    if spec.support.holds:
+    holding = [n for g in spec.fasteners if g.holds for n in g.holes]
+    if spec.support.holds or holding:
         from ..geometry.boundary import stretch
         from ..fem.stretches import stretch_nodes
 
         nodes = [stretch_nodes(mesh, stretch(spec, h.where).pieces) for h in spec.support.holds if h.where is not None]
         nodes += [mesh.edge_nodes(named_hole(h.pin)) for h in spec.support.holds if h.pin is not None]
+        nodes += [mesh.edge_nodes(named_hole(n)) for n in holding]
         return mesh.nodes[np.concatenate(nodes)]
     if spec.load.remote is not None or "x" in spec.support.symmetry or "held" not in mesh.edges:
         return None
@@ -160,18 +169,19 @@ def _applied(spec: PartSpec, solution: Solution, p0: np.ndarray, n: np.ndarray, 
 
     for bl in applied_loads(spec):
         total += load_resultant(bl, spec.plate.thickness, keep, about)
-    if solution.contact is not None:
-        tol = ON_CUT * max(outline_size(spec))
-        total += _contact_resultant(solution, p0, (1.0 if positive else -1.0) * n, about, tol, side, positive)
+    tol = ON_CUT * max(outline_size(spec))
+    for c in (solution.contact, solution.fasteners):  # a rigid loading pin's, the loading fastener groups'
+        if c is not None and len(c.points):
+            total += _contact_resultant(c, p0, (1.0 if positive else -1.0) * n, about, tol, side, positive)
     return float(total[0]), float(total[1]), float(total[2])
 
 
-def _contact_resultant(solution: Solution, p0: np.ndarray, n: np.ndarray, about, tol: float,
+def _contact_resultant(c, p0: np.ndarray, n: np.ndarray, about, tol: float,
                        side: FreeBody = HALF_PLANE, positive: bool = True) -> np.ndarray:
-    """(Fx, Fy, Mz) of the contact's nodal forces on the +n side of the cut; a node within `tol` (mm) of
-    the cut counts half (its force is shared by the elements on both sides). With a FreeBody, a node
-    off the cut counts when it is in the body (positive) or out of it (not positive)."""
-    c = solution.contact
+    """(Fx, Fy, Mz) of a contact's nodal forces (`c.points`, `c.forces`: a loading pin's PinContact or the
+    fastener groups' PartFasteners) on the +n side of the cut; a node within `tol` (mm) of the cut counts
+    half (its force is shared by the elements on both sides). With a FreeBody, a node off the cut counts
+    when it is in the body (positive) or out of it (not positive)."""
     distance = (c.points - p0) @ n
     if side.polygon is None:
         weight = np.where(distance > tol, 1.0, np.where(distance >= -tol, 0.5, 0.0))

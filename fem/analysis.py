@@ -12,7 +12,7 @@ from ..geometry.mesh import Mesh
 from ..geometry.spec import PartSpec
 from .assembly import element_stresses, stiffness_matrix
 from .contact import (HeldPin, PinContact, contact_pressure, full_part_contact, group_forces, has_contact, held_pins,
-                      rigid_pin, solve_contact)
+                      part_fastener_results, rigid_pin, solve_contact)
 from .elasticity import constitutive_matrix
 from .loads import edge_loads, loaded_edge_names, part_loads, pin_pressure_at_nodes
 from .recovery import free_edge_stress, patch_recovery, principal_stresses, tresca, von_mises
@@ -56,6 +56,7 @@ class Solution:
     held_pins: tuple[HeldPin, ...] = ()  # the contact of every pin hold (their forces are reactions)
     contact_arcs: tuple | None = None  # per fastener of the contact solve, its arcs (the next level's start)
     pressure: np.ndarray | None = None  # (n,) a pin's or fastener's contact pressure on its hole (MPa, >= 0; else zero)
+    fasteners: object | None = None  # the part file's fastener groups (fem.fastener_part.PartFasteners), or None
 
     @property
     def bearing(self) -> np.ndarray:
@@ -156,7 +157,9 @@ def _case_solution(spec: PartSpec, mesh: Mesh, K, f: np.ndarray, supports: Suppo
     clock = time.perf_counter()
     u, report, contact_solve = solved
     applied, pressure, loading, holding, arcs = f, pin_pressure_at_nodes(spec, mesh), None, (), None
+    groups = None
     if contact_solve is not None:
+        groups = part_fastener_results(contact_solve, spec, mesh)
         applied = f + group_forces(contact_solve, spec, holding=False)
         pressure = contact_pressure(mesh, contact_solve, spec)
         loading = full_part_contact(spec, mesh, contact_solve, pressure) if rigid_pin(spec) else None
@@ -182,7 +185,7 @@ def _case_solution(spec: PartSpec, mesh: Mesh, K, f: np.ndarray, supports: Suppo
     vm = von_mises(nodal, szz)
     seconds["recover"] += time.perf_counter() - clock
     return Solution(mesh, u, sigma_e, nodal, principal_stresses(nodal), vm, seconds, tresca(nodal, szz), reactions,
-                    singular_zone(spec, mesh), report, loading, holding, arcs, bearing)
+                    singular_zone(spec, mesh), report, loading, holding, arcs, bearing, groups)
 
 
 def _edge_states(spec: PartSpec, mesh: Mesh, supports: Supports) -> tuple[np.ndarray, np.ndarray, np.ndarray]:

@@ -29,6 +29,7 @@ from ..geometry.spec import PartSpec
 from ..geometry.symmetry import symmetry_tolerance
 from .fastener_groups import Fastener, FastenerGroup, GroupsSolve, group_holes, solve_fastener_groups
 from .fastener_groups import contact_pressure as fastener_contact_pressure
+from .fastener_part import PartFasteners, part_fasteners, part_groups
 
 PIN_GROUP = "the rigid pin"  # how messages name the pin's group
 
@@ -90,13 +91,26 @@ def held_pin_groups(spec: PartSpec) -> tuple[FastenerGroup, ...]:
                  for hold in spec.support.holds if hold.pin is not None)
 
 
-def contact_groups(spec: PartSpec) -> tuple[FastenerGroup, ...]:
-    """The fastener groups of spec.load's case: its rigid loading pin first, then every pin hold."""
+def pin_groups(spec: PartSpec) -> tuple[FastenerGroup, ...]:
+    """The pins of spec.load's case as one-fastener groups: its rigid loading pin first, then every pin hold."""
     return ((pin_group(spec),) if rigid_pin(spec) else ()) + held_pin_groups(spec)
 
 
+def contact_groups(spec: PartSpec) -> tuple[FastenerGroup, ...]:
+    """The fastener groups of spec.load's case: the pins (`pin_groups`), then the part file's fastener
+    groups (fem.fastener_part)."""
+    return pin_groups(spec) + part_groups(spec)
+
+
+def part_fastener_results(solved: GroupsSolve, spec: PartSpec, mesh: Mesh) -> PartFasteners | None:
+    """The part file's fastener groups out of the case's contact solve (fem.fastener_part.PartFasteners), or
+    None when the part has none."""
+    return part_fasteners(solved, mesh, len(pin_groups(spec)), contact_groups(spec)) if spec.fasteners else None
+
+
 def has_contact(spec: PartSpec) -> bool:
-    """True when solving the case needs the contact iteration: a rigid loading pin or any pin hold."""
+    """True when solving the case needs the contact iteration: a rigid loading pin, any pin hold or any
+    fastener group."""
     return bool(contact_groups(spec))
 
 
@@ -121,10 +135,10 @@ def group_forces(solved: GroupsSolve, spec: PartSpec, holding: bool) -> np.ndarr
 
 def held_pins(solved: GroupsSolve, spec: PartSpec) -> tuple[HeldPin, ...]:
     """The contact of every pin hold (fem.fastener_groups results, whole fasteners)."""
-    groups = contact_groups(spec)
+    groups = pin_groups(spec)
     out = []
     for f in solved.fasteners:
-        if groups[f.group].holding:
+        if f.group < len(groups) and groups[f.group].holding:
             number = next(h.pin for h in spec.support.holds if h.key == groups[f.group].name)
             out.append(HeldPin(number, f.force.copy(), f.arcs, f.seat, f.peak_pressure, solved.passes, f.penetration))
     return tuple(out)

@@ -83,6 +83,7 @@ class Level:
     compressive: bool = False
     bearing: float | None = None
     von_mises: tuple[float, tuple[float, float]] | None = None  # von Mises peak and where (fem.equivalent_peak)
+    passes: int | None = None  # the contact solve's active-set passes on this level (pins, fastener groups), or None
 
 
 @dataclass(frozen=True)
@@ -293,7 +294,17 @@ def measure_level(spec: PartSpec, solution: Solution, modelled: Mesh, scale: flo
                  seconds=seconds, raisers=raiser_peaks(solution),
                  solver=solution.solver.method if solution.solver is not None else "",
                  von_mises=von_mises_peak(spec, solution), compression=raiser_peaks(solution, compressive=True),
-                 compressive=solution.compressive_governs(), bearing=bearing_peak(solution))
+                 compressive=solution.compressive_governs(), bearing=bearing_peak(solution),
+                 passes=contact_passes(solution))
+
+
+def contact_passes(solution: Solution) -> int | None:
+    """The active-set passes of the level's contact solve (fastener groups, a rigid pin), or None."""
+    if solution.fasteners is not None:
+        return solution.fasteners.passes
+    if solution.contact is not None:
+        return solution.contact.passes
+    return None
 
 
 def finish(levels: list[Level], spec: PartSpec, stop: str, required: Collection[RaiserName] = ()) -> Study:

@@ -22,10 +22,10 @@ from .analysis import Solution
 
 
 def von_mises_peak(spec: PartSpec, solution: Solution) -> tuple[float, tuple[float, float]]:
-    """(largest nodal von Mises stress in MPa, where it is in mm) over the searched nodes; under a pin, over
-    the boundary nodes where the pin does not bear."""
+    """(largest nodal von Mises stress in MPa, where it is in mm) over the searched nodes; under a pin or
+    with fastener groups, over the boundary nodes where no pin or fastener bears."""
     values = solution.von_mises
-    if spec.load.pin is not None:
+    if spec.load.pin is not None or spec.fasteners:
         free = np.zeros(solution.mesh.n_nodes, dtype=bool)
         free[solution.mesh.boundary_nodes()] = True
         values = np.where(free & ~solution.bearing, values, -np.inf)

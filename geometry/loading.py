@@ -36,7 +36,7 @@ def validate_loading(spec: PartSpec) -> None:
         if not mirror_symmetric(spec, plane):
             raise PartError(f"support.symmetry: the part is not mirror-symmetric about the plane {plane} = 0 "
                             "(outline, notches, step, lug and every cut-out must be)")
-    if spec.support.holds:
+    if spec.support.holds or any(g.holds for g in spec.fasteners):
         from .rigid_body import check_held
 
         check_held(spec)
@@ -92,8 +92,8 @@ def _check_load(spec: PartSpec, load: Load, where: str) -> None:
 
 
 def _pin_holes(spec: PartSpec, load: Load | None = None) -> set[int]:
-    """Holes that take a pin: held by one, or loaded through one in `load`."""
-    holes = {h.pin for h in spec.support.holds if h.pin is not None}
+    """Holes that take a pin: held by one, loaded through one in `load`, or filled by a group's fastener."""
+    holes = {h.pin for h in spec.support.holds if h.pin is not None} | {h for g in spec.fasteners for h in g.holes}
     if load is not None and load.pin is not None:
         holes.add(load.pin.hole)
     return holes

@@ -25,7 +25,7 @@ if TYPE_CHECKING:
     from .materials import MaterialRow
 
 TOP_KEYS = {"title", "units", "plate", "material", "load", "mesh", "design", "fatigue", "support", "section",
-            "hold"} | TABLES  # hold: geometry/boundaryfile.py
+            "hold", "fasteners"} | TABLES  # hold: geometry/boundaryfile.py; fasteners: geometry/fastenerfile.py
 MAX_PART_BYTES = 1_000_000  # longest part file read (a real one is a few kB)
 
 
@@ -58,6 +58,11 @@ def part_from_dict(data: dict[str, Any]) -> PartSpec:
     plate = _plate(table(data, "plate"), units)
     material = _material(table(data, "material"), units)
     cases = _load_cases(data, units)
+    from .fastenerfile import check_fasteners, fitted, read_fasteners
+
+    groups = read_fasteners(data["fasteners"], units) if "fasteners" in data else ()
+    support = _support(table(data, "support", required=False), data.get("hold"), units,
+                       any(g.holds for g in groups))
     spec = PartSpec(
         title=title,
         plate=plate,
@@ -66,9 +71,10 @@ def part_from_dict(data: dict[str, Any]) -> PartSpec:
         raisers=read_raisers(data, units),
         mesh=_mesh(table(data, "mesh", required=False)),
         units=units,
-        support=_support(table(data, "support", required=False), data.get("hold"), units),
+        support=support,
         sections=_sections(data.get("section", []), units),
         cases=cases if isinstance(data.get("load"), list) else (),
+        fasteners=groups,
     )
     spec = replace(spec, **outline_of(spec).read(data, spec))
     from .resolution import check_feature_count, check_resolution
@@ -76,6 +82,8 @@ def part_from_dict(data: dict[str, Any]) -> PartSpec:
     check_feature_count(spec)  # before the pairwise geometric checks, whose cost grows with the square
     validate_geometry(spec)
     check_resolution(spec)
+    spec = replace(spec, fasteners=fitted(spec))
+    check_fasteners(spec)
     from .loading import validate_loading
 
     validate_loading(spec)
@@ -214,7 +222,9 @@ def _load(t: dict[str, Any], units: str, where: str = "load") -> Load:
     [load.pin]; [[load.edge]] loads on the boundary, alone or with a pin. `where` names the table."""
     from .boundaryfile import read_edge_loads
 
-    known(t, {"axial", "bending", "shear", "remote", "pin", "edge", "name"}, where)
+    from .fastenerfile import read_group_loads
+
+    known(t, {"axial", "bending", "shear", "remote", "pin", "edge", "fasteners", "name"}, where)
     ends = [k for k in ("axial", "bending", "shear") if k in t]
     load = Load(
         axial=number(t, "axial", where, "force", units, required=False, default=0.0),
@@ -223,22 +233,26 @@ def _load(t: dict[str, Any], units: str, where: str = "load") -> Load:
         remote=_remote(t["remote"], units, f"{where}.remote") if "remote" in t else None,
         pin=_pin(t["pin"], units, f"{where}.pin") if "pin" in t else None,
         edges=read_edge_loads(t["edge"], where, units) if "edge" in t else (),
+        fasteners=read_group_loads(t["fasteners"], where, units) if "fasteners" in t else (),
     )
-    if load.remote is not None and (ends or load.pin is not None or load.edges):
-        other = ends[0] if ends else "pin" if load.pin is not None else "edge"
+    if load.remote is not None and (ends or load.pin is not None or load.edges or load.fasteners):
+        other = ends[0] if ends else "pin" if load.pin is not None else "edge" if load.edges else "fasteners"
         raise PartError(f"{where}.remote: cannot be combined with {where}.{other}; the remote state loads every "
                         "outer edge and needs no held end")
     if load.pin is not None and ends:
         raise PartError(f"{where}.pin: cannot be combined with {where}.{ends[0]}; check the pin load and the end "
                         "loads as separate load cases")
-    if load.remote is None and load.pin is None and not load.has_end_loads and not load.edges:
+    if load.pin is not None and load.fasteners:
+        raise PartError(f"{where}.pin: cannot be combined with {where}.fasteners; a pin is a one-fastener group: "
+                        "give it as a [[fasteners]] group of one hole")
+    if load.remote is None and load.pin is None and not load.has_end_loads and not load.edges and not load.fasteners:
         from .units import unit_label
 
         name = f"{where}.{ends[0]}" if ends else where
         force, moment = unit_label("force", units), unit_label("moment", units)
         raise PartError(f"{name}: every load is zero; give a non-zero {where}.axial ({force}, positive in tension), "
                         f"{where}.bending ({moment}) or {where}.shear ({force}), a [load.remote] or [load.pin] table, "
-                        "or [[load.edge]] loads")
+                        "or [[load.edge]] or [[load.fasteners]] loads")
     return load
 
 
@@ -283,9 +297,11 @@ def _pin(t: Any, units: str, where: str = "load.pin") -> Pin:
                contact=contact, clearance=clearance)
 
 
-def _support(t: dict[str, Any], hold_items: Any = None, units: str = DEFAULT_UNITS) -> Support:
+def _support(t: dict[str, Any], hold_items: Any = None, units: str = DEFAULT_UNITS,
+             holding_groups: bool = False) -> Support:
     """[support]: held = "x" | "clamped"; symmetry = a list of mirror planes, "x" and/or "y"; with
-    [[hold]] entries (geometry/boundaryfile.py) the part is held by them instead of the held end."""
+    [[hold]] entries (geometry/boundaryfile.py) or fastener groups that hold (geometry/fastenerfile.py) the
+    part is held by them instead of the held end."""
     known(t, {"held", "symmetry"}, "support")
     held = t.get("held", Support.held)
     if held not in HELD_MODES:
@@ -299,6 +315,11 @@ def _support(t: dict[str, Any], hold_items: Any = None, units: str = DEFAULT_UNI
             raise PartError("support.held: the part is held by its [[hold]] entries instead of the held end; hold "
                             "that end with a [[hold]] too (mode \"fixed\" or \"roller\")")
         held = NO_HELD_END if holds else held
+    if holding_groups:
+        if "held" in t:
+            raise PartError("support.held: the part is held by its fastener groups (holds = true) instead of the held "
+                            "end; hold that end with a [[hold]] too (mode \"fixed\" or \"roller\")")
+        held = NO_HELD_END
     planes = t.get("symmetry", [])
     if isinstance(planes, str):
         planes = [planes]
@@ -391,7 +412,7 @@ def _design(data: dict[str, Any], spec: PartSpec) -> DesignSpec | None:
     if "design" not in data:
         return None
     t = table(data, "design")
-    known(t, {"yield_factor", "ultimate_factor", "behaviour", "bearing_strength"}, "design")
+    known(t, {"yield_factor", "ultimate_factor", "behaviour", "bearing_strength", "fastener_shear_strength"}, "design")
     _no_compression(spec, "[design] check")
     m = spec.material
     if m.yield_strength is None:
@@ -402,14 +423,19 @@ def _design(data: dict[str, Any], spec: PartSpec) -> DesignSpec | None:
     if ultimate_factor is not None and m.ultimate is None:
         raise PartError("material.ultimate: missing; design.ultimate_factor needs the ultimate strength")
     bearing = positive(t, "bearing_strength", "design", "stress", spec.units, required=False)
-    pinned = any(case.load.pin is not None for case in spec.load_cases)
+    pinned = any(case.load.pin is not None for case in spec.load_cases) or bool(spec.fasteners)
     if bearing is not None and not pinned:
-        raise PartError(f"design.bearing_strength: applies to a pin's hole ([load.pin]) only; this part's load is "
-                        f"{spec.load.kind}")
+        raise PartError(f"design.bearing_strength: applies to a pin's hole ([load.pin]) or fastener groups' holes "
+                        f"([[fasteners]]) only; this part's load is {spec.load.kind}")
+    shear = positive(t, "fastener_shear_strength", "design", "stress", spec.units, required=False)
+    if shear is not None and not spec.fasteners:
+        raise PartError("design.fastener_shear_strength: applies to the fasteners of [[fasteners]] groups; this part "
+                        "has none")
     behaviour, basis = _behaviour(t, m, "ductile" in data.get("material", {}))
     defaults = ("yield_factor", "behaviour") + (("bearing_strength",) if pinned else ())
     return DesignSpec(yield_factor=yield_factor, ultimate_factor=ultimate_factor, behaviour=behaviour,
-                      behaviour_basis=basis, bearing_strength=bearing, defaults=_left_out(t, defaults))
+                      behaviour_basis=basis, bearing_strength=bearing, defaults=_left_out(t, defaults),
+                      fastener_shear_strength=shear)
 
 
 def _behaviour(t: dict[str, Any], m: Material, ductile_given: bool) -> tuple[str, str]:
@@ -577,6 +603,13 @@ def _cycle_fits_load(spec: PartSpec, low: float, high: float, key: str) -> None:
     if low < 0.0 and any(h.pin is not None for h in spec.support.holds):
         raise PartError(f"fatigue.{key}: the part bears on its holding pins one way only, so its cycle cannot go "
                         "below zero (a reversed load presses the other side of the holes, another load case)")
+    if spec.fasteners and low < 0.0:
+        raise PartError(f"fatigue.{key}: fasteners bear on their holes one way only, so the cycle cannot go below "
+                        "zero (a reversed load presses the other side of the holes, another load case)")
+    if any(g.clearance > 0.0 for g in spec.fasteners) and (low, high) != (0.0, 1.0):
+        raise PartError(f"fatigue.{key}: with a clearance the fasteners' contact depends on the load level, so the "
+                        "stresses do not scale with the load; give the cycle from 0 to 1 x the load case "
+                        "(min_fraction = 0, max_fraction = 1), or a cycle between two load cases")
 
 
 def _pin_cycle(pin: Pin | None, low: float, high: float, key: str) -> None:

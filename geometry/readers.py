@@ -25,6 +25,7 @@ MAGNITUDES = {
     "stress": (1e-6, 1e7),     # 1 Pa to 10 TPa
     "moment": (1e-6, 1e15),
     "area": (1e-6, 1e12),
+    "stiffness": (1e-3, 1e12),
 }
 ANGLE_LIMIT = 360.0  # degrees either way
 

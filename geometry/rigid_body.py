@@ -8,8 +8,8 @@ exact (rigid-body motions are exactly these) and cheap; the motions left free ar
 in words in the refusal.
 
 Supports counted: fixed stretches (both directions at every point), rollers (the edge normal at every
-point), pin holds (both directions at the hole's centre: a frictionless pin cannot stop the part turning
-about it) and the rollers of symmetry planes.
+point), pin holds and each fastener of a group that holds the part (both directions at the hole's centre:
+a frictionless pin cannot stop the part turning about it) and the rollers of symmetry planes.
 """
 
 from __future__ import annotations
@@ -50,6 +50,10 @@ def support_rows(spec: PartSpec) -> np.ndarray:
                 hold(points, np.tile([0.0, 1.0], (len(points), 1)))
             else:
                 hold(points, outward_normals(seg, points))
+    for g in spec.fasteners:
+        if g.holds:
+            for number in g.holes:
+                hold(np.array([spec.holes[number - 1].center] * 2), np.eye(2))
     x0, y0, x1, y1 = modelled_box(spec)
     for plane in spec.support.symmetry:
         ends = np.array([[0.0, y0], [0.0, y1]]) if plane == "x" else np.array([[x0, 0.0], [x1, 0.0]])
@@ -74,7 +78,7 @@ def check_held(spec: PartSpec) -> None:
         return
     raise PartError(f"hold: the part is not held against rigid-body motion: nothing stops {_words(spec, free)}; "
                     "add a [[hold]] that does (mode \"fixed\" holds both directions, \"roller\" the direction "
-                    "normal to its edge)")
+                    "normal to its edge), or a fastener group that holds (holds = true) at a second hole")
 
 
 def _words(spec: PartSpec, free: np.ndarray) -> str:

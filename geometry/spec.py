@@ -104,7 +104,62 @@ class Remote:
         return centre + radius, centre - radius
 
 
-LOAD_KINDS = ("axial", "bending", "combined", "remote", "pin", "boundary")
+LOAD_KINDS = ("axial", "bending", "combined", "remote", "pin", "boundary", "fasteners")
+STIFFNESS_KINDS = ("rigid", "given", "huth")  # how a fastener group's stiffness is given (FastenerSpec)
+
+
+@dataclass(frozen=True)
+class HuthInputs:
+    """What Huth's fastener flexibility needs beyond the plate and the fastener ([fasteners.huth]): the other
+    member's thickness (mm) and modulus (MPa), the fastener's modulus (MPa) and the joint kind
+    (fem.fastener_stiffness.HUTH_JOINTS)."""
+
+    other_thickness: float
+    other_modulus: float
+    fastener_modulus: float
+    joint: str = "bolted metallic"
+
+
+@dataclass(frozen=True)
+class FastenerSpec:
+    """A fastener group of the part file ([[fasteners]]): bolts or pins in the holes `holes` (numbers,
+    1-based), joined by a rigid connecting member (fem/fastener_groups.py).
+
+    name: its name (load cases name it); diameter: the fastener's shank diameter d (mm); clearance: the
+    diametral clearance (mm, >= 0): each hole's diameter is d + clearance; shear_planes: 1 or 2;
+    stiffness: "rigid", "given" (`stiffness_value` N/mm) or "huth" (from `huth` and the plate);
+    holds: True when the group holds the part (its member fixed), else the load cases load it."""
+
+    name: str
+    holes: tuple[int, ...]
+    diameter: float
+    clearance: float = 0.0
+    shear_planes: int = 1
+    stiffness: str = "rigid"
+    stiffness_value: float | None = None
+    huth: HuthInputs | None = None
+    holds: bool = False
+    key: str = "fasteners 1"  # the part-file key, for messages
+
+
+@dataclass(frozen=True)
+class GroupLoad:
+    """A load carried into the plate through a fastener group's member ([[load.fasteners]]): a force (N,
+    >= 0) in the direction `direction` (degrees from +x) and a moment (N mm, counter-clockwise), about the
+    point `about` (mm; None for the centroid of the group's hole centres)."""
+
+    group: str
+    force: float = 0.0
+    direction: float = 0.0
+    moment: float = 0.0
+    about: tuple[float, float] | None = None
+    key: str = "load.fasteners 1"
+
+    @property
+    def components(self) -> tuple[float, float, float]:
+        """(Fx N, Fy N, Mz N mm)."""
+        a = math.radians(self.direction)
+        return self.force * math.cos(a), self.force * math.sin(a), self.moment
 
 
 @dataclass(frozen=True)
@@ -145,6 +200,7 @@ class Load:
     remote: a uniform stress state on every outer edge instead (self-equilibrated: no held end).
     pin: a pin load through a hole instead, reacted at the held end (or the part's [[hold]] supports).
     edges: loads on stretches of the part's own boundary ([[load.edge]]), alone or with a pin.
+    fasteners: loads through the part's fastener groups ([[load.fasteners]]).
     """
 
     axial: float = 0.0
@@ -153,6 +209,7 @@ class Load:
     remote: Remote | None = None
     pin: Pin | None = None
     edges: tuple[EdgeLoad, ...] = ()
+    fasteners: tuple[GroupLoad, ...] = ()  # loads through fastener groups ([[load.fasteners]])
 
     @property
     def has_end_loads(self) -> bool:
@@ -161,8 +218,10 @@ class Load:
     @property
     def kind(self) -> str:
         """"axial" (axial force only), "bending" (moment and/or shear, no axial force), "combined" (axial with
-        moment or shear), "remote", "pin", or "boundary" (loads on stretches of the boundary, with or
-        without a pin)."""
+        moment or shear), "remote", "pin", "boundary" (loads on stretches of the boundary, with or
+        without a pin), or "fasteners" (loads through fastener groups, with or without others)."""
+        if self.fasteners:
+            return "fasteners"
         if self.edges:
             return "boundary"
         if self.remote is not None:
@@ -268,8 +327,11 @@ class DesignSpec:
     behaviour:        "ductile" (the hand check governs, the peak by von Mises) or "brittle" (the peak
                       governs, by the maximum principal stress).
     behaviour_basis:  where the behaviour came from, in words (the material, or the part file).
-    bearing_strength: a pin hole's bearing strength in MPa (the allowable bearing stress is it over
-                      yield_factor), or None for the default, BEARING_FACTOR x yield (common practice).
+    bearing_strength: a pin hole's (or a fastener hole's) bearing strength in MPa (the allowable bearing
+                      stress is it over yield_factor), or None for the default, BEARING_FACTOR x yield (common
+                      practice).
+    fastener_shear_strength: the fasteners' shear strength in MPa (their average shear F / (n pi d^2/4) is
+                      checked against it over yield_factor), or None: fastener shear is not checked.
     defaults:         the keys left at their defaults, for the report's statement of assumptions.
     """
 
@@ -279,6 +341,7 @@ class DesignSpec:
     behaviour_basis: str = "default"
     bearing_strength: float | None = None
     defaults: tuple[str, ...] = ()
+    fastener_shear_strength: float | None = None  # MPa: the fasteners' shear strength, for their average shear
 
 
 # A pin's bearing strength on its projected area d t, as a multiple of the plate's yield strength, when the
@@ -346,6 +409,7 @@ class PartSpec:
     step: Step | None = None
     lug: Lug | None = None
     cases: tuple[LoadCase, ...] = ()  # every load case when the part file gives [[load]] entries; `load` is the first
+    fasteners: tuple[FastenerSpec, ...] = ()  # fastener groups ([[fasteners]])
 
     @property
     def holes(self) -> tuple[Hole, ...]:

@@ -32,7 +32,7 @@ from .errors import PartError
 if TYPE_CHECKING:  # pint is imported on first use: it costs about a second at start-up
     import pint
 
-QUANTITIES = ("length", "force", "stress", "area", "moment")
+QUANTITIES = ("length", "force", "stress", "area", "moment", "stiffness")
 
 INTERNAL_UNITS: dict[str, str] = {
     "length": "mm",
@@ -40,6 +40,7 @@ INTERNAL_UNITS: dict[str, str] = {
     "stress": "MPa",
     "area": "mm**2",
     "moment": "N*mm",
+    "stiffness": "N/mm",
 }
 
 _EXAMPLES: dict[str, str] = {
@@ -48,6 +49,7 @@ _EXAMPLES: dict[str, str] = {
     "stress": '"250 MPa" or "36 ksi"',
     "area": '"120 mm^2" or "0.2 in^2"',
     "moment": '"40 N*m" or "350 lbf*in"',
+    "stiffness": '"60 kN/mm" or "300 kip/in"',
 }
 
 _ARTICLE_NAMES: dict[str, str] = {
@@ -56,6 +58,7 @@ _ARTICLE_NAMES: dict[str, str] = {
     "stress": "a stress",
     "area": "an area",
     "moment": "a moment",
+    "stiffness": "a stiffness (force per length)",
 }
 
 
@@ -76,6 +79,8 @@ class UnitSystem:
             return f"({self.length})**2"
         if quantity == "moment":
             return f"({self.force})*({self.length})"
+        if quantity == "stiffness":
+            return f"({self.force})/({self.length})"
         return getattr(self, quantity)
 
     def label(self, quantity: str) -> str:
@@ -87,15 +92,15 @@ class UnitSystem:
 UNIT_SYSTEMS: dict[str, UnitSystem] = {
     "mm-N-MPa": UnitSystem(
         "mm-N-MPa", "mm", "N", "MPa",
-        (("length", "mm"), ("force", "N"), ("stress", "MPa"), ("area", "mm²"), ("moment", "N·mm")),
+        (("length", "mm"), ("force", "N"), ("stress", "MPa"), ("area", "mm²"), ("moment", "N·mm"), ("stiffness", "N/mm")),
     ),
     "in-lbf-psi": UnitSystem(
         "in-lbf-psi", "inch", "lbf", "psi",
-        (("length", "in"), ("force", "lbf"), ("stress", "psi"), ("area", "in²"), ("moment", "lbf·in")),
+        (("length", "in"), ("force", "lbf"), ("stress", "psi"), ("area", "in²"), ("moment", "lbf·in"), ("stiffness", "lbf/in")),
     ),
     "in-kip-ksi": UnitSystem(
         "in-kip-ksi", "inch", "kip", "ksi",
-        (("length", "in"), ("force", "kip"), ("stress", "ksi"), ("area", "in²"), ("moment", "kip·in")),
+        (("length", "in"), ("force", "kip"), ("stress", "ksi"), ("area", "in²"), ("moment", "kip·in"), ("stiffness", "kip/in")),
     ),
 }
 

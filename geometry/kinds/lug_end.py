@@ -91,9 +91,10 @@ def check(spec: PartSpec) -> None:
                         f"{format_point(lug.center, units)}, half the width "
                         f"({format_quantity(lug.radius, 'length', units)}) from the {lug.end} end; got "
                         f"{format_point(hole.center, units)}")
-    held = any(h.pin == n for h in spec.support.holds)
+    held = any(h.pin == n for h in spec.support.holds) or any(n in g.holes for g in spec.fasteners)
     for case in spec.load_cases:
         pin = case.load.pin
         if not held and (pin is None or pin.hole != n):
             raise PartError(f"lug: a lug is loaded through its pin; give [load.pin] with hole = {n} (the far end "
-                            f"is held and carries the reaction), or hold it with a [[hold]] pin = {n}")
+                            f"is held and carries the reaction), hold it with a [[hold]] pin = {n}, or put the hole "
+                            "in a [[fasteners]] group")
