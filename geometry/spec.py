@@ -17,6 +17,7 @@ from .kinds.hole import NAME as HOLE
 
 if TYPE_CHECKING:
     from .units import Stated
+    from .kinds.drawn import Drawing
     from .kinds.hole import Hole
     from .kinds.lug_end import Lug
     from .kinds.stepped import Step
@@ -328,7 +329,8 @@ class PartSpec:
         in the order of geometry.registry.RAISER_KINDS, entries of one kind in part-file order (the nth
         entry of a kind is that kind's raiser n; geometry.registry.named pairs them with their names).
     outline: the outline kind (geometry.registry.OUTLINE_KINDS); "bar": plate.length x plate.width with an
-        optional shoulder `step` and `lug` end.
+        optional shoulder `step` and `lug` end; "drawn": `drawing`, by points or from a cut file (plate.length
+        and plate.width are then its extents along x and y).
     """
 
     title: str
@@ -346,6 +348,7 @@ class PartSpec:
     step: Step | None = None
     lug: Lug | None = None
     cases: tuple[LoadCase, ...] = ()  # every load case when the part file gives [[load]] entries; `load` is the first
+    drawing: Drawing | None = None  # the drawn outline ("drawn": geometry/kinds/drawn.py)
 
     @property
     def holes(self) -> tuple[Hole, ...]:

@@ -1,0 +1,268 @@
+"""A drawn outline in the part file: by points, from a DXF cut file, and against the parametric bar.
+
+Sources (docs/references.md): [Howland] the strip with a central hole in tension; [Lame] the thick ring
+under internal pressure; [NAFEMS-LE1] the elliptic membrane; [DXF] the bulge and $INSUNITS codes.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+
+import ezdxf
+import pytest
+
+from conftest import assert_refused
+from stressraiser.compare.check import check_part
+from stressraiser.compare.edge_cut import EDGE_NORMAL
+from stressraiser.geometry.kinds.base import RaiserId
+from stressraiser.geometry.partfile import load_part, part_from_dict
+
+STEEL = {"E": 200000.0, "nu": 0.3}
+L, W, D, T = 300.0, 50.0, 15.0, 5.0  # the strap: length, width, hole diameter, thickness (mm)
+FORCE = 25000.0  # N
+
+# The strap held by a roller on its left end and a short roller on its top edge next to it (held across,
+# free along), pulled by a uniform force on its right end: the same [[hold]] and [[load.edge]] keys for
+# every form of the part (points picked on its own boundary, mm).
+STRAP_HOLDS = [{"at": [-L / 2, 10.0], "mode": "roller"}, {"from": [-L / 2 + 10.0, W / 2], "to": [-L / 2, W / 2],
+                                                           "mode": "roller"}]
+STRAP_LOAD = {"edge": [{"at": [L / 2, 10.0], "force": FORCE, "direction": 0.0}]}
+STRAP_POINTS = [[-L / 2, -W / 2], [L / 2, -W / 2], [L / 2, W / 2], [-L / 2, W / 2]]
+
+
+def toml_text(part: dict) -> str:
+    """TOML of a part-file dictionary: every table written [name] or [[name]], values inline."""
+    def value(v) -> str:
+        if isinstance(v, dict):
+            return "{ " + ", ".join(f"{k} = {value(x)}" for k, x in v.items()) + " }"
+        if isinstance(v, list):
+            return "[" + ", ".join(value(x) for x in v) + "]"
+        return json.dumps(v)
+
+    lines = []
+    for key, v in part.items():
+        if isinstance(v, dict):
+            lines += [f"[{key}]"] + [f"{k} = {value(x)}" for k, x in v.items()]
+        else:
+            for item in v:
+                lines += [f"[[{key}]]"] + [f"{k} = {value(x)}" for k, x in item.items()]
+    return "\n".join(lines) + "\n"
+
+
+def drawn_strap(outline: dict, hole: bool = True, tolerance: float = 0.005) -> dict:
+    part = {"plate": {"thickness": T}, "outline": outline, "material": STEEL, "hold": STRAP_HOLDS,
+            "load": STRAP_LOAD, "mesh": {"tolerance": tolerance}}
+    if hole:
+        part["hole"] = [{"center": [0.0, 0.0], "diameter": D}]
+    return part
+
+
+def strap_dxf(path, inch: bool = False, frame: bool = False) -> None:
+    """The strap as a DXF: its outline as LINEs on layer CUT, its hole a CIRCLE on layer HOLES, in mm or in
+    inches ($INSUNITS 4 or 1, docs/references.md [DXF]); with `frame` a drawing border on layer BORDER and
+    a note on NOTES around it."""
+    doc = ezdxf.new("R2010")
+    doc.units = ezdxf.units.IN if inch else ezdxf.units.MM
+    msp = doc.modelspace()
+    k = 1.0 / 25.4 if inch else 1.0
+    corners = [(x * k, y * k) for x, y in STRAP_POINTS]
+    for a, b in zip(corners, corners[1:] + corners[:1]):
+        msp.add_line(a, b, dxfattribs={"layer": "CUT"})
+    msp.add_circle((0.0, 0.0), 0.5 * D * k, dxfattribs={"layer": "HOLES"})
+    if frame:
+        msp.add_lwpolyline([(-200 * k, -60 * k), (200 * k, -60 * k), (200 * k, 60 * k), (-200 * k, 60 * k)], close=True,
+                           dxfattribs={"layer": "BORDER"})
+        msp.add_text("STRAP, 5 MM S355", dxfattribs={"layer": "NOTES"}).set_placement((-190 * k, 50 * k))
+    doc.saveas(path)
+
+
+@pytest.fixture(scope="module")
+def parametric_strap():
+    part = {"plate": {"length": L, "width": W, "thickness": T}, "hole": [{"center": [0.0, 0.0], "diameter": D}],
+            "material": STEEL, "hold": STRAP_HOLDS, "load": STRAP_LOAD, "mesh": {"tolerance": 0.005}}
+    return check_part(part_from_dict(part))
+
+
+def test_strap_drawn_by_points_from_a_dxf_and_parametric_give_one_kt(tmp_path, parametric_strap):
+    # The same strap three ways: today's bar with a [[hole]], an [outline] drawn by points with a [[hole]],
+    # and a DXF whose circle becomes hole 1. One mesh and one answer: the Kt agree to 0.1 %, and Howland's
+    # gross Kt at d/W = 0.3, 3.36, to his table's 1 % (docs/references.md [Howland]).
+    by_points = check_part(part_from_dict(drawn_strap({"points": STRAP_POINTS})))
+    strap_dxf(tmp_path / "strap.dxf")
+    (tmp_path / "strap.toml").write_text(toml_text(drawn_strap({"file": "strap.dxf"}, hole=False)))
+    spec = load_part(tmp_path / "strap.toml")  # the file's path is relative to the part file
+    assert spec.holes[0].center == pytest.approx((0.0, 0.0), abs=1e-9) and spec.holes[0].diameter == pytest.approx(D)
+    from_dxf = check_part(spec)
+    reference = parametric_strap.kt.net
+    for result in (by_points, from_dxf):
+        assert result.kt.converged and result.net_section.kind == EDGE_NORMAL
+        assert result.peak.feature == RaiserId("hole", 1)
+        assert result.kt.net == pytest.approx(reference, rel=1e-3)
+    assert parametric_strap.kt.gross == pytest.approx(3.36, rel=0.01)  # [Howland], d/W = 0.3
+    # the edge-normal cut through the hole's peak is the net section: N / ((W - d) t)
+    assert from_dxf.nominal.net.stress == pytest.approx(FORCE / ((W - D) * T), rel=1e-6)
+
+
+def test_dxf_in_inches_and_in_mm_give_the_same_kt(tmp_path, parametric_strap):
+    # 1 in = 25.4 mm exactly ($INSUNITS 1, docs/references.md [DXF]): the inch drawing read into mm is the
+    # same part, so the same Kt to 0.1 %.
+    strap_dxf(tmp_path / "inch.dxf", inch=True)
+    spec = part_from_dict(drawn_strap({"file": str(tmp_path / "inch.dxf")}, hole=False))
+    assert spec.drawing.units == "in"
+    assert spec.plate.length == pytest.approx(L, rel=1e-12) and spec.holes[0].diameter == pytest.approx(D, rel=1e-12)
+    assert check_part(spec).kt.net == pytest.approx(parametric_strap.kt.net, rel=1e-3)
+
+
+def test_layer_filter_picks_the_right_loops(tmp_path):
+    # A border on its own layer around the strap: read whole, it is a loop round the outline (refused);
+    # with layers = ["CUT", "HOLES"] the border and the note are left out and the strap is the part.
+    strap_dxf(tmp_path / "framed.dxf", frame=True)
+    whole = drawn_strap({"file": str(tmp_path / "framed.dxf")}, hole=False)
+    with pytest.raises(Exception) as info:
+        part_from_dict(whole)
+    assert "outline.file" in str(info.value) and "layers" in str(info.value)
+    picked = part_from_dict(drawn_strap({"file": str(tmp_path / "framed.dxf"), "layers": ["CUT", "HOLES"]}, hole=False))
+    assert picked.plate.length == pytest.approx(L) and picked.plate.width == pytest.approx(W)
+    assert len(picked.holes) == 1 and picked.drawing.layers == ("CUT", "HOLES")
+    only_cut = part_from_dict(drawn_strap({"file": str(tmp_path / "framed.dxf"), "layers": ["cut"]}, hole=False))
+    assert len(only_cut.holes) == 0  # layer names are case-insensitive; the hole's layer left out
+
+
+def test_file_holes_come_before_hole_tables_and_cutouts_are_numbered(tmp_path):
+    # Circles of the drawing are holes 1..n left to right, then bottom to top; a [[hole]] table follows
+    # them; a non-circular inner loop is cut-out 1, before any [[cutout]] table.
+    doc = ezdxf.new("R2010")
+    doc.units = ezdxf.units.MM
+    msp = doc.modelspace()
+    msp.add_lwpolyline([(0, 0), (200, 0), (200, 80), (0, 80)], close=True)
+    for x, y in ((150, 20), (40, 60), (40, 20)):
+        msp.add_circle((x, y), 5.0)
+    msp.add_lwpolyline([(90, 30, 0.0), (110, 30, 1.0), (110, 50, 0.0), (90, 50, 1.0)], format="xyb", close=True)
+    doc.saveas(tmp_path / "plate.dxf")
+    part = {"plate": {"thickness": 6.0}, "outline": {"file": str(tmp_path / "plate.dxf")}, "material": STEEL,
+            "hole": [{"center": [170.0, 60.0], "diameter": 8.0}],
+            "cutout": [{"points": [[140, 50], [150, 50], [150, 60]]}],
+            "hold": [{"pin": 1}, {"pin": 2}], "load": {"pin": {"hole": 4, "force": 1000.0, "direction": 0.0}}}
+    spec = part_from_dict(part)
+    assert [h.center for h in spec.holes] == [(40.0, 20.0), (40.0, 60.0), (150.0, 20.0), (170.0, 60.0)]
+    cutouts = [r for r in spec.raisers if r.KIND == "cutout"]
+    assert len(cutouts) == 2 and cutouts[0].drawn == str(tmp_path / "plate.dxf") and cutouts[1].drawn == "points"
+
+
+def shape(points: list) -> dict:
+    """A part drawn by `points` whose left edge x = 0 is fixed and whose bottom edge takes a pressure."""
+    return {"plate": {"thickness": 5.0}, "outline": {"points": points}, "material": STEEL,
+            "hold": [{"at": [0.0, 20.0]}], "load": {"edge": [{"at": [50.0, 0.0], "pressure": 1.0}]}}
+
+
+def test_arcs_by_bulge_radius_and_centre_draw_one_shape():
+    # A 100 x 40 rectangle with its right end a half circle of radius 20, drawn three ways: the area is
+    # 100 x 40 + pi 20² / 2 (plane geometry), and the three outlines coincide.
+    from stressraiser.geometry.cutloops import loop_area
+
+    ways = [{"to": [100, 40], "bulge": 1.0}, {"to": [100, 40], "center": [100, 20], "turn": "left"},
+            {"to": [100, 40], "radius": 20.0, "turn": "left"}]
+    areas = []
+    for arc in ways[:2]:
+        spec = part_from_dict(shape([[0, 0], [100, 0], arc, [0, 40]]))
+        areas.append(loop_area(spec.drawing.outline))
+    assert areas == pytest.approx([100 * 40 + math.pi * 200] * 2, rel=1e-12)
+    # a radius draws the shorter arc: radius 20 over a chord of 40 is the half circle too
+    spec = part_from_dict(shape([[0, 0], [100, 0], ways[2], [0, 40]]))
+    assert loop_area(spec.drawing.outline) == pytest.approx(100 * 40 + math.pi * 200, rel=1e-12)
+    # turning right instead cuts the half circle out of the end: a concave arc, the part's corner 1
+    inward = part_from_dict(shape([[0, 0], [100, 0], {"to": [100, 40], "bulge": -1.0}, [0, 40]]))
+    assert loop_area(inward.drawing.outline) == pytest.approx(100 * 40 - math.pi * 200, rel=1e-12)
+    from stressraiser.geometry.registry import outline_raisers
+
+    assert [r.id for r in outline_raisers(inward)] == [RaiserId("corner", 1)]
+
+
+def _bad_dxf(tmp_path, what: str) -> str:
+    doc = ezdxf.new("R2010")
+    doc.units = ezdxf.units.MM
+    msp = doc.modelspace()
+    square = [(0, 0), (100, 0), (100, 50), (0, 50)]
+    if what == "open chain":
+        for a, b in zip(square, square[1:]):
+            msp.add_line(a, b)
+        msp.add_line((0, 50), (0, 2))
+        msp.add_circle((50, 25), 5.0)
+    elif what == "text only":
+        msp.add_text("NOTHING TO CUT")
+    else:
+        msp.add_lwpolyline(square, close=True)
+        if what == "crossing loops":
+            msp.add_lwpolyline([(90, 10), (120, 10), (120, 40), (90, 40)], close=True)
+        elif what == "duplicate":
+            msp.add_line((0, 0), (100, 0))
+        elif what == "zero length":
+            msp.add_line((50, 50), (50, 50.001))
+        elif what == "outside":
+            msp.add_circle((200, 20), 5)
+    path = tmp_path / "bad.dxf"
+    doc.saveas(path)
+    return str(path)
+
+
+HELD = {"hold": [{"at": [0.0, 25.0], "mode": "fixed"}],
+        "load": {"edge": [{"at": [100.0, 25.0], "force": 1000.0, "direction": 0.0}]}}
+SQUARE = [[0, 0], [100, 0], [100, 50], [0, 50]]
+
+DXF_REFUSALS = [
+    ("open chain", ["outline.file", "bad.dxf", "open chain", "gap of 2 mm"]),
+    ("crossing loops", ["outline.file", "crossing loops"]),
+    ("duplicate", ["outline.file", "duplicate pieces"]),
+    ("zero length", ["outline.file", "zero length", "(50, 50) mm"]),
+    ("outside", ["outline.file", "outside the largest loop"]),
+    ("text only", ["outline.file", "only text"]),
+]
+
+
+@pytest.mark.parametrize("what, words", DXF_REFUSALS, ids=[c[0] for c in DXF_REFUSALS])
+def test_every_cut_file_refusal_is_one_line_exit_2_nothing_written(tmp_path, capsys, what, words):
+    part = {"plate": {"thickness": 5.0}, "outline": {"file": _bad_dxf(tmp_path, what)}, "material": STEEL, **HELD}
+    assert_refused(tmp_path, capsys, toml_text(part), words)
+
+
+PART_REFUSALS = [
+    ("both points and file", {"outline": {"points": SQUARE, "file": "x.dxf"}}, ["outline", "either points"]),
+    ("no such file", {"outline": {"file": "nowhere.dxf"}}, ["outline.file", "no such file"]),
+    ("not a cut file", {"outline": {"file": "part.txt"}}, ["outline.file", "neither a DXF"]),
+    ("layers with points", {"outline": {"points": SQUARE, "layers": ["A"]}}, ["outline.layers", "cut file only"]),
+    ("unknown drawing unit", {"outline": {"file": "x.dxf", "units": "furlong"}}, ["outline.units", "furlong"]),
+    ("too few points", {"outline": {"points": [[0, 0]]}}, ["outline.points", "2 to"]),
+    ("self-crossing points", {"outline": {"points": [[0, 0], [100, 50], [100, 0], [0, 50]]}},
+     ["crossing loops", "outline.points"]),
+    ("repeated point", {"outline": {"points": [[0, 0], [100, 0], [100, 0], [100, 50], [0, 50]]}},
+     ["outline.points[3]", "zero length"]),
+    ("arc radius too small", {"outline": {"points": [[0, 0], [100, 0], {"to": [100, 50], "radius": 10.0, "turn": "left"},
+                                                     [0, 50]]}}, ["outline.points[3].radius", "less than half"]),
+    ("arc without a turn", {"outline": {"points": [[0, 0], [100, 0], {"to": [100, 50], "radius": 30.0}, [0, 50]]}},
+     ["outline.points[3].turn", "left"]),
+    ("arc given twice", {"outline": {"points": [[0, 0], [100, 0], {"to": [100, 50], "radius": 30.0, "bulge": 0.5},
+                                                [0, 50]]}}, ["outline.points[3]", "exactly one"]),
+    ("plate length", {"plate": {"thickness": 5.0, "length": 100.0}}, ["plate.length", "drawn outline"]),
+    ("no thickness", {"plate": {}}, ["plate.thickness", "missing"]),
+    ("step on a drawn outline", {"step": {"x": 0.0, "width": 20.0, "radius": 2.0}}, ["step", "bar outline only"]),
+    ("notch on a drawn outline", {"notch": [{"x": 50.0, "side": "top", "shape": "semicircle", "radius": 5.0}]},
+     ["notch", "draw it in the outline"]),
+    ("not held", {"hold": None}, ["hold", "no held end"]),
+    ("end load", {"load": {"axial": 1000.0}}, ["load.axial", "no loaded end"]),
+    ("remote load", {"load": {"remote": {"sx": 10.0}}}, ["load.remote", "own boundary"]),
+    ("free to turn", {"hold": [{"at": [0.0, 25.0], "mode": "roller"}]}, ["hold", "not held", "translation along y"]),
+    ("symmetry plane", {"support": {"symmetry": ["y"]}}, ["support.symmetry", "drawn outline"]),
+    ("cut-out across the edge", {"cutout": [{"points": [[90, 10], [110, 10], [110, 20]]}]}, ["cutout 1", "crosses"]),
+]
+
+
+@pytest.mark.parametrize("what, change, words", PART_REFUSALS, ids=[c[0] for c in PART_REFUSALS])
+def test_every_drawn_outline_refusal_is_one_line_exit_2_nothing_written(tmp_path, capsys, what, change, words):
+    part = {"plate": {"thickness": 5.0}, "outline": {"points": SQUARE}, "material": STEEL, **HELD}
+    for key, value in change.items():
+        if value is None:
+            part.pop(key)
+        else:
+            part[key] = value
+    assert_refused(tmp_path, capsys, toml_text(part), words)
