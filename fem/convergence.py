@@ -37,13 +37,14 @@ from ..geometry.far_field import far_zones
 from ..geometry.mesh import Mesh
 from ..geometry.mesh_process import MeshProcess
 from ..geometry.meshing import mesh_part
+from ..geometry.sharp_corners import sharp_corners
 from ..geometry.spec import PartSpec
 from ..geometry.symmetry import mirror_symmetric
 from .analysis import Solution, solve_cases
 from .budget import BudgetError, check_first_level, level_over_budget
 from .equivalent_peak import von_mises_peak
 from .guards import check_fields
-from .raiser_peaks import OUTLINE, Peaks, RaiserName, bearing_peak, raiser_peaks
+from .raiser_peaks import OUTLINE, Peaks, RaiserName, bearing_peak, raiser_peaks, zone_peaks
 from .solve import RoundOffError
 from .symmetry import mirror_mesh
 
@@ -83,6 +84,7 @@ class Level:
     compressive: bool = False
     bearing: float | None = None
     von_mises: tuple[float, tuple[float, float]] | None = None  # von Mises peak and where (fem.equivalent_peak)
+    sharp: tuple[float, ...] = ()  # the peak in each sharp inside corner's zone (geometry.sharp_corners), MPa
 
 
 @dataclass(frozen=True)
@@ -293,7 +295,8 @@ def measure_level(spec: PartSpec, solution: Solution, modelled: Mesh, scale: flo
                  seconds=seconds, raisers=raiser_peaks(solution),
                  solver=solution.solver.method if solution.solver is not None else "",
                  von_mises=von_mises_peak(spec, solution), compression=raiser_peaks(solution, compressive=True),
-                 compressive=solution.compressive_governs(), bearing=bearing_peak(solution))
+                 compressive=solution.compressive_governs(), bearing=bearing_peak(solution),
+                 sharp=zone_peaks(solution, tuple((c.point, c.zone) for c in sharp_corners(spec))))
 
 
 def finish(levels: list[Level], spec: PartSpec, stop: str, required: Collection[RaiserName] = ()) -> Study:

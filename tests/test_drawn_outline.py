@@ -10,6 +10,7 @@ import json
 import math
 
 import ezdxf
+import numpy as np
 import pytest
 
 from conftest import assert_refused
@@ -266,3 +267,119 @@ def test_every_drawn_outline_refusal_is_one_line_exit_2_nothing_written(tmp_path
         else:
             part[key] = value
     assert_refused(tmp_path, capsys, toml_text(part), words)
+
+
+def l_bracket(corner: list, tolerance: float = 0.01) -> dict:
+    """An L-shaped plate, arms 100 long and 30 wide, fixed across the top of its upright arm and pulled
+    down at the end of its foot: the inside corner at (30, 30) is in tension. `corner` draws that corner."""
+    points = [[0, 0], [100, 0], [100, 30]] + corner + [[30, 100], [0, 100]]
+    return {"plate": {"thickness": 5.0}, "outline": {"points": points}, "material": STEEL,
+            "hold": [{"at": [15.0, 100.0]}], "load": {"edge": [{"at": [100.0, 15.0], "force": 2000.0, "direction": -90.0}]},
+            "mesh": {"tolerance": tolerance}}
+
+
+SHARP = [[30, 30]]
+ROUNDED = [[32, 30], {"to": [30, 32], "center": [32, 32], "turn": "right"}]  # r = 2 mm
+
+
+def test_a_sharp_inside_corner_is_reported_not_turned_into_a_kt():
+    # The corner's elastic stress is unbounded (Williams: r^(lambda - 1), lambda = 0.5445 for a 270-degree
+    # corner of a free plate, docs/references.md [Williams]). It is found, a zone of 5 % of the shorter
+    # adjoining piece (70 mm here: 3.5 mm) is left out of the peak search, and its zone's peak is
+    # reported on every level: it grows with each refinement, overall within 20 % of the growth Williams'
+    # exponent gives for the levels' size ratio, and ends above the governing peak.
+    result = check_part(part_from_dict(l_bracket(SHARP)))
+    [sharp] = result.sharp_corners
+    assert sharp.corner.point == (30.0, 30.0) and sharp.corner.on == "the outline"
+    assert sharp.corner.angle == pytest.approx(270.0) and sharp.corner.zone == pytest.approx(3.5)
+    peaks = sharp.peaks
+    assert len(peaks) == len(result.study.levels) >= 4 and all(b > a for a, b in zip(peaks, peaks[1:]))
+    levels = result.study.levels
+    williams = (levels[0].scale / levels[-1].scale) ** (1.0 - 0.5445)  # [Williams], from memory
+    assert sharp.growth == pytest.approx(williams, rel=0.2)
+    assert sharp.exceeds and peaks[-1] > result.peak.stress
+    assert math.dist(result.peak.location, (30.0, 30.0)) >= 3.5 * (1.0 - 1e-9)  # no peak from inside the zone
+    assert any("sharp inside corner" in c for c in result.cautions)
+
+
+def test_the_same_corner_with_a_2_mm_radius_converges_as_corner_1():
+    # The corner rounded to r = 2 mm: no sharp corner is left, the concave arc is the candidate "corner 1",
+    # and its own peak converges to the 1 % target, well above the sharp corner's excluded-zone peak.
+    result = check_part(part_from_dict(l_bracket(ROUNDED)))
+    assert result.sharp_corners == ()
+    assert result.study.governing == RaiserId("corner", 1) and result.peak.feature == RaiserId("corner", 1)
+    assert result.kt.converged and result.study.estimate.error <= 0.01
+    assert result.net_section.kind == EDGE_NORMAL
+    # the cut normal to the arc at its peak runs along a radius, through the arm's whole width: its
+    # nominal is N/A + M c/I on that cut, statics of the free body beyond it ([Practice])
+    assert abs(result.net_section.equilibrium_error) < 0.01
+
+
+def test_sharp_corner_above_the_governing_peak_exits_3_with_the_corner_in_the_record(tmp_path, capsys):
+    from stressraiser.cli.main import main
+
+    part = tmp_path / "l.toml"
+    part.write_text(toml_text({**l_bracket(SHARP), "mesh": {"tolerance": 0.05, "max_levels": 4}}))
+    out = tmp_path / "l.json"
+    code = main(["check", str(part), "--json", str(out), "--quiet"])
+    err = capsys.readouterr().err
+    assert code == 3 and "sharp inside corner at (30.00, 30.00) mm" in err and "radius" in err
+    record = json.loads(out.read_text())
+    [corner] = record["sharp_corners"]
+    assert corner["location"] == [30.0, 30.0] and corner["exceeds_governing"] is True
+    assert corner["zone_radius"] == pytest.approx(3.5) and len(corner["zone_peaks"]) == len(record["mesh"]["levels"])
+    assert record["part"]["outline"]["source"] == "points" and record["part"]["outline"]["pieces"] == 6
+
+
+def test_lame_ring_drawn_as_a_quarter_under_internal_pressure():
+    # A quarter of a thick ring, a = 50, b = 100 mm, drawn by points with its two arcs about the origin,
+    # rollers on its straight cut edges (the symmetry lines) and a pressure of 100 MPa on its bore (the
+    # concave arc: corner 1). Quadratic triangles. Lame: hoop stress at the bore p (b² + a²) / (b² - a²)
+    # = 166.667 MPa, and along the radial cut p a² / (b² - a²) (1 + b² / r²) (docs/references.md [Lame];
+    # Timoshenko & Goodier, Theory of Elasticity, 3rd ed., the thick cylinder). Tolerance 0.1 % at the
+    # bore (an analytic solution; measured 0.01 %), 1 % along the cut.
+    a, b, p = 50.0, 100.0, 100.0
+    part = {"plate": {"thickness": 1.0}, "material": STEEL,
+            "outline": {"points": [[a, 0], [b, 0], {"to": [0, b], "center": [0, 0], "turn": "left"}, [0, a],
+                                   {"to": [a, 0], "center": [0, 0], "turn": "right"}]},
+            "hold": [{"at": [75.0, 0.0], "mode": "roller"}, {"at": [0.0, 75.0], "mode": "roller"}],
+            "load": {"edge": [{"at": [a / math.sqrt(2.0), a / math.sqrt(2.0)], "pressure": p}]},
+            "mesh": {"tolerance": 0.002, "order": 2}}
+    result = check_part(part_from_dict(part))
+    assert result.kt.converged and result.study.governing == RaiserId("corner", 1)
+    assert result.peak.stress == pytest.approx(p * (b * b + a * a) / (b * b - a * a), rel=1e-3)  # [Lame]
+    cut = result.net_section.cut
+    assert result.net_section.kind == EDGE_NORMAL
+    for r in (60.0, 75.0, 90.0):
+        hoop = p * a * a / (b * b - a * a) * (1.0 + b * b / (r * r))
+        assert float(np.interp(r - a, cut.positions, cut.normal_stress)) == pytest.approx(hoop, rel=0.01)  # [Lame]
+
+
+def test_nafems_le1_elliptic_membrane_from_a_dxf_with_ellipses(tmp_path):
+    # NAFEMS LE1 (docs/references.md [NAFEMS-LE1], from memory): the quarter membrane between the ellipses
+    # (x/2)² + y² = 1 and (x/3.25)² + (y/2.75)² = 1, drawn here at 1 unit = 100 mm as a DXF of two LINEs and
+    # two ELLIPSE arcs (fitted by tangent arcs within 0.01 mm), E 210 GPa, nu 0.3, plane stress, an outward
+    # pressure of 10 MPa on the outer edge, rollers on the two straight edges; quadratic triangles. Target:
+    # sigma_yy = 92.7 MPa at D = (2, 0); stresses do not depend on the scale. Tolerance 1 % (measured 0.1 %).
+    k = 100.0
+    doc = ezdxf.new("R2010")
+    doc.units = ezdxf.units.MM
+    msp = doc.modelspace()
+    msp.add_line((2 * k, 0), (3.25 * k, 0))
+    msp.add_line((0, 2.75 * k), (0, k))
+    msp.add_ellipse((0, 0), major_axis=(3.25 * k, 0), ratio=2.75 / 3.25, start_param=0, end_param=math.pi / 2)
+    msp.add_ellipse((0, 0), major_axis=(2 * k, 0), ratio=0.5, start_param=0, end_param=math.pi / 2)
+    doc.saveas(tmp_path / "le1.dxf")
+    spec = part_from_dict({"plate": {"thickness": 0.1 * k}, "material": {"E": 210000.0, "nu": 0.3},
+                           "outline": {"file": str(tmp_path / "le1.dxf")},
+                           "hold": [{"at": [2.5 * k, 0.0], "mode": "roller"}, {"at": [0.0, 2 * k], "mode": "roller"}],
+                           "load": {"edge": [{"from": [3.25 * k, 0], "to": [0, 2.75 * k], "pressure": -10.0}]},
+                           "mesh": {"tolerance": 0.005, "order": 2}})
+    assert spec.drawing.fitted == 2
+    result = check_part(spec)
+    assert result.kt.converged and result.study.governing == RaiserId("corner", 1)  # the inner ellipse, one corner
+    assert math.dist(result.peak.location, (2 * k, 0.0)) < 0.02 * k  # the peak is at D
+    assert result.peak.stress == pytest.approx(92.7, rel=0.01)  # [NAFEMS-LE1]
+    nodes = result.solution.mesh.nodes
+    d = int(np.argmin(np.hypot(nodes[:, 0] - 2 * k, nodes[:, 1])))
+    assert result.solution.nodal_stress[d, 1] == pytest.approx(92.7, rel=0.01)  # sigma_yy at D, finest mesh

@@ -155,16 +155,39 @@ def concave(seg: Segment) -> bool:
     return isinstance(seg, Arc) and seg.end < seg.start
 
 
+def _smooth(a: Segment, b: Segment) -> bool:
+    """Whether piece b continues piece a without a kink (their tangents agree within a degree)."""
+    from ..sharp_corners import SHARP_TURN, _tangent
+
+    ta, tb = _tangent(a, True), _tangent(b, False)
+    return abs(math.atan2(ta[0] * tb[1] - ta[1] * tb[0], ta[0] * tb[0] + ta[1] * tb[1])) <= SHARP_TURN
+
+
 @lru_cache(maxsize=64)
 def _path(outline: tuple[Segment, ...], units: str) -> tuple[Edge, ...]:
-    edges, corners = [], 0
-    for k, seg in enumerate(outline, start=1):
-        if concave(seg):
+    """The named edges: a run of concave arcs that join without a kink (a fillet, or an ellipse or spline
+    fitted by arcs) is one corner; the chain starts at a piece that does not continue such a run."""
+    n = len(outline)
+    first = next((k for k in range(n) if not (concave(outline[k]) and concave(outline[k - 1])
+                                              and _smooth(outline[k - 1], outline[k]))), 0)
+    order = [(first + j) % n for j in range(n)]
+    names: dict[int, str | RaiserId] = {}
+    corners = 0
+    for j, k in enumerate(order):
+        seg = outline[k]
+        if not concave(seg):
+            names[k] = f"edge {k + 1}"
+        elif j > 0 and concave(outline[order[j - 1]]) and _smooth(outline[order[j - 1]], seg):
+            names[k] = names[order[j - 1]]
+        else:
             corners += 1
-            name: str | RaiserId = RaiserId(CORNER, corners)
+            names[k] = RaiserId(CORNER, corners)
+    edges = []
+    for k, seg in enumerate(outline):
+        name = names[k]
+        if isinstance(name, RaiserId):
             label = f"the {name} (radius {format_quantity(seg.radius, 'length', units)} about {format_point(seg.center, units)})"
         else:
-            name = f"edge {k}"
             a, b = segment_points(seg)
             what = "line" if isinstance(seg, Line) else "arc"
             label = f"the outline's {what} from {format_point(a, units)} to {format_point(b, units)}"
@@ -181,22 +204,23 @@ def _raisers(outline: tuple[Segment, ...], units: str) -> tuple[OutlineRaiser, .
     edges = _path(outline, units)
     n = len(edges)
     out = []
-    for k, edge in enumerate(edges):
-        if not isinstance(edge.name, RaiserId):
-            continue
-        arc = edge.segment
-        near = {(k - 1) % n, k, (k + 1) % n}
+    ids = sorted({e.name for e in edges if isinstance(e.name, RaiserId)})
+    for rid in ids:
+        own = [k for k, e in enumerate(edges) if e.name == rid]
+        near = {(k + d) % n for k in own for d in (-1, 0, 1)}
         clear_of = tuple(e.name for j, e in enumerate(edges) if j not in near and not isinstance(e.name, RaiserId))
-        middle = 0.5 * (arc.start + arc.end)
+        arcs = tuple(edges[k].segment for k in own)
+        tightest = min(arcs, key=lambda a: a.radius)
+        middle = 0.5 * (tightest.start + tightest.end)
         tangent = (-math.sin(middle), math.cos(middle))
-        out.append(OutlineRaiser(edge.name, CurvedEdges(arcs=(Arc(arc.center, arc.radius, *arc.ccw),),
-                                                        curvature=arc.radius),
-                                 NetCut(arc.at(middle), tangent, arc.radius), clear_of))
+        out.append(OutlineRaiser(rid, CurvedEdges(arcs=tuple(Arc(a.center, a.radius, *a.ccw) for a in arcs),
+                                                  curvature=tightest.radius),
+                                 NetCut(tightest.at(middle), tangent, tightest.radius), clear_of))
     return tuple(out)
 
 
 def raisers(spec: PartSpec) -> tuple[OutlineRaiser, ...]:
-    """Every concave arc of the outline, "corner 1", "corner 2", ... in drawing order."""
+    """Every concave run of arcs of the outline, "corner 1", "corner 2", ... in drawing order."""
     return _raisers(spec.drawing.outline, spec.units)
 
 
