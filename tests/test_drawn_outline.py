@@ -383,3 +383,60 @@ def test_nafems_le1_elliptic_membrane_from_a_dxf_with_ellipses(tmp_path):
     nodes = result.solution.mesh.nodes
     d = int(np.argmin(np.hypot(nodes[:, 0] - 2 * k, nodes[:, 1])))
     assert result.solution.nodal_stress[d, 1] == pytest.approx(92.7, rel=0.01)  # sigma_yy at D, finest mesh
+
+
+def test_sharp_corners_are_found_on_the_outline_and_on_cut_outs_and_nowhere_else():
+    # Plane geometry: an L outline has one inside corner (270 degrees of material); a square cut-out has
+    # four (each 270 degrees: the material wraps round it); a cut-out with rounded ends has none; the
+    # convex corners of the outline are not inside corners.
+    from stressraiser.geometry.sharp_corners import sharp_corners
+
+    part = l_bracket(SHARP)
+    part["cutout"] = [{"points": [[5, 5], [15, 5], [15, 15], [5, 15]]},
+                      {"points": [[50, 10], [70, 10], {"to": [70, 20], "bulge": 1.0}, [50, 20], {"to": [50, 10], "bulge": 1.0}]}]
+    corners = sharp_corners(part_from_dict(part))
+    assert [c.on for c in corners] == ["the outline"] + ["cutout 1"] * 4
+    assert sorted(c.point for c in corners[1:]) == [(5.0, 5.0), (5.0, 15.0), (15.0, 5.0), (15.0, 15.0)]
+    assert all(c.angle == pytest.approx(270.0) for c in corners)
+    assert [c.zone for c in corners[1:]] == pytest.approx([0.5] * 4)  # 5 % of the 10 mm sides
+    # the bar's own kinds have none: a window's corners and a slot's ends are radii
+    from conftest import strap
+
+    assert sharp_corners(part_from_dict(strap(window=[{"center": [60.0, 0.0], "length": 30.0, "width": 14.0,
+                                                       "radius": 3.0}]))) == ()
+
+
+def test_a_drawn_cut_out_with_round_ends_is_its_own_candidate():
+    # A strap with a slot 30 mm long across the load and 10 mm wide, drawn by points ([[cutout]]) in place
+    # of the hole: its concave ends are where the peak is, so the governing candidate is cutout 1, and the
+    # cut normal to its end at the peak is the net section across the load, N / ((W - 30) t) (statics).
+    part = drawn_strap({"points": STRAP_POINTS}, hole=False, tolerance=0.02)
+    part["cutout"] = [{"points": [[5, -10], [5, 10], {"to": [-5, 10], "center": [0, 10], "turn": "left"}, [-5, -10],
+                                  {"to": [5, -10], "center": [0, -10], "turn": "left"}]}]
+    result = check_part(part_from_dict(part))
+    assert result.kt.converged and result.peak.feature == RaiserId("cutout", 1)
+    assert result.nominal.net.stress == pytest.approx(FORCE / ((W - 30.0) * T), rel=1e-6)
+
+
+def test_step_outline_takes_its_thickness_from_the_solid(tmp_path):
+    # A 120 x 60 mm plate 6 mm thick with a 20 mm hole, written by gmsh's OpenCASCADE kernel as STEP: the
+    # outline, hole 1 and the thickness come from the file when [plate] gives none (docs/references.md [STEP]).
+    import gmsh
+
+    gmsh.initialize(readConfigFiles=False, interruptible=False)
+    try:
+        gmsh.option.setNumber("General.Terminal", 0)
+        occ = gmsh.model.occ
+        face, _ = occ.cut([(2, occ.addRectangle(0, 0, 0, 120, 60))], [(2, occ.addDisk(60, 30, 0, 10, 10))])
+        occ.extrude(face, 0, 0, 6.0)
+        occ.synchronize()
+        gmsh.write(str(tmp_path / "plate.step"))
+    finally:
+        gmsh.finalize()
+    part = {"outline": {"file": str(tmp_path / "plate.step")}, "material": STEEL,
+            "hold": [{"at": [0.0, 30.0]}], "load": {"edge": [{"at": [120.0, 30.0], "force": 1000.0, "direction": 0.0}]}}
+    spec = part_from_dict(part)
+    assert spec.plate.thickness == pytest.approx(6.0, rel=1e-9) and spec.drawing.thickness_from_file
+    assert spec.plate.length == pytest.approx(120.0) and spec.holes[0].diameter == pytest.approx(20.0, rel=1e-6)
+    given = part_from_dict({**part, "plate": {"thickness": 5.0}})
+    assert given.plate.thickness == 5.0 and not given.drawing.thickness_from_file  # [plate] wins
