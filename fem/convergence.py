@@ -85,6 +85,7 @@ class Level:
     bearing: float | None = None
     von_mises: tuple[float, tuple[float, float]] | None = None  # von Mises peak and where (fem.equivalent_peak)
     sharp: tuple[float, ...] = ()  # the peak in each sharp inside corner's zone (geometry.sharp_corners), MPa
+    settled: frozenset = frozenset()  # candidates not refined on this level (`settle`): left out of their sequences
 
 
 @dataclass(frozen=True)
@@ -190,7 +191,8 @@ def assess(levels: list[Level] | tuple[Level, ...], tolerance: float, formal: fl
     sign = -1.0 if compressive else 1.0
     estimates = {}
     for name in _peaks(levels[-1], compressive):
-        series = [v[name][0] for v in (_peaks(lv, compressive) for lv in levels) if name in v]
+        series = [_peaks(lv, compressive)[name][0] for lv in levels
+                  if name in _peaks(lv, compressive) and name not in lv.settled]
         estimates[name] = sequence_estimate(series, formal)
     if not estimates:  # no edge node left to search (every one bears or is skipped): the global peak
         estimates[OUTLINE] = sequence_estimate([lv.peak for lv in levels], formal)
@@ -200,6 +202,29 @@ def assess(levels: list[Level] | tuple[Level, ...], tolerance: float, formal: fl
     reaching = [n for n, e in estimates.items() if sign * e.value * (1.0 + e.error) >= top or n in required]
     converged = len(levels) >= MIN_LEVELS and all(estimates[n].error <= tolerance for n in reaching)
     return Assessment(governing, estimates, compressive, converged)
+
+
+SETTLE_MARGIN = 0.05  # a candidate settles when its upper band lies this far below the governing lower band
+
+
+def settle(cases: list[list[Level]], tolerance: float, formal: float, required: Collection[RaiserName] = ()
+           ) -> set[RaiserName]:
+    """The raisers that can no longer govern in any load case: each one's upper band (its estimate widened by
+    its error, at least `tolerance`) lies SETTLE_MARGIN below the governing candidate's lower band (likewise
+    widened) in every case. The study stops refining them (a drawn outline's many holes and corners, most of
+    which never come near the peak); their estimates stay those of the levels they were refined on. The
+    outline's own candidate and `required` raisers never settle."""
+    out: set[RaiserName] | None = None
+    for levels in cases:
+        found = assess(levels, tolerance, formal, required)
+        sign = -1.0 if found.compressive else 1.0
+        top = found.estimates[found.governing]
+        lower = sign * top.value * (1.0 - max(top.error, tolerance))
+        these = {name for name, e in found.estimates.items()
+                 if name != OUTLINE and name not in required and name != found.governing
+                 and sign * e.value * (1.0 + max(e.error, tolerance)) < (1.0 - SETTLE_MARGIN) * lower}
+        out = these if out is None else out & these
+    return out or set()
 
 
 def _peaks(level: Level, compressive: bool) -> Peaks:
@@ -232,9 +257,11 @@ def _study(spec: PartSpec, report: Callable[[Level], None] | None, mesher: Calla
     stop = ""
     formal = FORMAL_ORDER[spec.mesh.order]
     check_first_level(spec, scale)  # refuse a hopeless coarsest mesh before gmsh spends minutes on it
+    settled: dict[RaiserName, float] = {}  # raisers no longer refined, with the scale their grading keeps
     while True:
         clock = time.perf_counter()
-        mesh = mesher(spec, scale)
+        meshed_part = replace(spec, mesh=replace(spec.mesh, settled=tuple(settled.items()))) if settled else spec
+        mesh = mesher(meshed_part, scale)
         meshed = time.perf_counter() - clock
         stop = level_over_budget(spec, mesh.n_elements, first=not levels[0])
         if stop:
@@ -250,7 +277,8 @@ def _study(spec: PartSpec, report: Callable[[Level], None] | None, mesher: Calla
             check_fields(solution.displacement, solution.nodal_stress)
         solutions = solved
         for case, solution, case_levels in zip(cases, solutions, levels):
-            case_levels.append(measure_level(case, solution, mesh, scale, {"mesh": meshed, **solution.seconds}))
+            case_levels.append(replace(measure_level(case, solution, mesh, scale, {"mesh": meshed, **solution.seconds}),
+                                       settled=frozenset(settled)))
         if report is not None:
             report(max((lv[-1] for lv in levels), key=lambda lv: abs(lv.peak)))
         if len(levels[0]) >= MIN_LEVELS and all(assess(case, spec.mesh.tolerance, formal, required).converged
@@ -262,6 +290,9 @@ def _study(spec: PartSpec, report: Callable[[Level], None] | None, mesher: Calla
         if _next_elements(levels[0]) > spec.mesh.max_elements:
             stop = f"the next level would exceed mesh.max_elements = {spec.mesh.max_elements}"
             break
+        if settles(spec) and len(levels[0]) >= MIN_LEVELS:
+            for name in settle(levels, spec.mesh.tolerance, formal, required) - set(settled):
+                settled[name] = scale  # its grading stays as on this level
         scale /= LEVEL_RATIO
     studies = [finish(case, spec, stop, required) for case in levels]
     return tuple(replace(s, stop_reason="tolerance met") if s.converged and len(cases) > 1 else s
@@ -282,6 +313,12 @@ def mesh_level(spec: PartSpec, scale: float, mesh: Callable[[PartSpec, float], M
         return mesh(spec, scale)
     half = replace(spec, support=replace(spec.support, symmetry=("y",)))
     return mirror_mesh(half, mesh(half, scale), "y")
+
+
+def settles(spec: PartSpec) -> bool:
+    """Whether the study stops refining raisers that cannot govern: on a drawn outline (geometry/kinds/
+    drawn.py), whose many holes and corners would otherwise all be refined to the finest level."""
+    return spec.outline != "bar"
 
 
 def measure_level(spec: PartSpec, solution: Solution, modelled: Mesh, scale: float, seconds: dict[str, float]) -> Level:

@@ -102,12 +102,19 @@ def raiser_features(spec: PartSpec, scale: float = 1.0, sizing: Sizing = Sizing(
     # The floor shrinks with the level like every other size: a fixed floor stalls the refinement of a
     # small raiser, and the unchanged peak then reads as converged (a 0.5 mm hole in an 80 mm strap
     # gave Kt 2.71 'converged' instead of about 3).
-    floor = scale * min_ligament(spec) / 4.0
     raisers = part_raisers(spec) if raisers is None else raisers
+    scales = raiser_scales(spec, raisers, scale)
     return tuple(Feature(name=r.id, radius=r.curvature,
-                         edge_size=max(scale * min(sizing.edge_fraction * r.curvature,
-                                                   sizing.ligament_share * r.ligament), floor))
-                 for r in raisers)
+                         edge_size=max(s * min(sizing.edge_fraction * r.curvature, sizing.ligament_share * r.ligament),
+                                       s * min_ligament(spec) / 4.0))
+                 for r, s in zip(raisers, scales))
+
+
+def raiser_scales(spec: PartSpec, raisers: list[Raiser], scale: float) -> list[float]:
+    """Each raiser's own scale: the level's, or the coarser one a settled raiser keeps (MeshControls.settled:
+    the study stops refining a raiser that cannot govern, fem.convergence)."""
+    settled = dict(spec.mesh.settled)
+    return [settled.get(r.id, scale) for r in raisers]
 
 
 def band_pieces(raisers: list[Raiser], features: tuple[Feature, ...], sizing: Sizing) -> list[Piece]:
@@ -302,10 +309,10 @@ def _size_field(spec: PartSpec, raisers: list[Raiser], features: tuple[Feature, 
     field = gmsh.model.mesh.field
     far = far_size(spec, scale, sizing)
     graded = []
-    for raiser, feature in zip(raisers, features):
+    for raiser, feature, own in zip(raisers, features, raiser_scales(spec, raisers, scale)):
         grade = field.add("MathEval")
         field.setString(grade, "F", checked_expression(
-            f"{feature.edge_size!r} + {scale * sizing.growth!r} * {distance_expression(raiser)}"))
+            f"{feature.edge_size!r} + {own * sizing.growth!r} * {distance_expression(raiser)}"))
         graded.append(grade)
     for corner in sharp_corners(spec):  # graded like a raiser, so the corner's growing peak shows on every level
         grade = field.add("MathEval")

@@ -243,6 +243,8 @@ class MeshControls:
     order: 1 for linear (3-node) triangles, 2 for quadratic (6-node) triangles with curved edges.
     solver: "auto" (chosen by size), "direct" (sparse Cholesky or LU) or "iterative" (multigrid CG);
         see fem/solve.py.
+    settled: raisers the study no longer refines, each with the scale its grading keeps (set by
+        fem.convergence for the next level's mesh, never by the part file).
     """
 
     tolerance: float = 0.01
@@ -250,6 +252,7 @@ class MeshControls:
     max_elements: int = 2_000_000
     order: int = 1
     solver: str = "auto"
+    settled: tuple[tuple[Any, float], ...] = ()
 
 
 MESH_ORDERS = (1, 2)

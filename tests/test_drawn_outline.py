@@ -440,3 +440,28 @@ def test_step_outline_takes_its_thickness_from_the_solid(tmp_path):
     assert spec.plate.length == pytest.approx(120.0) and spec.holes[0].diameter == pytest.approx(20.0, rel=1e-6)
     given = part_from_dict({**part, "plate": {"thickness": 5.0}})
     assert given.plate.thickness == 5.0 and not given.drawing.thickness_from_file  # [plate] wins
+
+
+def test_raisers_that_cannot_govern_stop_being_refined(monkeypatch):
+    # The rounded L bracket with a 6 mm hole near the loaded end of its foot, where the moment is small:
+    # once three levels show the hole's band far below the corner's, the hole settles (its grading stays at
+    # that level's) and only the corner is refined further. The corner's converged Kt is the one of the
+    # same study refining everything (the independent reference: the same model, every raiser refined), to
+    # 0.3 %, on fewer elements; the hole's estimate is that of the levels it was refined on.
+    from stressraiser.fem import convergence
+
+    part = l_bracket(ROUNDED)
+    part["hole"] = [{"center": [80.0, 15.0], "diameter": 6.0}]
+    spec = part_from_dict(part)
+    settling = check_part(spec)
+    hole = RaiserId("hole", 1)
+    levels = settling.study.levels
+    assert settling.study.governing == RaiserId("corner", 1) and settling.kt.converged
+    assert len(levels) > 3 and hole not in levels[2].settled and hole in levels[-1].settled
+    refined = [lv.raisers[hole][0] for lv in levels if hole not in lv.settled]
+    assert settling.study.estimates[hole] == convergence.sequence_estimate(refined, convergence.FORMAL_ORDER[1])
+    monkeypatch.setattr(convergence, "settles", lambda spec: False)
+    everything = check_part(spec)
+    assert all(not lv.settled for lv in everything.study.levels)
+    assert settling.kt.net == pytest.approx(everything.kt.net, rel=3e-3)
+    assert levels[-1].elements < everything.study.levels[len(levels) - 1].elements
