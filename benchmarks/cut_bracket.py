@@ -1,7 +1,7 @@
 """How long a bracket from a cut file takes to check: about fifty outline pieces and twenty holes, every
 raiser converged to a 1 % band.
 
-    python benchmarks/cut_bracket.py [--tolerance 0.01] [--order 1]
+    python benchmarks/cut_bracket.py [--tolerance 0.01] [--order 1] [--refine-all]
 
 The invented bracket: a 400 x 100 mm, 8 mm plate with rounded outer corners, ten U-shaped recesses in its
 top edge (each a concave half circle of 8 mm radius: corners 1..10) and two rows of ten 10 mm holes. It is
@@ -9,13 +9,15 @@ written as a DXF (LINE, ARC and CIRCLE entities, millimetres), read through [out
 its left edge and loaded by a downward force spread over its right edge (a cantilever). Prints the
 pieces, raisers and levels, the total wall time of the check and its split: meshing (each level's gmsh
 run, in its child process) against the solve (assembly, factorisation and solve, stress recovery), with
-the time left to everything else (cuts, statics, the edge-normal sections). The target is 10 s on two
-cores; record the figures in benchmarks/README.md.
+the time left to everything else (cuts, statics, the edge-normal sections). `--refine-all` refines every
+raiser on every level (fem.convergence.settles off), for comparison. The target is 10 s on two cores;
+record the figures in benchmarks/README.md.
 """
 
 from __future__ import annotations
 
 import argparse
+import resource
 import tempfile
 import time
 from collections import Counter
@@ -77,7 +79,12 @@ def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--tolerance", type=float, default=0.01)
     parser.add_argument("--order", type=int, default=1)
+    parser.add_argument("--refine-all", action="store_true", help="refine every raiser on every level")
     args = parser.parse_args()
+    if args.refine_all:
+        from stressraiser.fem import convergence
+
+        convergence.settles = lambda spec: False
     with tempfile.TemporaryDirectory() as folder:
         path = Path(folder) / "bracket.dxf"
         pieces = write_bracket(path)
@@ -97,12 +104,16 @@ def main() -> None:
     solving = sum(seconds.values())
     print(f"bracket: {pieces} outline pieces, {len(spec.holes)} holes, {len(outline_raisers(spec))} corners; "
           f"tolerance {args.tolerance:.1%}, order {args.order}")
+    settled = len(result.study.levels[-1].settled)
     print(f"levels: {len(result.study.levels)}, elements {[lv.elements for lv in result.study.levels]}, "
+          f"{settled} raisers settled by the last level, "
           f"converged {result.kt.converged} (band {result.study.estimate.error:.2%}), governing {result.study.governing}")
     print(f"Kt(net) {result.kt.net:.3f}, peak {result.peak.stress:.1f} MPa")
     print(f"time: {total:.1f} s in all; reading the part {read:.2f} s, meshing {meshing:.1f} s, "
           f"solving {solving:.1f} s ({', '.join(f'{k} {v:.1f}' for k, v in seconds.most_common())}), "
           f"the rest {total - read - meshing - solving:.1f} s")
+    own, children = (resource.getrusage(who).ru_maxrss / 1024.0 for who in (resource.RUSAGE_SELF, resource.RUSAGE_CHILDREN))
+    print(f"peak memory: {own:.0f} MB this process, {children:.0f} MB the largest child (the mesher)")
 
 
 if __name__ == "__main__":

@@ -205,6 +205,7 @@ def assess(levels: list[Level] | tuple[Level, ...], tolerance: float, formal: fl
 
 
 SETTLE_MARGIN = 0.05  # a candidate settles when its upper band lies this far below the governing lower band
+SETTLE_AFTER = 2  # levels solved before any candidate may settle (two give a band of three times the change)
 
 
 def settle(cases: list[list[Level]], tolerance: float, formal: float, required: Collection[RaiserName] = ()
@@ -213,7 +214,8 @@ def settle(cases: list[list[Level]], tolerance: float, formal: float, required: 
     its error, at least `tolerance`) lies SETTLE_MARGIN below the governing candidate's lower band (likewise
     widened) in every case. The study stops refining them (a drawn outline's many holes and corners, most of
     which never come near the peak); their estimates stay those of the levels they were refined on. The
-    outline's own candidate and `required` raisers never settle."""
+    outline's own candidate and `required` raisers never settle. With two levels a band is three times the
+    change between them (`sequence_estimate`), wide enough that only raisers far below the peak settle."""
     out: set[RaiserName] | None = None
     for levels in cases:
         found = assess(levels, tolerance, formal, required)
@@ -290,7 +292,7 @@ def _study(spec: PartSpec, report: Callable[[Level], None] | None, mesher: Calla
         if _next_elements(levels[0]) > spec.mesh.max_elements:
             stop = f"the next level would exceed mesh.max_elements = {spec.mesh.max_elements}"
             break
-        if settles(spec) and len(levels[0]) >= MIN_LEVELS:
+        if settles(spec) and len(levels[0]) >= SETTLE_AFTER:
             for name in settle(levels, spec.mesh.tolerance, formal, required) - set(settled):
                 settled[name] = scale  # its grading stays as on this level
         scale /= LEVEL_RATIO
