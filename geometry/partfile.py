@@ -37,6 +37,16 @@ def load_part(path: str | Path) -> PartSpec:
     return parse_part(read_input_text(path, "part file", MAX_PART_BYTES), Path(path).parent)
 
 
+def anchored(data: dict[str, Any], base: Path) -> dict[str, Any]:
+    """The part-file dictionary with a relative cut-file path (outline.file) joined to `base`, the part
+    file's folder: for commands that read the dictionary and check its variants away from the file (a
+    sweep). Anything else is left as it is, for the reader to judge."""
+    outline = data.get("outline")
+    if not isinstance(outline, dict) or not isinstance(outline.get("file"), str) or Path(outline["file"]).is_absolute():
+        return data
+    return {**data, "outline": {**outline, "file": str(base / outline["file"])}}
+
+
 def parse_part(text: str, base: Path | None = None) -> PartSpec:
     """Parse TOML text and validate it into a PartSpec (`base`: the folder a cut file's relative path
     starts from, else the working folder)."""

@@ -465,3 +465,19 @@ def test_raisers_that_cannot_govern_stop_being_refined(monkeypatch):
     assert all(not lv.settled for lv in everything.study.levels)
     assert settling.kt.net == pytest.approx(everything.kt.net, rel=3e-3)
     assert levels[-1].elements < everything.study.levels[len(levels) - 1].elements
+
+
+def test_a_sweep_finds_a_cut_file_named_relative_to_its_part_file(tmp_path, capsys):
+    # The part file names its DXF by a relative path; the sweep checks its variants away from the file (and
+    # from any working folder), so the path is joined to the part file's folder when the file is read. The
+    # thickness does not change the Kt of a plate in plane stress (its stresses scale with 1/t: statics).
+    from stressraiser.cli.main import main
+
+    strap_dxf(tmp_path / "strap.dxf")
+    (tmp_path / "strap.toml").write_text(toml_text(drawn_strap({"file": "strap.dxf"}, hole=False, tolerance=0.02)))
+    out = tmp_path / "sweep"
+    assert main(["sweep", str(tmp_path / "strap.toml"), "--vary", "plate.thickness=5,10", "--out", str(out),
+                 "--workers", "1"]) == 0
+    rows = json.loads((out / "sweep.json").read_text())["rows"]
+    assert [r["status"] for r in rows] == ["ok", "ok"]
+    assert rows[0]["kt_net"] == pytest.approx(rows[1]["kt_net"], rel=1e-6)
