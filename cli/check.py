@@ -77,7 +77,7 @@ def run(args: argparse.Namespace) -> int:
                       markup=False)
     for exc in failed:
         err_console().print(f"stressraiser: {exc}", markup=False)
-    code = unconverged_exit(result)
+    code = max(unconverged_exit(result), sharp_corner_exit(result))
     return EXIT_INPUT if failed else code  # an output to fix: another path, or space freed
 
 
@@ -189,6 +189,28 @@ def with_max_elements(spec, value: int | None):
     from dataclasses import replace
 
     return replace(spec, mesh=replace(spec.mesh, max_elements=value))
+
+
+def sharp_corner_exit(result) -> int:
+    """0 unless a sharp inside corner's zone peak exceeds the governing peak in some load case: then one line
+    on stderr naming the corner and exit code 3 (the results stand, but the part cannot be judged until the
+    corner has a radius)."""
+    from .main import EXIT_NUMERICS
+    from .terminal import err_console
+
+    worst = [(r, s) for r in result.every_case for s in r.sharp_corners if s.exceeds]
+    if not worst:
+        return 0
+    case, sharp = max(worst, key=lambda rs: rs[1].peaks[-1])
+    from .display_units import point_text, quantity_text
+
+    units = result.spec.units
+    err_console().print(
+        f"stressraiser: the sharp inside corner at {point_text(sharp.corner.point, units)} ({sharp.corner.on}) peaks at "
+        f"{quantity_text(sharp.peaks[-1], 'stress', units)} on the finest mesh, above the governing "
+        f"{quantity_text(sharp.governing, 'stress', units)}, and grows under refinement; give it a radius to judge "
+        "the part", markup=False)
+    return EXIT_NUMERICS
 
 
 def unconverged_exit(result) -> int:

@@ -37,7 +37,7 @@ from ..compare.fatigue import FatigueScreen
 from ..compare.method_of_sections import SectionResult
 from ..geometry.kinds.base import RaiserId
 from ..geometry.outline import cutout_regions, part_polygon, plate_polygon
-from ..geometry.registry import kind_of, named, raiser_label
+from ..geometry.registry import kind_of, named, outline_raisers, raiser_label
 from ..geometry.units import DEFAULT_SYSTEM
 from .citation import short_source
 from .label_placement import annotation_at, at_position, axes_region, figure_region, obstacles, place, settle
@@ -409,7 +409,8 @@ def outline_figure(result: CheckResult) -> Figure:
                                       at_position(low[0] - gap, low[1], "right", "bottom"),
                                       at_position(high[0] + gap, high[1], "left", "top"),
                                       at_position(high[0] - gap, high[1], "right", "top")]))
-    ax.text(0.99, 0.01, f"thickness {_fmt(spec.plate.thickness, 'length', units)} · origin at the plate centre",
+    origin = "origin as drawn" if spec.drawing is not None else "origin at the plate centre"
+    ax.text(0.99, 0.01, f"thickness {_fmt(spec.plate.thickness, 'length', units)} · {origin}",
             transform=ax.transAxes, ha="right", va="bottom", fontsize=8, color=GROSS_LINE)
     _frame(ax, xlim, ylim, units)
     for side in ("top", "right"):
@@ -497,6 +498,10 @@ def _draw_raisers(ax, result: CheckResult) -> None:
                         color=GROSS_LINE, lw=0.6, ls=(0, (6, 2, 1, 2)))
         ax.annotate(str(rid), xy=(cx + 0.71 * hx, cy + 0.71 * hy), xytext=(4, 4), textcoords="offset points",
                     fontsize=8, fontweight="bold", color=INK)
+    for raiser in outline_raisers(result.spec):  # a drawn outline's corners, named at their tightest arc
+        if result.spec.drawing is not None:
+            ax.annotate(str(raiser.id), xy=raiser.cut.point, xytext=(4, 4), textcoords="offset points",
+                        fontsize=8, fontweight="bold", color=INK)
 
 
 def _draw_support(ax, spec, bounds, step: float) -> None:

@@ -64,6 +64,7 @@ def check_record(result: CheckResult) -> dict[str, Any]:
                 "normal_stress": ns.cut.normal_stress.tolist(),
             },
         },
+        "sharp_corners": [sharp_corner_record(s) for s in result.sharp_corners],
         "gross_average": result.gross_average,
         "understatement": result.understatement,
         "kt": {
@@ -172,3 +173,13 @@ def bearing_record(result: CheckResult) -> dict[str, Any] | None:
 
 def _finite(value: float, fallback: float | None = None) -> float | None:
     return value if math.isfinite(value) else fallback
+
+
+def sharp_corner_record(sharp) -> dict[str, Any]:
+    """A sharp inside corner (compare.check.SharpCornerResult): where, on what, its material angle, the zone
+    left out of the peak search, its zone's peak on every level (the growth is the evidence) and whether it
+    exceeds the governing peak."""
+    c = sharp.corner
+    return {"location": list(c.point), "on": c.on, "angle": c.angle, "zone_radius": c.zone,
+            "zone_peaks": [_finite(p) for p in sharp.peaks], "growth": _finite(sharp.growth),
+            "governing_peak": sharp.governing, "exceeds_governing": sharp.exceeds}

@@ -247,5 +247,27 @@ def print_cautions(result: CheckResult, console: Console) -> None:
     console.print(grid)
 
 
-BLOCKS = (print_heading, print_key_numbers, print_cases, print_sections, print_joints, print_levels, print_signoff,
-          print_cautions)
+def sharp_corner_line(sharp, units: str) -> str:
+    """One sharp inside corner in words: where, its angle, the zone left out, its zone's peak on each level
+    against the governing peak, and what to do."""
+    c = sharp.corner
+    levels = " → ".join(shown(p, "stress", units, ".0f") for p in sharp.peaks)
+    verdict = "above" if sharp.exceeds else "below"
+    return (f"sharp inside corner at {point_text(c.point, units)} on {c.on} ({c.angle:.0f}° of material): zone of "
+            f"{quantity_text(c.zone, 'length', units)} left out of the peak search; its peak {levels} "
+            f"{label('stress', units)} over the levels (×{sharp.growth:.2f}), {verdict} the governing "
+            f"{quantity_text(sharp.governing, 'stress', units)}; it is unbounded, not a Kt: give it a radius to judge it")
+
+
+def print_sharp_corners(result: CheckResult, console: Console) -> None:
+    """Every sharp inside corner (compare.check.SharpCornerResult), when the part has any."""
+    if not result.sharp_corners:
+        return
+    console.print("[bold]Sharp inside corners[/bold]")
+    for sharp in result.sharp_corners:
+        style = "bold red" if sharp.exceeds else "yellow"
+        console.print(f" [{style}]•[/{style}] {escape(sharp_corner_line(sharp, result.spec.units))}", soft_wrap=False)
+
+
+BLOCKS = (print_heading, print_key_numbers, print_cases, print_sections, print_joints, print_levels,
+          print_sharp_corners, print_signoff, print_cautions)

@@ -157,12 +157,13 @@ def run(args: argparse.Namespace) -> int:
 
 def read_part_dict(path: str | Path) -> dict[str, Any]:
     """The part file as a dictionary, after checking that it is a valid part file itself."""
-    from ..geometry.partfile import MAX_PART_BYTES, parse_part
+    from ..geometry.partfile import MAX_PART_BYTES, anchored, parse_part
     from ..geometry.textfile import read_input_text
 
     text = read_input_text(path, "part file", MAX_PART_BYTES)
-    parse_part(text)  # one-line PartError for anything wrong with the file
-    return tomllib.loads(text)
+    folder = Path(path).parent
+    parse_part(text, folder)  # one-line PartError for anything wrong with the file
+    return anchored(tomllib.loads(text), folder)  # a cut file named relative to the part file stays found
 
 
 def parse_vary(text: str, base: dict[str, Any]) -> Vary:

@@ -20,6 +20,7 @@ from ..fem.fastener_groups import bearing_stress
 from ..geometry.kinds.base import NetCut, RaiserId, across
 from ..geometry.outline import nearest_raiser
 from ..geometry.registry import cuts, outline_size
+from ..geometry.sharp_corners import ZONE, SharpCorner, sharp_corners
 from ..geometry.spec import SINGLE_CASE, PartSpec, SectionSpec
 from .edge_cut import ACROSS_LOAD, EDGE_NORMAL, EdgeCut, edge_cut, gross_spans, uses_edge_cut
 from .guards import result_warnings
@@ -173,6 +174,7 @@ class CheckResult:
     bearing: Bearing | None = None  # a pin's contact pressure against P / (d t), where a pin bears
     gross: GrossSection | None = None  # the gross section Kt(gross) is referred to (compare.nominal.gross_section)
     joints: JointResult | None = None  # the fastener groups per fastener and per hole (compare.joint_result)
+    sharp_corners: tuple[SharpCornerResult, ...] = ()  # every sharp inside corner and its zone's peaks
 
     @property
     def understatement(self) -> float | None:
@@ -191,6 +193,33 @@ class CheckResult:
             if result.case == name:
                 return result
         raise KeyError(name)
+
+
+@dataclass(frozen=True)
+class SharpCornerResult:
+    """A sharp inside corner (geometry/sharp_corners.py) and the evidence that its peak is no Kt: the
+    largest maximum principal stress in its zone on every mesh level (MPa), beside the governing peak."""
+
+    corner: SharpCorner
+    peaks: tuple[float, ...]
+    governing: float
+
+    @property
+    def growth(self) -> float:
+        """The zone's peak on the finest level over that on the coarsest (above 1: it grows)."""
+        return self.peaks[-1] / self.peaks[0] if self.peaks and self.peaks[0] != 0.0 else float("nan")
+
+    @property
+    def exceeds(self) -> bool:
+        """Whether the zone's peak on the finest level exceeds the governing peak: the part cannot be judged
+        until the corner has a radius."""
+        return bool(self.peaks) and abs(self.peaks[-1]) > abs(self.governing)
+
+
+def sharp_corner_results(spec: PartSpec, study: Study, governing: float) -> tuple[SharpCornerResult, ...]:
+    """Every sharp inside corner with its zone's peak on each level of the study."""
+    return tuple(SharpCornerResult(corner, tuple(lv.sharp[k] for lv in study.levels if len(lv.sharp) > k), governing)
+                 for k, corner in enumerate(sharp_corners(spec)))
 
 
 def understatement(average: float, peak: float) -> float | None:
@@ -249,7 +278,8 @@ def check_case(spec: PartSpec, study: Study, solution: Solution, name: str = SIN
                                     nominal=nominal, stresses=stress_peaks(solution), sections=cuts,
                                     peaks=raiser_peaks(spec, study, solution, matches, head), case=name,
                                     bearing=bearing_result(spec, study), gross=gross,
-                                    joints=joint_result(spec, study, solution)))
+                                    joints=joint_result(spec, study, solution),
+                                    sharp_corners=sharp_corner_results(spec, study, head.stress)))
 
 
 def _candidate_section(spec: PartSpec, name: RaiserId | str,
@@ -373,6 +403,11 @@ def _cautions(spec: PartSpec) -> tuple[str, ...]:
                      "joined to a rigid connecting member by its stated stiffness; friction of a preloaded joint, "
                      "fastener bending, the other member's own flexibility and hole-to-hole fit differences change "
                      "the sharing and the peaks. A holding group's member is fixed in space.")
+    corners = sharp_corners(spec)
+    if corners:
+        extra.append(f"The part has {len(corners)} sharp inside corner(s) (no radius): the elastic stress there is "
+                     f"unbounded, so the peak search leaves out a zone of {ZONE:.0%} of the shorter adjoining piece "
+                     "around each and no Kt is given for it; give each corner a radius to judge it.")
     if spec.load.edges:
         extra.append("Loads on the part's edges are spread as stated (a uniform traction over the stretch, or a "
                      "uniform pressure); whatever applies them in service distributes them differently near where "

@@ -37,13 +37,14 @@ from ..geometry.far_field import far_zones
 from ..geometry.mesh import Mesh
 from ..geometry.mesh_process import MeshProcess
 from ..geometry.meshing import mesh_part
+from ..geometry.sharp_corners import sharp_corners
 from ..geometry.spec import PartSpec
 from ..geometry.symmetry import mirror_symmetric
 from .analysis import Solution, solve_cases
 from .budget import BudgetError, check_first_level, level_over_budget
 from .equivalent_peak import von_mises_peak
 from .guards import check_fields
-from .raiser_peaks import OUTLINE, Peaks, RaiserName, bearing_peak, raiser_peaks
+from .raiser_peaks import OUTLINE, Peaks, RaiserName, bearing_peak, raiser_peaks, zone_peaks
 from .solve import RoundOffError
 from .symmetry import mirror_mesh
 
@@ -84,6 +85,8 @@ class Level:
     bearing: float | None = None
     von_mises: tuple[float, tuple[float, float]] | None = None  # von Mises peak and where (fem.equivalent_peak)
     passes: int | None = None  # the contact solve's active-set passes on this level (pins, fastener groups), or None
+    sharp: tuple[float, ...] = ()  # the peak in each sharp inside corner's zone (geometry.sharp_corners), MPa
+    settled: frozenset = frozenset()  # candidates not refined on this level (`settle`): left out of their sequences
 
 
 @dataclass(frozen=True)
@@ -189,7 +192,8 @@ def assess(levels: list[Level] | tuple[Level, ...], tolerance: float, formal: fl
     sign = -1.0 if compressive else 1.0
     estimates = {}
     for name in _peaks(levels[-1], compressive):
-        series = [v[name][0] for v in (_peaks(lv, compressive) for lv in levels) if name in v]
+        series = [_peaks(lv, compressive)[name][0] for lv in levels
+                  if name in _peaks(lv, compressive) and name not in lv.settled]
         estimates[name] = sequence_estimate(series, formal)
     if not estimates:  # no edge node left to search (every one bears or is skipped): the global peak
         estimates[OUTLINE] = sequence_estimate([lv.peak for lv in levels], formal)
@@ -199,6 +203,31 @@ def assess(levels: list[Level] | tuple[Level, ...], tolerance: float, formal: fl
     reaching = [n for n, e in estimates.items() if sign * e.value * (1.0 + e.error) >= top or n in required]
     converged = len(levels) >= MIN_LEVELS and all(estimates[n].error <= tolerance for n in reaching)
     return Assessment(governing, estimates, compressive, converged)
+
+
+SETTLE_MARGIN = 0.05  # a candidate settles when its upper band lies this far below the governing lower band
+SETTLE_AFTER = 2  # levels solved before any candidate may settle (two give a band of three times the change)
+
+
+def settle(cases: list[list[Level]], tolerance: float, formal: float, required: Collection[RaiserName] = ()
+           ) -> set[RaiserName]:
+    """The raisers that can no longer govern in any load case: each one's upper band (its estimate widened by
+    its error, at least `tolerance`) lies SETTLE_MARGIN below the governing candidate's lower band (likewise
+    widened) in every case. The study stops refining them (a drawn outline's many holes and corners, most of
+    which never come near the peak); their estimates stay those of the levels they were refined on. The
+    outline's own candidate and `required` raisers never settle. With two levels a band is three times the
+    change between them (`sequence_estimate`), wide enough that only raisers far below the peak settle."""
+    out: set[RaiserName] | None = None
+    for levels in cases:
+        found = assess(levels, tolerance, formal, required)
+        sign = -1.0 if found.compressive else 1.0
+        top = found.estimates[found.governing]
+        lower = sign * top.value * (1.0 - max(top.error, tolerance))
+        these = {name for name, e in found.estimates.items()
+                 if name != OUTLINE and name not in required and name != found.governing
+                 and sign * e.value * (1.0 + max(e.error, tolerance)) < (1.0 - SETTLE_MARGIN) * lower}
+        out = these if out is None else out & these
+    return out or set()
 
 
 def _peaks(level: Level, compressive: bool) -> Peaks:
@@ -231,9 +260,11 @@ def _study(spec: PartSpec, report: Callable[[Level], None] | None, mesher: Calla
     stop = ""
     formal = FORMAL_ORDER[spec.mesh.order]
     check_first_level(spec, scale)  # refuse a hopeless coarsest mesh before gmsh spends minutes on it
+    settled: dict[RaiserName, float] = {}  # raisers no longer refined, with the scale their grading keeps
     while True:
         clock = time.perf_counter()
-        mesh = mesher(spec, scale)
+        meshed_part = replace(spec, mesh=replace(spec.mesh, settled=tuple(settled.items()))) if settled else spec
+        mesh = mesher(meshed_part, scale)
         meshed = time.perf_counter() - clock
         stop = level_over_budget(spec, mesh.n_elements, first=not levels[0])
         if stop:
@@ -249,7 +280,8 @@ def _study(spec: PartSpec, report: Callable[[Level], None] | None, mesher: Calla
             check_fields(solution.displacement, solution.nodal_stress)
         solutions = solved
         for case, solution, case_levels in zip(cases, solutions, levels):
-            case_levels.append(measure_level(case, solution, mesh, scale, {"mesh": meshed, **solution.seconds}))
+            case_levels.append(replace(measure_level(case, solution, mesh, scale, {"mesh": meshed, **solution.seconds}),
+                                       settled=frozenset(settled)))
         if report is not None:
             report(max((lv[-1] for lv in levels), key=lambda lv: abs(lv.peak)))
         if len(levels[0]) >= MIN_LEVELS and all(assess(case, spec.mesh.tolerance, formal, required).converged
@@ -261,6 +293,9 @@ def _study(spec: PartSpec, report: Callable[[Level], None] | None, mesher: Calla
         if _next_elements(levels[0]) > spec.mesh.max_elements:
             stop = f"the next level would exceed mesh.max_elements = {spec.mesh.max_elements}"
             break
+        if settles(spec) and len(levels[0]) >= SETTLE_AFTER:
+            for name in settle(levels, spec.mesh.tolerance, formal, required) - set(settled):
+                settled[name] = scale  # its grading stays as on this level
         scale /= LEVEL_RATIO
     studies = [finish(case, spec, stop, required) for case in levels]
     return tuple(replace(s, stop_reason="tolerance met") if s.converged and len(cases) > 1 else s
@@ -283,6 +318,12 @@ def mesh_level(spec: PartSpec, scale: float, mesh: Callable[[PartSpec, float], M
     return mirror_mesh(half, mesh(half, scale), "y")
 
 
+def settles(spec: PartSpec) -> bool:
+    """Whether the study stops refining raisers that cannot govern: on a drawn outline (geometry/kinds/
+    drawn.py), whose many holes and corners would otherwise all be refined to the finest level."""
+    return spec.outline != "bar"
+
+
 def measure_level(spec: PartSpec, solution: Solution, modelled: Mesh, scale: float, seconds: dict[str, float]) -> Level:
     """The level record of one solve on the `modelled` mesh (a half or quarter of the part with symmetry
     planes): the global peak (until the study rewrites it), every candidate's peak of both signs, the sign
@@ -295,7 +336,8 @@ def measure_level(spec: PartSpec, solution: Solution, modelled: Mesh, scale: flo
                  solver=solution.solver.method if solution.solver is not None else "",
                  von_mises=von_mises_peak(spec, solution), compression=raiser_peaks(solution, compressive=True),
                  compressive=solution.compressive_governs(), bearing=bearing_peak(solution),
-                 passes=contact_passes(solution))
+                 passes=contact_passes(solution),
+                 sharp=zone_peaks(solution, tuple((c.point, c.zone) for c in sharp_corners(spec))))
 
 
 def contact_passes(solution: Solution) -> int | None:

@@ -58,6 +58,22 @@ def _add(out: Peaks, name: str, solution: Solution, nodes: np.ndarray, column: i
     out[name] = (float(solution.principal[k, column]), (float(solution.mesh.nodes[k, 0]), float(solution.mesh.nodes[k, 1])))
 
 
+def zone_peaks(solution: Solution, zones: tuple[tuple[tuple[float, float], float], ...]) -> tuple[float, ...]:
+    """The principal stress of the largest magnitude (MPa, signed) among the nodes within each zone (centre,
+    radius in mm): a sharp inside corner's peak on this mesh, which grows under refinement
+    (geometry/sharp_corners.py)."""
+    nodes = solution.mesh.nodes
+    out = []
+    for centre, radius in zones:
+        inside = np.hypot(nodes[:, 0] - centre[0], nodes[:, 1] - centre[1]) <= radius
+        if not inside.any():
+            out.append(float("nan"))
+            continue
+        high, low = float(solution.principal[inside, 0].max()), float(solution.principal[inside, 1].min())
+        out.append(high if high >= -low else low)
+    return tuple(out)
+
+
 def bearing_peak(solution: Solution) -> float | None:
     """The largest contact pressure a pin exerts on its hole's edge (MPa, >= 0); None where nothing bears."""
     if solution.pressure is None or not solution.bearing.any():

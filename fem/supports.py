@@ -23,6 +23,7 @@ import scipy.sparse as sp
 
 from ..geometry.boundary import boundary_loops, outward_normals, segment_points, stretch
 from ..geometry.mesh import Mesh
+from ..geometry.sharp_corners import sharp_corners
 from ..geometry.registry import outline_size
 from ..geometry.spec import NO_HELD_END, PartSpec
 from .stretches import segment_edges, stretch_nodes
@@ -163,7 +164,8 @@ def singular_zone(spec: PartSpec, mesh: Mesh) -> np.ndarray | None:
     roller hold or an edge force ends inside a line or arc (a support or a shear traction that stops
     abruptly). The peak search skips CLAMP_ZONE x the end's width around a clamped end's corners and
     SUPPORT_ZONE x the stretch's length around those ends (Saint-Venant: the support's idealisation only
-    disturbs its neighbourhood). A pressure's ends leave the stress bounded and are not skipped."""
+    disturbs its neighbourhood). A pressure's ends leave the stress bounded and are not skipped. Sharp inside
+    corners of the geometry (geometry/sharp_corners.py) are skipped within their stated zones."""
     points, radii = [], []
     if spec.support.held == "clamped" and "held" in mesh.edges and spec.load.remote is None:
         edges = mesh.edges["held"]
@@ -178,6 +180,9 @@ def singular_zone(spec: PartSpec, mesh: Mesh) -> np.ndarray | None:
         ends = picked.ends if every_end else [e for e in picked.ends if not _at_vertex(spec, e)]
         points += list(ends)
         radii += [SUPPORT_ZONE * picked.length] * len(ends)
+    for corner in sharp_corners(spec):  # a sharp inside corner: the same, for the geometry's own singularity
+        points.append(corner.point)
+        radii.append(corner.zone)
     if not points:
         return None
     gaps = np.linalg.norm(mesh.nodes[:, None, :] - np.asarray(points)[None, :, :], axis=2)

@@ -25,6 +25,10 @@ MAX_CLEARANCE = 0.1  # of the pin hole's diameter: the contact gap is measured a
 
 def validate_loading(spec: PartSpec) -> None:
     """Raise PartError for the first load, support, symmetry plane or section that does not fit."""
+    if spec.outline != bar.NAME:
+        from .rigid_body import check_drawn
+
+        check_drawn(spec, case_keys(spec))
     for where, case in case_keys(spec):
         _check_load(spec, case.load, where)
     _check_holds(spec)

@@ -30,8 +30,9 @@ from .mesh_guard import check_finite, check_mesh, checked_expression
 from .outline import feature_edges, plate_polygon
 from .raisers import Raiser, distance_expression, part_raisers
 from .registry import kind_of, named, outline_of, outline_size
-from .shapes import EllipseShape, Line, Loop, full_circle, segment_points
+from .shapes import EllipseShape, Line, Loop, full_circle, segment_points, split_arc
 from .spec import PartSpec
+from .sharp_corners import sharp_corners
 from .symmetry import modelled_box, on_plane
 from .validate import min_ligament
 
@@ -71,6 +72,7 @@ class Sizing:
     band_share: float = 0.3
     bending_far_fraction: float = 0.1
     far_grading: FarGrading = FarGrading()
+    corner_fraction: float = 0.25  # element size at a sharp inside corner as a fraction of its zone's radius
 
 
 from .errors import MeshError  # noqa: E402  (defined with PartError; kept importable from here)
@@ -100,12 +102,19 @@ def raiser_features(spec: PartSpec, scale: float = 1.0, sizing: Sizing = Sizing(
     # The floor shrinks with the level like every other size: a fixed floor stalls the refinement of a
     # small raiser, and the unchanged peak then reads as converged (a 0.5 mm hole in an 80 mm strap
     # gave Kt 2.71 'converged' instead of about 3).
-    floor = scale * min_ligament(spec) / 4.0
     raisers = part_raisers(spec) if raisers is None else raisers
+    scales = raiser_scales(spec, raisers, scale)
     return tuple(Feature(name=r.id, radius=r.curvature,
-                         edge_size=max(scale * min(sizing.edge_fraction * r.curvature,
-                                                   sizing.ligament_share * r.ligament), floor))
-                 for r in raisers)
+                         edge_size=max(s * min(sizing.edge_fraction * r.curvature, sizing.ligament_share * r.ligament),
+                                       s * min_ligament(spec) / 4.0))
+                 for r, s in zip(raisers, scales))
+
+
+def raiser_scales(spec: PartSpec, raisers: list[Raiser], scale: float) -> list[float]:
+    """Each raiser's own scale: the level's, or the coarser one a settled raiser keeps (MeshControls.settled:
+    the study stops refining a raiser that cannot govern, fem.convergence)."""
+    settled = dict(spec.mesh.settled)
+    return [settled.get(r.id, scale) for r in raisers]
 
 
 def band_pieces(raisers: list[Raiser], features: tuple[Feature, ...], sizing: Sizing) -> list[Piece]:
@@ -225,7 +234,8 @@ def _loop_surface(loop: Loop) -> int:
 
 
 def _wire_surface(segments) -> int:
-    """A plane OCC surface bounded by a closed chain of lines and arcs (each arc under half a turn)."""
+    """A plane OCC surface bounded by a closed chain of lines and arcs. An arc of half a turn or more (a
+    drawn outline's rounded end) is built in quarter turns: three points do not fix which way it goes."""
     occ = gmsh.model.occ
     points: dict[tuple[float, float], int] = {}
 
@@ -242,7 +252,8 @@ def _wire_surface(segments) -> int:
             curves.append(occ.addLine(point(a), point(b)))
         else:
             centre = occ.addPoint(seg.center[0], seg.center[1], 0.0)
-            curves.append(occ.addCircleArc(point(a), centre, point(b)))
+            for part in split_arc(seg) if seg.span >= math.pi - 1e-9 else (seg,):
+                curves.append(occ.addCircleArc(point(part.first), centre, point(part.last)))
     return occ.addPlaneSurface([occ.addCurveLoop(curves)])
 
 
@@ -298,10 +309,16 @@ def _size_field(spec: PartSpec, raisers: list[Raiser], features: tuple[Feature, 
     field = gmsh.model.mesh.field
     far = far_size(spec, scale, sizing)
     graded = []
-    for raiser, feature in zip(raisers, features):
+    for raiser, feature, own in zip(raisers, features, raiser_scales(spec, raisers, scale)):
         grade = field.add("MathEval")
         field.setString(grade, "F", checked_expression(
-            f"{feature.edge_size!r} + {scale * sizing.growth!r} * {distance_expression(raiser)}"))
+            f"{feature.edge_size!r} + {own * sizing.growth!r} * {distance_expression(raiser)}"))
+        graded.append(grade)
+    for corner in sharp_corners(spec):  # graded like a raiser, so the corner's growing peak shows on every level
+        grade = field.add("MathEval")
+        (cx, cy), size = corner.point, scale * sizing.corner_fraction * corner.zone
+        field.setString(grade, "F", checked_expression(
+            f"{size!r} + {scale * sizing.growth!r} * Sqrt((x - ({cx!r}))^2 + (y - ({cy!r}))^2)"))
         graded.append(grade)
     cap = field.add("MathEval")
     field.setString(cap, "F", checked_expression(grown_size_expression(spec, far, sizing.far_grading)))

@@ -13,7 +13,7 @@ from typing import TYPE_CHECKING, Any
 
 from .errors import PartError
 from .readers import DEFAULT_UNITS, integer, known, number, point, positive, shown, table
-from .registry import TABLES, outline_of, read_raisers
+from .registry import TABLES, outline_named, outline_of, read_raisers
 from .spec import STRESS_STATES, Load, Material, MeshControls, PartSpec, Plate
 from .spec import DESIGN_BEHAVIOURS, NEUBER_STEEL_RANGE_MPA, Q_METHODS, DesignSpec, FatigueSpec
 from .spec import HELD_MODES, NO_HELD_END, PIN_CONTACTS, SINGLE_CASE, SYMMETRY_PLANES, LoadCase, Pin, Remote
@@ -34,28 +34,40 @@ def load_part(path: str | Path) -> PartSpec:
     geometry/textfile.py)."""
     from .textfile import read_input_text
 
-    return parse_part(read_input_text(path, "part file", MAX_PART_BYTES))
+    return parse_part(read_input_text(path, "part file", MAX_PART_BYTES), Path(path).parent)
 
 
-def parse_part(text: str) -> PartSpec:
-    """Parse TOML text and validate it into a PartSpec."""
+def anchored(data: dict[str, Any], base: Path) -> dict[str, Any]:
+    """The part-file dictionary with a relative cut-file path (outline.file) joined to `base`, the part
+    file's folder: for commands that read the dictionary and check its variants away from the file (a
+    sweep). Anything else is left as it is, for the reader to judge."""
+    outline = data.get("outline")
+    if not isinstance(outline, dict) or not isinstance(outline.get("file"), str) or Path(outline["file"]).is_absolute():
+        return data
+    return {**data, "outline": {**outline, "file": str(base / outline["file"])}}
+
+
+def parse_part(text: str, base: Path | None = None) -> PartSpec:
+    """Parse TOML text and validate it into a PartSpec (`base`: the folder a cut file's relative path
+    starts from, else the working folder)."""
     try:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise PartError(f"part file is not valid TOML: {exc}") from None
     except RecursionError:
         raise PartError("part file: arrays or inline tables are nested too deeply") from None
-    return part_from_dict(data)
+    return part_from_dict(data, base)
 
 
-def part_from_dict(data: dict[str, Any]) -> PartSpec:
-    """Validate a part-file dictionary (as read from TOML) into a PartSpec."""
+def part_from_dict(data: dict[str, Any], base: Path | None = None) -> PartSpec:
+    """Validate a part-file dictionary (as read from TOML) into a PartSpec (`base`: as for parse_part)."""
     known(data, TOP_KEYS, "")
     title = data.get("title", "untitled part")
     if not isinstance(title, str):
         raise PartError(f"title: must be a text string; got {shown(title)}")
     units = _units(data.get("units", DEFAULT_UNITS))
-    plate = _plate(table(data, "plate"), units)
+    outline = outline_named(data)
+    plate = _plate(table(data, "plate", required=outline == "bar"), units, drawn=outline != "bar")
     material = _material(table(data, "material"), units)
     cases = _load_cases(data, units)
     from .fastenerfile import check_fasteners, fitted, read_fasteners
@@ -75,8 +87,9 @@ def part_from_dict(data: dict[str, Any]) -> PartSpec:
         sections=_sections(data.get("section", []), units),
         cases=cases if isinstance(data.get("load"), list) else (),
         fasteners=groups,
+        outline=outline,
     )
-    spec = replace(spec, **outline_of(spec).read(data, spec))
+    spec = replace(spec, **outline_of(spec).read(data, spec, base))
     from .resolution import check_feature_count, check_resolution
 
     check_feature_count(spec)  # before the pairwise geometric checks, whose cost grows with the square
@@ -100,11 +113,20 @@ def _units(value: Any) -> str:
     return value
 
 
-def _plate(t: dict[str, Any], units: str) -> Plate:
+def _plate(t: dict[str, Any], units: str, drawn: bool = False) -> Plate:
+    """[plate]; with a drawn outline only the thickness (which a STEP solid may give instead: 0 until the
+    outline is read) and the condition, the extents coming from the drawing."""
+    if drawn:
+        for key in ("length", "width"):
+            if key in t:
+                raise PartError(f"plate.{key}: a drawn outline ([outline]) has its own size; remove plate.{key}")
     known(t, {"length", "width", "thickness", "condition"}, "plate")
     condition = t.get("condition", "plane-stress")
     if condition not in STRESS_STATES:
         raise PartError(f"plate.condition: {condition!r} is not allowed; use one of {', '.join(STRESS_STATES)}")
+    if drawn:
+        thickness = positive(t, "thickness", "plate", "length", units, required=False)
+        return Plate(length=0.0, width=0.0, thickness=thickness or 0.0, condition=condition)
     return Plate(
         length=positive(t, "length", "plate", "length", units),
         width=positive(t, "width", "plate", "length", units),

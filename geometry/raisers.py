@@ -27,6 +27,7 @@ class Raiser:
     ellipse: EllipseShape | None
     curvature: float
     ligament: float
+    lines: tuple[Line, ...] = ()
 
 
 def part_raisers(spec: PartSpec) -> list[Raiser]:
@@ -37,7 +38,7 @@ def part_raisers(spec: PartSpec) -> list[Raiser]:
 
     def raiser(rid: RaiserId, edges: CurvedEdges) -> Raiser:
         ligament = min(gaps[rid].values()) if gaps.get(rid) else width
-        return Raiser(rid, edges.arcs, edges.strips, edges.ellipse, edges.curvature, ligament)
+        return Raiser(rid, edges.arcs, edges.strips, edges.ellipse, edges.curvature, ligament, edges.lines)
 
     out = [raiser(rid, kind_of(item).curved(spec, item)) for rid, item in named(spec)]
     return out + [raiser(r.id, r.curved) for r in outline_raisers(spec)]
@@ -95,6 +96,7 @@ def distance_expression(raiser: Raiser) -> str:
     the distances to its arcs, its straight strips and its ellipse."""
     terms = [_arc_distance(a) for a in raiser.arcs]
     terms += [_segment_distance(line.start, line.end) for line, _ in raiser.strips]
+    terms += [_segment_distance(line.start, line.end) for line in raiser.lines]
     if raiser.ellipse is not None:
         terms.append(_ellipse_distance(raiser.ellipse))
     expr = terms[0]

@@ -12,16 +12,16 @@ from __future__ import annotations
 
 from typing import Any
 
-from .kinds import bar, ellipse, hole, notch, slot, window
+from .kinds import bar, cutout, drawn, ellipse, hole, notch, slot, window
 from .kinds.base import NetCut, OutlineKind, OutlineRaiser, RaiserId, RaiserKind, raiser_label
 from .readers import array_of_tables
 from .spec import PartSpec
 
-RAISER_KINDS: tuple[RaiserKind, ...] = (hole, ellipse, slot, notch, window)
-OUTLINE_KINDS: tuple[OutlineKind, ...] = (bar,)
+RAISER_KINDS: tuple[RaiserKind, ...] = (hole, ellipse, slot, notch, window, cutout)
+OUTLINE_KINDS: tuple[OutlineKind, ...] = (bar, drawn)
 
 __all__ = ["RAISER_KINDS", "OUTLINE_KINDS", "RaiserId", "raiser_label", "raiser_kind", "kind_of", "outline_of",
-           "outline_size", "read_raisers", "named", "outline_raisers", "raiser_ids", "kind_counts", "part_features",
+           "outline_size", "outline_bounds", "outline_named", "read_raisers", "named", "outline_raisers", "raiser_ids", "kind_counts", "part_features",
            "of_kind", "cuts",
            "TABLES"]
 
@@ -47,6 +47,16 @@ def outline_size(spec: PartSpec) -> tuple[float, float]:
     """(length, width): the outline's extents along x and y (mm); every scale decision (mesh fractions,
     tolerances, element budget) takes its sizes from here."""
     return outline_of(spec).size(spec)
+
+
+def outline_bounds(spec: PartSpec) -> tuple[float, float, float, float]:
+    """(xmin, ymin, xmax, ymax): where the outline lies (mm)."""
+    return outline_of(spec).bounds(spec)
+
+
+def outline_named(data: dict[str, Any]) -> str:
+    """The outline kind a part-file dictionary asks for: "drawn" with an [outline] table, else the bar."""
+    return drawn.NAME if drawn.TABLE in data else bar.NAME
 
 
 def read_raisers(data: dict[str, Any], units: str) -> tuple[Any, ...]:

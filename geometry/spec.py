@@ -17,6 +17,7 @@ from .kinds.hole import NAME as HOLE
 
 if TYPE_CHECKING:
     from .units import Stated
+    from .kinds.drawn import Drawing
     from .kinds.hole import Hole
     from .kinds.lug_end import Lug
     from .kinds.stepped import Step
@@ -301,6 +302,8 @@ class MeshControls:
     order: 1 for linear (3-node) triangles, 2 for quadratic (6-node) triangles with curved edges.
     solver: "auto" (chosen by size), "direct" (sparse Cholesky or LU) or "iterative" (multigrid CG);
         see fem/solve.py.
+    settled: raisers the study no longer refines, each with the scale its grading keeps (set by
+        fem.convergence for the next level's mesh, never by the part file).
     """
 
     tolerance: float = 0.01
@@ -308,6 +311,7 @@ class MeshControls:
     max_elements: int = 2_000_000
     order: int = 1
     solver: str = "auto"
+    settled: tuple[tuple[Any, float], ...] = ()
 
 
 MESH_ORDERS = (1, 2)
@@ -391,7 +395,8 @@ class PartSpec:
         in the order of geometry.registry.RAISER_KINDS, entries of one kind in part-file order (the nth
         entry of a kind is that kind's raiser n; geometry.registry.named pairs them with their names).
     outline: the outline kind (geometry.registry.OUTLINE_KINDS); "bar": plate.length x plate.width with an
-        optional shoulder `step` and `lug` end.
+        optional shoulder `step` and `lug` end; "drawn": `drawing`, by points or from a cut file (plate.length
+        and plate.width are then its extents along x and y).
     """
 
     title: str
@@ -410,6 +415,7 @@ class PartSpec:
     lug: Lug | None = None
     cases: tuple[LoadCase, ...] = ()  # every load case when the part file gives [[load]] entries; `load` is the first
     fasteners: tuple[FastenerSpec, ...] = ()  # fastener groups ([[fasteners]])
+    drawing: Drawing | None = None  # the drawn outline ("drawn": geometry/kinds/drawn.py)
 
     @property
     def holes(self) -> tuple[Hole, ...]:

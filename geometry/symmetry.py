@@ -16,7 +16,7 @@ from shapely import affinity
 from .kinds.base import RaiserId
 from .kinds.hole import named as named_hole
 from .outline import cutout_regions, loop_polygon, part_polygon
-from .registry import kind_of, named, outline_of, outline_raisers, outline_size
+from .registry import kind_of, named, outline_bounds, outline_of, outline_raisers, outline_size
 from .spec import PartSpec
 
 TOLERANCE_FRACTION = 1e-6  # of the outline's larger extent: how close counts as "on the plane"
@@ -71,10 +71,9 @@ def mirror_hole(spec: PartSpec, number: int, plane: str) -> int:
 
 def modelled_box(spec: PartSpec) -> tuple[float, float, float, float]:
     """(xmin, ymin, xmax, ymax) in mm of the region that is meshed: the plate, cut at each plane."""
-    length, width = outline_size(spec)
-    half_l, half_w = 0.5 * length, 0.5 * width
+    x0, y0, x1, y1 = outline_bounds(spec)
     planes = spec.support.symmetry
-    return (0.0 if "x" in planes else -half_l, 0.0 if "y" in planes else -half_w, half_l, half_w)
+    return (0.0 if "x" in planes else x0, 0.0 if "y" in planes else y0, x1, y1)
 
 
 def on_plane(spec: PartSpec, x: float, y: float) -> str | None:

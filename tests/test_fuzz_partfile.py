@@ -15,11 +15,13 @@ import re
 import signal
 from contextlib import contextmanager
 
+import pytest
 from hypothesis import HealthCheck, given, settings
 
 from fuzzparts import core_parts, mutated_examples, raw_texts, toml_text
 from stressraiser.geometry.errors import PartError
 from stressraiser.geometry.partfile import parse_part
+from stressraiser.geometry.registry import outline_bounds
 from stressraiser.geometry.spec import PartSpec
 
 CASE_SECONDS = 20  # far above the few milliseconds a case takes; only a hang reaches it
@@ -70,10 +72,12 @@ def _check_promises(spec: PartSpec) -> None:
     p = spec.plate
     assert p.length > 0 and p.width > 0 and p.thickness > 0 and spec.material.E > 0
     assert -1.0 < spec.material.nu < 0.5
+    x0, y0, x1, y1 = outline_bounds(spec)  # the bar centred on the origin; a drawn outline where it is drawn
+    assert x1 - x0 == pytest.approx(p.length) and y1 - y0 == pytest.approx(p.width)
     for h in spec.holes:
         assert h.diameter > 0
-        assert abs(h.center[0]) + h.radius < 0.5 * p.length
-        assert abs(h.center[1]) + h.radius < 0.5 * p.width
+        assert x0 < h.center[0] - h.radius and h.center[0] + h.radius < x1
+        assert y0 < h.center[1] - h.radius and h.center[1] + h.radius < y1
 
 
 def _numbers(node):

@@ -12,6 +12,9 @@ from __future__ import annotations
 from dataclasses import asdict
 from typing import TYPE_CHECKING, Any
 
+if TYPE_CHECKING:
+    from pathlib import Path
+
 from ..shapes import Edge, Line, Segment, segment_points
 from ..units import format_quantity
 from . import lug_end, stepped
@@ -25,7 +28,7 @@ TABLES = (stepped.TABLE, lug_end.TABLE)
 ENDS = ("held", "loaded")
 
 
-def read(data: dict[str, Any], spec: PartSpec) -> dict[str, Any]:
+def read(data: dict[str, Any], spec: PartSpec, base: Path | None = None) -> dict[str, Any]:
     """The [step] and [lug] tables as PartSpec fields."""
     return {"step": stepped.read(data, spec.units, spec.plate.width),
             "lug": lug_end.read(data, len(spec.holes))}
@@ -94,6 +97,12 @@ def features(spec: PartSpec) -> tuple[str, ...]:
 
 def size(spec: PartSpec) -> tuple[float, float]:
     return spec.plate.length, spec.plate.width
+
+
+def bounds(spec: PartSpec) -> tuple[float, float, float, float]:
+    """(xmin, ymin, xmax, ymax) in mm: the bar is centred on the origin."""
+    half_l, half_w = 0.5 * spec.plate.length, 0.5 * spec.plate.width
+    return -half_l, -half_w, half_l, half_w
 
 
 def half_width_at(spec: PartSpec, x: float) -> float | None:

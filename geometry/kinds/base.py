@@ -95,12 +95,15 @@ class CurvedEdges:
     strips: straight edges bordered by structured layers, each with its unit normal into the material.
     ellipse: an elliptical edge, or None.
     curvature: the smallest radius of curvature along these edges (mm).
+    lines: straight edges the mesh is graded at like the arcs, without layers (a drawn cut-out's sides,
+        which may meet at sharp corners where layers would overlap).
     """
 
     arcs: tuple[Arc, ...] = ()
     strips: tuple[tuple[Line, Point], ...] = ()
     ellipse: EllipseShape | None = None
     curvature: float = 0.0
+    lines: tuple[Line, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -171,12 +174,14 @@ class OutlineKind(Protocol):
 
     NAME:      the kind, as PartSpec.outline names it.
     TABLES:    the part-file tables it reads besides [plate].
-    read:      those tables -> PartSpec fields (given the spec read so far: its raisers are known).
+    read:      those tables -> PartSpec fields (given the spec read so far: its raisers are known; `base`:
+               the part file's folder, for a file the tables name).
     path:      the closed counter-clockwise chain of named edges (material on the left).
     raisers:   its concave curved edges that concentrate stress, each a raiser of its own.
     mirrored:  the mirror image of one of those raisers in a plane, or None.
     features:  its optional features the part has (a bar's "step", "lug"), for handbook matching.
     size:      (length, width): the outline's extents along x and y (mm), for every scale decision.
+    bounds:    (xmin, ymin, xmax, ymax): where the outline lies (mm).
     check:     the outline's own checks, with `limit` the thinnest ligament allowed (mm).
     record:    its tables as given, for the JSON record.
     """
@@ -184,7 +189,7 @@ class OutlineKind(Protocol):
     NAME: str
     TABLES: tuple[str, ...]
 
-    def read(self, data: dict[str, Any], spec: PartSpec) -> dict[str, Any]: ...
+    def read(self, data: dict[str, Any], spec: PartSpec, base: Any = None) -> dict[str, Any]: ...
 
     def path(self, spec: PartSpec) -> tuple[Edge, ...]: ...
 
@@ -195,6 +200,8 @@ class OutlineKind(Protocol):
     def features(self, spec: PartSpec) -> tuple[str, ...]: ...
 
     def size(self, spec: PartSpec) -> tuple[float, float]: ...
+
+    def bounds(self, spec: PartSpec) -> tuple[float, float, float, float]: ...
 
     def check(self, spec: PartSpec, limit: float) -> None: ...
 
