@@ -128,10 +128,13 @@ def stress_rows(result: CheckResult) -> list[Row]:
     s, units = result.stresses, result.spec.units
     if s is None:
         return []
+    where = (f"finest mesh, at {shown_point(s.von_mises.location, units)} / "
+             f"{point_text(s.tresca.location, units)}")
+    if result.solution.bearing[s.von_mises.node]:  # the contact's own stresses: not the sign-off's peak
+        where += "; where a pin or fastener bears (the sign-off's von Mises peak leaves that out)"
     rows = [("von Mises / Tresca",
              f"{shown(s.von_mises.value, 'stress', units)} / {quantity_text(s.tresca.value, 'stress', units)}",
-             f"finest mesh, at {shown_point(s.von_mises.location, units)} / "
-             f"{point_text(s.tresca.location, units)}")]
+             where)]
     if s.compressive_governs and result.bearing is not None:
         rows.append(("Compressive peak", quantity_text(s.min_principal.value, "stress", units),
                      f"min principal at {point_text(s.min_principal.location, units)}, where the pin bears: "

@@ -8,7 +8,7 @@ from rich.console import Console
 from rich.markup import escape
 from rich.table import Table
 
-from ..compare.check import CheckResult
+from ..compare.check import FASTENER_BEARING, CheckResult
 from ..fem.convergence import FORMAL_ORDER
 from ..geometry.errors import clipped
 from ..geometry.registry import raiser_label
@@ -28,11 +28,15 @@ def verdict(result: CheckResult) -> str:
     state = "converged" if kt.converged else "NOT converged"
     nominal = result.nominal
     basis = f" on the {nominal.net.label.split(',')[0]} nominal" if nominal and result.spec.load.kind != "axial" else ""
-    if on_edge_cut(result):
+    if nominal is not None and nominal.net.key == FASTENER_BEARING:
+        basis = f" on the {nominal.net.label}"
+    elif on_edge_cut(result):
         basis = " on the cut normal to the edge at the peak"
     cases = result.every_case
     case = f" in load case {result.case!r} (governs {len(cases)} cases)" if len(cases) > 1 else ""
-    return (f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f}{basis} — peak {peak} "
+    pair = (f"Kt {kt.net:.3f} ± {kt.error:.2%}" if nominal is not None and nominal.net.key == FASTENER_BEARING
+            else f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f}")
+    return (f"{pair}{basis} — peak {peak} "
             f"({peak_words(result)}) at {raiser_label(result.peak.feature)}{case}, {state} in {len(result.study.levels)} mesh levels")
 
 
@@ -106,6 +110,8 @@ def kt_rows(result: CheckResult) -> list[Row]:
     "Kt on net section  2.437 ± 0.60%  nominal N / A_net = 10667 psi". No rich markup: the report reuses them."""
     kt, nominal, units = result.kt, result.nominal, result.spec.units
     net = f"{kt.net:.3f} ± {kt.error:.2%}"
+    if nominal is not None and nominal.net.key == FASTENER_BEARING:  # compare.check.bearing_led
+        return [("Kt on fastener bearing", net, nominal_note(nominal.net.formula, nominal.net.stress, units))]
     if nominal is not None and on_edge_cut(result):
         return [("Kt on the cut (net)", net, nominal_note(nominal.net.formula, nominal.net.stress, units)),
                 ("Kt on the cut (gross)", f"{kt.gross:.3f}", nominal_note(nominal.gross.formula, nominal.gross.stress, units))]

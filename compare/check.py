@@ -27,7 +27,7 @@ from .guards import result_warnings
 from .handbook import Match, handbook_matches
 from .method_of_sections import SectionResult, section_result, section_results
 from .notices import Amount, Notice, notice
-from .nominal import GrossSection, NominalSet, critical_cut, edge_nominals, gross_section, nominal_stresses
+from .nominal import GrossSection, Nominal, NominalSet, critical_cut, edge_nominals, gross_section, nominal_stresses
 from .sections import Cut
 from .stress_peaks import StressPeaks, stress_peaks
 from .case_cycle import part_fatigue
@@ -299,10 +299,29 @@ def _raiser_result(spec: PartSpec, solution: Solution, feature: RaiserId | None,
     the load (compare.nominal.gross_section); None on a cut normal to the edge (its own gross stretch)."""
     section = critical_section(spec, solution, location, cut)
     gross = None if section.kind == EDGE_NORMAL else gross_section(spec, feature, section.point, section.normal)
-    nominal = section_nominals(spec, estimate.value, section, gross)
+    nominal = bearing_led(solution, feature, estimate.value, section_nominals(spec, estimate.value, section, gross))
     result = RaiserPeak(feature, estimate.value, estimate.error, fe_stress, location, section,
                         _kt(estimate.value, nominal.net.stress), _kt(estimate.value, nominal.gross.stress))
     return result, nominal, gross
+
+
+FASTENER_BEARING = "fastener-bearing"  # the key of the nominal bearing_led puts first
+
+
+def bearing_led(solution: Solution, feature: RaiserId | None, peak: float, nominal: NominalSet) -> NominalSet:
+    """At a hole where a fastener of a group bears and statics puts no load across the cut through the peak
+    (a nil nominal: an end hole, a holding bolt at the edge of a flange), Kt is taken on that fastener's own
+    bearing stress F / (d t), the nominal of pin and lug practice; the cut's nominals follow it in `all`.
+    Any other nominal set is returned as it is."""
+    if nominal.net.stress != 0.0 or feature is None or solution.fasteners is None:
+        return nominal
+    bearing = next((f.bearing for f in solution.fasteners.fasteners if f.hole.edge == feature and f.bearing > 0.0),
+                   None)
+    if bearing is None:
+        return nominal
+    own = Nominal(FASTENER_BEARING, f"bearing of the fastener in {feature}", "F / (d t) of that fastener", bearing,
+                  abs(peak) / bearing)
+    return NominalSet(own, own, (own,) + nominal.all)
 
 
 def bearing_result(spec: PartSpec, study: Study) -> Bearing | None:

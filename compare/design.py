@@ -54,6 +54,11 @@ def allowable_stress(failure_stress_mpa: float, factor_of_safety: float) -> floa
     return failure_stress_mpa / factor_of_safety
 
 
+NO_HAND_LOAD = ("Ductile material, but by statics no load crosses the critical cut through the peak (the peak is "
+                "driven by what bears or ends there, e.g. a fastener in its hole): a hand check on that cut cannot "
+                "see it, so the peak check governs, judged by von Mises, the criterion for ductile metals.")
+
+
 def margin_of_safety(allowable_mpa: float, actual_mpa: float) -> float:
     """Margin of safety = allowable / actual - 1 (both MPa, actual >= 0); inf when actual is 0."""
     _positive("allowable_mpa", allowable_mpa)
@@ -245,14 +250,17 @@ def design_statements(c: DesignCheck, system: str = DEFAULT_SYSTEM) -> tuple[str
                 f"{ln.margin:+.3f}, {_verdict(ln.passes)}.")
 
     hand = line(c.hand, f"{c.hand.label[0].upper()}{c.hand.label[1:]} ({c.hand.formula})", criterion)
-    peak = line(c.peak, f"Peak by {c.peak_criterion} (extrapolated over the mesh levels; Kt_net {c.kt_net:.3g})",
+    kt = f"Kt_net {c.kt_net:.3g}" if math.isfinite(c.kt_net) else "no Kt_net: nil nominal"
+    peak = line(c.peak, f"Peak by {c.peak_criterion} (extrapolated over the mesh levels; {kt})",
                 criterion)
     other_line = c.peak_principal if c.peak is c.peak_von_mises else c.peak_von_mises
     other_name = CRITERION_BRITTLE if other_line is c.peak_principal else CRITERION_DUCTILE
     other = (f"By {other_name} the peak is {stress(other_line.actual_mpa)}: margin {other_line.margin:+.3f}, "
              f"{_verdict(other_line.passes)} (shown, not governing).")
     out: list[str] = []
-    if c.ductile:
+    if c.ductile and c.governing_check == "peak":
+        out += [NO_HAND_LOAD, peak, hand]
+    elif c.ductile:
         out += [
             "Ductile material under static load: local yielding at the peak redistributes stress across the "
             f"section, so the {c.hand.label} check governs (common practice); the peak is judged by von Mises, "
@@ -378,8 +386,9 @@ def design_check(
                            fastener_shear_mpa, allowable_stress(fastener_shear_strength_mpa, fos_yield),
                            fastener_shear_strength_mpa, fastener_shear_strength_mpa, None, None)
     peak_criterion = CRITERION_DUCTILE if ductile else CRITERION_BRITTLE
-    governing = hand.key if ductile else "peak"
-    main = hand_line if ductile else (von_mises if peak_criterion == CRITERION_DUCTILE else principal)
+    by_hand = ductile and hand.stress_mpa > 0.0  # a hand stress of nil: no load crosses the cut (NO_HAND_LOAD)
+    governing = hand.key if by_hand else "peak"
+    main = hand_line if by_hand else (von_mises if peak_criterion == CRITERION_DUCTILE else principal)
     check = DesignCheck(
         load_kind=load_kind,
         thickness_mm=thickness_mm,

@@ -32,12 +32,13 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
+import shapely
 
 from ..fem.analysis import Solution
 from ..fem.convergence import Study
 from ..fem.fastener_part import PartFasteners, mean_bearing
 from ..geometry.kinds.hole import named as named_hole
-from ..geometry.outline import part_polygon
+from ..geometry.outline import part_polygon, plate_polygon
 from ..geometry.spec import PartSpec, SectionSpec
 from .joint_checks import (ELASTIC_SOURCE, PRACTICE, STAGGER_SOURCE, Understatement, critical_net_path,
                            elastic_method, simple_connection, spacing, understatement)
@@ -180,14 +181,18 @@ def joint_result(spec: PartSpec, study: Study, solution: Solution) -> JointResul
 
 
 def _net_and_bypass(spec: PartSpec, solution: Solution, number: int, along: np.ndarray,
-                    groups: PartFasteners) -> tuple[float, float]:
+                    groups: PartFasteners) -> tuple[float | None, float | None]:
     """(N / A_net MPa, bypass N) on the cut through hole `number`'s centre normal to `along` (its fastener's
-    force, or for a concentric group the group's load); the holes the cut crosses share the bypass."""
+    force, or for a concentric group the group's load); the holes the cut crosses share the bypass. (None,
+    None) when that line leaves the part and enters it again (a drawn outline's arm or tab): no one straight
+    cut is then the hole's net section, and a nominal on it would not be the hand calculation's."""
     size = float(np.linalg.norm(along))
     if size == 0.0:
         return 0.0, 0.0
     n = np.asarray(along, float) / size
     centre = spec.holes[number - 1].center
+    if not _one_run(spec, centre, n):
+        return None, None
     result = section_result(spec, solution, SectionSpec(tuple(centre), (float(n[0]), float(n[1])),
                                                         f"through {named_hole(number)}"))
     N = result.statics.normal_force
@@ -200,6 +205,18 @@ def _net_and_bypass(spec: PartSpec, solution: Solution, number: int, along: np.n
     if abs(bypass) <= ROUND_OFF * max(abs(N), sum(abs(v) for v in on_cut)):
         bypass = 0.0  # statics to round-off: no load passes an end hole
     return (N / result.area if result.area > 0.0 else 0.0), float(bypass)
+
+
+def _one_run(spec: PartSpec, centre, n: np.ndarray) -> bool:
+    """Whether the line through `centre` normal to `n` crosses the part's material in one run, broken only
+    by its cut-outs (holes, slots, windows: gaps inside the outline), never by the air outside it."""
+    from .sections import ligaments
+
+    spans = ligaments(part_polygon(spec), (float(centre[0]), float(centre[1])), (float(n[0]), float(n[1])))
+    outline = plate_polygon(spec)
+    d = np.array([-n[1], n[0]])
+    gaps = [np.asarray(centre, float) + 0.5 * (a[1] + b[0]) * d for a, b in zip(spans, spans[1:])]
+    return all(outline.contains(shapely.Point(*p)) for p in gaps)
 
 
 @dataclass(frozen=True)
@@ -247,8 +264,13 @@ def _averages(g, rows: list[FastenerRow], force: float, t: float, path: NetPathR
 
 
 def _width_across(exterior, point: np.ndarray, along: np.ndarray) -> float:
-    """The outline's width (mm) along the line through `point` normal to `along`."""
+    """The outline's width (mm) along the line through `point` normal to `along`: the one stretch of the
+    outline that holds `point` (a drawn outline's line may cross another arm beyond the air; that arm does
+    not carry this group's load)."""
     from .sections import ligaments
 
     spans = ligaments(exterior, (float(point[0]), float(point[1])), (float(along[0]), float(along[1])))
-    return float(sum(b - a for a, b in spans))
+    if not spans:
+        return 0.0
+    a, b = min(spans, key=lambda s: 0.0 if s[0] <= 0.0 <= s[1] else min(abs(s[0]), abs(s[1])))
+    return float(b - a)

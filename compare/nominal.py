@@ -191,6 +191,8 @@ def edge_nominals(spec: PartSpec, peak: float, section: SectionResult, gross: tu
     gross_axial, gross_bending = fibre(gross)
     if abs(bending) <= ROUND_OFF * abs(peak):  # a moment of round-off: no bending term
         bending = gross_bending = 0.0
+    if abs(axial) <= ROUND_OFF * abs(peak):  # a force of round-off (no load crosses the cut): no axial term
+        axial = gross_axial = 0.0
     net = make("edge-net", "cut normal to the edge, net", "N / A + M s / I at the peak (s from the cut's centroid)",
                axial + bending)
     gross_nominal = make("edge-gross", "cut normal to the edge, gross", "N / A_g + M s / I_g at the peak, the outline "

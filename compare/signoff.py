@@ -215,7 +215,9 @@ def hand_stress(result: CheckResult) -> HandStress:
         szz = spec.material.nu * (r.sx + r.sy) if spec.plate.condition == "plane-strain" else 0.0
         value = float(von_mises(np.array([[r.sx, r.sy, r.txy]]), szz)[0])
         return HandStress("remote-stress", "remote stress", "von Mises of the remote sx, sy, txy", value, False)
-    nominal = result.nominal.net
+    # the cut's own nominal, also where Kt is taken on a fastener's bearing (compare.check.bearing_led): the
+    # bearing has its own line against the bearing strength
+    nominal = next(n for n in result.nominal.all if n.key != "fastener-bearing")
     return HandStress("net-section", HAND_LABELS[kind], nominal.formula, abs(nominal.stress))
 
 

@@ -72,25 +72,27 @@ def free_motions(spec: PartSpec) -> np.ndarray:
 
 
 def check_drawn(spec: PartSpec, cases: list) -> None:
-    """A drawn outline has no held or loaded end: refuse one that is not held by [[hold]] entries and a load
+    """A drawn outline has no held or loaded end: refuse one that is not held by [[hold]] entries or a holding
+    fastener group, and a load
     case with end loads or a remote state, naming what is missing (a case with no load at all is refused
     as it is read). `cases`:
     (part-file key, LoadCase) of every case."""
     if spec.support.symmetry:
         raise PartError("support.symmetry: a drawn outline is modelled as drawn; draw the half or quarter and hold "
                         "its cut edges with roller [[hold]] entries")
-    if not spec.support.holds:
+    if not spec.support.holds and not any(group.holds for group in spec.fasteners):
         raise PartError("hold: a drawn outline has no held end; hold it with [[hold]] entries (a stretch of its edge "
-                        "by at or from/to, mode \"fixed\" or \"roller\", or pin = a hole's number)")
+                        "by at or from/to, mode \"fixed\" or \"roller\", or pin = a hole's number) or a fastener "
+                        "group that holds (holds = true)")
     for where, case in cases:
         load = case.load
         if load.remote is not None:
             raise PartError(f"{where}.remote: a drawn outline is loaded on its own boundary; use [[load.edge]] "
-                            f"entries or [load.pin]")
+                            f"entries, [load.pin] or [[load.fasteners]]")
         for key in ("axial", "bending", "shear"):
             if getattr(load, key) != 0.0:
                 raise PartError(f"{where}.{key}: a drawn outline has no loaded end; load it with [[load.edge]] "
-                                f"entries or [load.pin]")
+                                f"entries, [load.pin] or [[load.fasteners]]")
 
 
 def check_held(spec: PartSpec) -> None:

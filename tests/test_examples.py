@@ -72,8 +72,8 @@ CUT_PARTS = sorted((EXAMPLES / "cut_parts").glob("*.toml"))
 @pytest.mark.parametrize("example", CUT_PARTS, ids=lambda p: p.stem)
 def test_cut_file_example_runs_on_the_drawing_its_script_writes(example, tmp_path, capsys):
     # The repository holds the scripts, not the drawings: each part file of examples/cut_parts names the
-    # DXF its script in examples/ writes; the script writes it beside a copy of the part file, as a user
-    # would, and the check runs to a converged, complete record that names the drawing.
+    # DXF its script in examples/ writes (NAME.dxf by NAME_dxf.py); the script writes it beside a copy of
+    # the part file, as a user would, and the check runs to a converged, complete record that names the drawing.
     import shutil
     import subprocess
     import sys
@@ -81,7 +81,7 @@ def test_cut_file_example_runs_on_the_drawing_its_script_writes(example, tmp_pat
     part = tmp_path / example.name
     shutil.copy(example, part)
     drawing = tomllib.loads(example.read_text())["outline"]["file"]
-    script = EXAMPLES / f"{example.stem}_dxf.py"
+    script = EXAMPLES / f"{drawing.rsplit('.', 1)[0]}_dxf.py"  # the drawing's own script, whichever part file
     done = subprocess.run([sys.executable, str(script), str(tmp_path / drawing)], capture_output=True, text=True,
                           timeout=120)
     assert done.returncode == 0, done.stderr
