@@ -25,7 +25,7 @@ from __future__ import annotations
 from typing import Any
 
 from .errors import PartError
-from .readers import array_of_tables, known, number, point
+from .readers import array_of_tables, case_entries, known, number, point
 from .spec import HOLD_MODES, BoundaryPick, EdgeLoad, Hold
 
 HOLD_KEYS = {"at", "from", "to", "mode", "pin"}
@@ -79,11 +79,8 @@ def read_pick(t: dict[str, Any], where: str, units: str) -> BoundaryPick:
 
 def read_edge_loads(items: Any, where: str, units: str) -> tuple[EdgeLoad, ...]:
     """The [[load.edge]] entries of one load case (`where` names the case's table, e.g. "load")."""
-    if not isinstance(items, list) or not all(isinstance(i, dict) for i in items):
-        raise PartError(f"{where}.edge: must be an array of tables, each written [[{where.split()[0]}.edge]]")
     out = []
-    for n, item in enumerate(items, start=1):
-        key = f"{where}.edge {n}"
+    for key, item in case_entries(items, where, "edge"):
         known(item, EDGE_KEYS, key)
         kinds = [k for k in ("force", "pressure") if k in item]
         if len(kinds) != 1:

@@ -33,7 +33,7 @@ import math
 from typing import Any
 
 from .errors import PartError
-from .readers import array_of_tables, integer, known, number, point, positive, shown
+from .readers import array_of_tables, case_entries, integer, known, number, point, positive, shown
 from .spec import FastenerSpec, GroupLoad, HuthInputs, PartSpec
 
 GROUP_KEYS = {"name", "holes", "diameter", "clearance", "shear_planes", "stiffness", "holds", "huth"}
@@ -107,11 +107,8 @@ def _stiffness(item: dict[str, Any], where: str, units: str) -> tuple[str, float
 
 def read_group_loads(items: Any, where: str, units: str) -> tuple[GroupLoad, ...]:
     """The [[load.fasteners]] entries of one load case (`where` names the case's table, e.g. "load")."""
-    if not isinstance(items, list) or not all(isinstance(i, dict) for i in items):
-        raise PartError(f"{where}.fasteners: must be an array of tables, each written [[{where.split()[0]}.fasteners]]")
     out = []
-    for n, item in enumerate(items, start=1):
-        key = f"{where}.fasteners {n}"
+    for key, item in case_entries(items, where, "fasteners"):
         known(item, LOAD_KEYS, key)
         group = item.get("group")
         if not isinstance(group, str) or not group.strip():

@@ -65,6 +65,14 @@ def array_of_tables(data: dict[str, Any], key: str) -> list[tuple[int, dict[str,
     return list(enumerate(items, start=1))
 
 
+def case_entries(items: Any, where: str, name: str) -> list[tuple[str, dict[str, Any]]]:
+    """The [[load.NAME]] entries of one load case (`where` names the case's table, e.g. "load"), each with
+    the key messages name it by ("load.edge 2")."""
+    if not isinstance(items, list) or not all(isinstance(i, dict) for i in items):
+        raise PartError(f"{where}.{name}: must be an array of tables, each written [[{where.split()[0]}.{name}]]")
+    return [(f"{where}.{name} {n}", item) for n, item in enumerate(items, start=1)]
+
+
 def number(t: dict[str, Any], key: str, where: str, quantity: str | None = None, units: str = DEFAULT_UNITS,
            required: bool = True, default: float | None = None) -> float:
     """A finite number from t[key], converted to mm, N or MPa when `quantity` names one.
