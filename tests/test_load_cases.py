@@ -179,5 +179,9 @@ def test_several_right_hand_sides_solve_as_one_each(solver):
     else:
         many = solve_system(K, F, fixed, solver, mesh.nodes)[0]
         ones = [solve_system(K, F[:, k], fixed, solver, mesh.nodes)[0] for k in range(3)]
+    # the direct solvers repeat one factorisation's arithmetic; the multigrid CG repeats the same iterations,
+    # whose round-off (threaded sums over a hierarchy built again for each call) grows with the iteration
+    # count: seen up to 1.2e-12 on a clean CI machine, so 1e-10 there (its stopping residual, CG_TOLERANCE)
+    tolerance = 1e-10 if solver == "iterative" else 1e-12
     for k in range(3):
-        assert np.abs(many[:, k] - ones[k]).max() <= 1e-12 * np.abs(ones[k]).max()
+        assert np.abs(many[:, k] - ones[k]).max() <= tolerance * np.abs(ones[k]).max()
