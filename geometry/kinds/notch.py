@@ -159,7 +159,16 @@ def mouths(spec: PartSpec, notch: Notch) -> tuple[Point, ...]:
 
 
 def curved(spec: PartSpec, notch: Notch) -> CurvedEdges:
-    return CurvedEdges(arcs=tuple(s.root for s in shapes(spec, notch)), curvature=notch.radius)
+    """The root arc of each cut-out as its two halves, either side of the notch's axis: the cut-out's wire
+    is split there, so each band piece must end there too (a V opening 90 degrees or more, or a shallow U,
+    has a root arc of a quarter turn or less, which one band piece would otherwise span: a five-cornered
+    patch that gmsh cannot mesh transfinite)."""
+    arcs = []
+    for s in shapes(spec, notch):
+        middle = 0.5 * (s.root.start + s.root.end)
+        arcs += [Arc(s.root.center, s.root.radius, s.root.start, middle),
+                 Arc(s.root.center, s.root.radius, middle, s.root.end)]
+    return CurvedEdges(arcs=tuple(arcs), curvature=notch.radius)
 
 
 def cut(spec: PartSpec, notch: Notch) -> NetCut:
