@@ -196,7 +196,8 @@ def assess(levels: list[Level] | tuple[Level, ...], tolerance: float, formal: fl
     # the first of equal candidates (mirror images on a mirrored mesh agree to round-off): a stable choice
     governing = next(n for n, e in estimates.items() if sign * e.value >= top - TIE * abs(top))
     reaching = [n for n, e in estimates.items() if sign * e.value * (1.0 + e.error) >= top or n in required]
-    converged = len(levels) >= MIN_LEVELS and all(estimates[n].error <= tolerance for n in reaching)
+    converged = len(levels) >= MIN_LEVELS and refined(levels) and all(estimates[n].error <= tolerance
+                                                                       for n in reaching)
     return Assessment(governing, estimates, compressive, converged)
 
 
@@ -294,6 +295,13 @@ def measure_level(spec: PartSpec, solution: Solution, modelled: Mesh, scale: flo
                  solver=solution.solver.method if solution.solver is not None else "",
                  von_mises=von_mises_peak(spec, solution), compression=raiser_peaks(solution, compressive=True),
                  compressive=solution.compressive_governs(), bearing=bearing_peak(solution))
+
+
+def refined(levels: list[Level] | tuple[Level, ...]) -> bool:
+    """Whether each of the last MIN_LEVELS levels has more elements than the one before: levels that repeat
+    a mesh repeat its peak, and an estimate from them would call any peak converged."""
+    last = levels[-MIN_LEVELS:]
+    return all(b.elements > a.elements for a, b in zip(last, last[1:]))
 
 
 def finish(levels: list[Level], spec: PartSpec, stop: str, required: Collection[RaiserName] = ()) -> Study:

@@ -77,3 +77,84 @@ def test_fillets_larger_than_a_narrow_part_keep_their_bands_apart():
     assert linear.kt.net > 1.0
     gap = abs(linear.kt.net - quadratic.kt.net)
     assert gap <= linear.kt.error * linear.kt.net + quadratic.kt.error * quadratic.kt.net, (linear.kt, quadratic.kt)
+
+
+# --- an infinite Kt in the JSON record ---------------------------------------------------------------------
+
+def test_an_infinite_kt_is_written_as_null_and_the_record_validates(tmp_path):
+    """Where the nominal stress vanishes on the section, Kt is infinite (compare/check.py `_kt`) and the
+    record writes it as null (JSON has no infinity: cli/files.py `finite_or_null`); the schema required a
+    number there, so such a record failed its own schema. The check's result with its Kt made infinite, as a
+    vanishing nominal makes it, gives a record that validates, with null Kt and band."""
+    import dataclasses
+    import json
+
+    import jsonschema
+
+    from conftest import STRAP
+    from stressraiser.cli.files import write_json
+    from stressraiser.cli.record import check_record
+    from stressraiser.cli.schema import check_schema
+
+    result = check_part(part_from_dict({**STRAP, "mesh": {"tolerance": 0.05}}))
+    infinite = dataclasses.replace(result, kt=dataclasses.replace(result.kt, net=float("inf"), gross=float("inf")),
+                                   peaks=tuple(dataclasses.replace(p, kt_net=float("inf"), kt_gross=float("inf"))
+                                                      for p in result.peaks))
+    path = tmp_path / "out.json"
+    write_json(path, check_record(infinite))
+    record = json.loads(path.read_text(encoding="utf-8"))
+    assert record["kt"]["net"] is None and record["kt"]["net_band"] == [None, None]
+    jsonschema.Draft202012Validator(check_schema()).validate(record)
+
+
+# --- a plate with no raiser: nothing refined, yet "converged ± 0.00 %" ---------------------------------
+
+def test_a_plain_clamped_plate_is_refined_and_never_converged_on_repeated_meshes(capsys):
+    """A clamped plate with no raiser under an axial pull: the far-field size did not follow the level, so
+    every level was the same mesh with the same peak, and the study said "converged ± 0.00 %". Now each
+    level is finer than the one before, the peak's band is not zero, and away from the clamp the stress is
+    the statics value N / (W t) = 150 MPa (a uniform bar: exact for constant-strain triangles)."""
+    from stressraiser.cli.summary import print_levels
+    from stressraiser.cli.terminal import out_console
+
+    result = check_part(part_from_dict({"plate": {"length": 300.0, "width": 80.0, "thickness": 10.0},
+                                        "material": {"E": 210000.0, "nu": 0.3}, "load": {"axial": 120000.0},
+                                        "support": {"held": "clamped"},
+                                        "mesh": {"tolerance": 0.01, "max_levels": 4}}))
+    elements = [lv.elements for lv in result.study.levels]
+    assert all(b > a for a, b in zip(elements, elements[1:])), elements
+    assert result.kt.error > 0.0
+    assert result.net_section.average == pytest.approx(150.0, rel=1e-9)
+    print_levels(result, out_console())
+    assert "None" not in capsys.readouterr().out  # the table named the peak's raiser "None"
+
+
+def test_repeated_meshes_are_never_called_converged():
+    """fem.convergence.refined: three levels with the same element count say nothing about the error."""
+    from stressraiser.fem.convergence import Level, refined
+
+    def level(elements: int) -> Level:
+        return Level(scale=1.0, nodes=elements, elements=elements, peak=1.0, location=(0.0, 0.0), seconds={})
+
+    assert not refined([level(416), level(416), level(416)])
+    assert not refined([level(100), level(400), level(400)])
+    assert refined([level(100), level(400), level(1600)])
+
+
+# --- a pin pulling across a long strap --------------------------------------------------------------------
+
+def test_a_pin_across_a_long_strap_takes_the_nominal_at_the_pin():
+    """A pin pulling a 2 m strap sideways: its Kt was once referred to a nominal away from the pin (Kt in the
+    thousands of a meaningless section). The nominal is P / A_net on the cut through the pin hole across the
+    pin's line (README, Loads: the pin's net section), here along the whole strap: 20 kN / ((2000 - 22) mm x
+    10 mm); the peak is the strap's bending at its held end, far from the pin, and is warned as such."""
+    spec = part_from_dict({"plate": {"length": 2000.0, "width": 80.0, "thickness": 10.0},
+                           "hole": [{"center": [0.0, 0.0], "diameter": 22.0}],
+                           "material": {"E": 210000.0, "nu": 0.3},
+                           "load": {"pin": {"hole": 1, "force": 20000.0, "direction": 90.0}},
+                           "mesh": {"tolerance": 0.05, "max_levels": 3}})
+    result = check_part(spec)
+    nominal = 20000.0 / ((2000.0 - 22.0) * 10.0)
+    assert result.nominal.net.stress == pytest.approx(nominal, rel=1e-6)
+    assert result.kt.net == pytest.approx(abs(result.peak.stress) / nominal, rel=1e-9)
+    assert any("away from every feature" in str(w) for w in result.warnings)
