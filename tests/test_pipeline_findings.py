@@ -158,3 +158,27 @@ def test_a_pin_across_a_long_strap_takes_the_nominal_at_the_pin():
     assert result.nominal.net.stress == pytest.approx(nominal, rel=1e-6)
     assert result.kt.net == pytest.approx(abs(result.peak.stress) / nominal, rel=1e-9)
     assert any("away from every feature" in str(w) for w in result.warnings)
+
+
+# --- a round ellipse turned a little: a half model that sliced its band ---------------------------------
+
+def test_a_round_ellipse_turned_a_little_is_meshed_whole_and_matches_the_hole():
+    """An ellipse as long as it is wide, turned a third of a degree: as a region it is its own mirror image,
+    so the part was meshed as its half, and the cut along y = 0 sliced the band quarters (which start on the
+    ellipse's axis, a third of a degree off the cut) into slivers: "364 degenerate triangles", exit 3. A
+    raiser whose axis does not mirror onto itself now makes the part whole; its Kt is the round hole's:
+    Peterson (Pilkey), 3rd ed., chart 4.1 fit, Ktn = 2 + 0.284 (1 - x) - 0.600 (1 - x)^2 + 1.32 (1 - x)^3
+    at x = d/W = 0.32 (docs/references.md [Peterson]; a curve fit, 3 %)."""
+    from stressraiser.geometry.symmetry import mirror_symmetric
+
+    part = {"plate": {"length": 300.0, "width": 50.0, "thickness": 5.0},
+            "ellipse": [{"center": [0.0, 0.0], "length": 16.0, "width": 16.0, "angle": -1.0 / 3.0}],
+            "material": {"E": 210000.0, "nu": 0.3}, "load": {"axial": 10000.0},
+            "mesh": {"tolerance": 0.02, "max_levels": 5}}
+    spec = part_from_dict(part)
+    assert not mirror_symmetric(spec, "y")
+    result = check_part(spec)
+    x = 0.32
+    peterson = 2 + 0.284 * (1 - x) - 0.600 * (1 - x) ** 2 + 1.32 * (1 - x) ** 3
+    assert result.kt.converged
+    assert result.kt.net == pytest.approx(peterson, rel=0.03)
