@@ -182,3 +182,33 @@ def test_a_round_ellipse_turned_a_little_is_meshed_whole_and_matches_the_hole():
     peterson = 2 + 0.284 * (1 - x) - 0.600 * (1 - x) ** 2 + 1.32 * (1 - x) ** 3
     assert result.kt.converged
     assert result.kt.net == pytest.approx(peterson, rel=0.03)
+
+
+# --- a fillet a hair below the step: a sliver of a shoulder face ---------------------------------------
+
+def shouldered(radius: float) -> dict:
+    return {"plate": {"length": 400.0, "width": 60.0, "thickness": 8.0},
+            "step": {"x": 0.0, "width": 40.0, "radius": radius},
+            "material": {"E": 210000.0, "nu": 0.3}, "load": {"axial": 40000.0},
+            "mesh": {"tolerance": 0.02}}
+
+
+def test_a_fillet_a_hair_below_the_step_is_refused_naming_the_face(tmp_path, capsys):
+    """A fillet 0.1 mm smaller than its 10 mm step leaves a shoulder face 0.1 mm long, below the 0.24 mm
+    the mesh can resolve on a 60 mm part (four of its finest elements, as for a ligament): the mesher made
+    degenerate triangles there (exit 3). Refused now, naming step.radius and the face."""
+    from conftest import assert_refused, toml_text
+
+    assert_refused(tmp_path, capsys, toml_text(shouldered(9.9)), ["step.radius", "shoulder face of 0.1 mm"])
+
+
+def test_a_fillet_equal_to_the_step_meets_the_handbook():
+    """The fillet equal to the step (no face) is accepted; its Kt against Young and Budynas, Roark's
+    Formulas for Stress and Strain, 7th ed., table 17.1, stepped flat bar in tension (docs/references.md
+    [Roark]): h/r = 1, s = 1, x = 2h/D = 1/3: C1 = 1.976, C2 = -0.385, C3 = -1.022, C4 = 0.431,
+    Kt = C1 + C2 x + C3 x^2 + C4 x^3 = 1.750; a curve fit, 3 %."""
+    result = check_part(part_from_dict(shouldered(10.0)))
+    x = 1.0 / 3.0
+    roark = 1.976 - 0.385 * x - 1.022 * x**2 + 0.431 * x**3
+    assert result.kt.converged
+    assert result.kt.net == pytest.approx(roark, rel=0.03)

@@ -168,6 +168,11 @@ def check(spec: PartSpec, limit: float, x_left: float, x_right: float) -> None:
         raise PartError(f"step.radius: a {length(step.radius)} fillet from x = {length(step.x)} reaches x = "
                         f"{length(shape.x_narrow)}, which leaves {length(max(room, 0.0), 3)} of narrow part before "
                         f"the {step.narrow} end; at least {length(limit, 3)} is needed (a smaller radius or step.x)")
+    face = shape.wide - shape.narrow - step.radius  # the shoulder face left beside a fillet below the step
+    if 1e-12 * shape.wide < face < limit:  # as top_chain: a face shorter than that is none
+        raise PartError(f"step.radius: a {length(step.radius)} fillet under a {length(shape.wide - shape.narrow)} "
+                        f"step leaves a shoulder face of {length(face, 3)}; at least {length(limit, 3)} is needed, or "
+                        f"a radius equal to the step (no face) or larger")
     wide = (step.x - wide_end) * shape.sense
     if wide < limit:
         raise PartError(f"step.x: {length(step.x)} leaves {length(max(wide, 0.0), 3)} of wide part; at least "
