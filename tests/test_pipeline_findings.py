@@ -212,3 +212,25 @@ def test_a_fillet_equal_to_the_step_meets_the_handbook():
     roark = 1.976 - 0.385 * x - 1.022 * x**2 + 0.431 * x**3
     assert result.kt.converged
     assert result.kt.net == pytest.approx(roark, rel=0.03)
+
+
+# --- a U notch a hair off a semicircle ----------------------------------------------------------------
+
+@pytest.mark.parametrize("depth", [9.9, 10.02])
+def test_a_u_notch_a_hair_off_its_radius_is_refused(tmp_path, capsys, depth):
+    """A U notch 1 % shallower or 0.2 % deeper than its 10 mm radius: its band's end line ran a sliver away
+    from the plate's edge and the mesher made degenerate triangles (or lost the part: "split into 0
+    pieces"), exit 3. Refused now, naming notch 1.depth and the radius."""
+    from conftest import assert_refused, toml_text
+
+    part = {**NOTCH_STRAP, "notch": [{"x": 0.0, "side": "top", "shape": "U", "depth": depth, "radius": 10.0}]}
+    assert_refused(tmp_path, capsys, toml_text(part), ["notch 1.depth", "of the radius 10 mm"])
+
+
+def test_a_u_notch_as_deep_as_its_radius_is_the_semicircle():
+    """depth = radius is accepted, and is the semicircular notch: the same Kt as `shape = "semicircle"`
+    within the bands (the same cut-out, meshed alike)."""
+    u = notched({"shape": "U", "depth": 10.0, "radius": 10.0})
+    semicircle = notched({"shape": "semicircle", "radius": 10.0})
+    assert u.kt.converged and semicircle.kt.converged
+    assert abs(u.kt.net - semicircle.kt.net) <= (u.kt.error + semicircle.kt.error) * u.kt.net
