@@ -234,3 +234,13 @@ def test_a_u_notch_as_deep_as_its_radius_is_the_semicircle():
     semicircle = notched({"shape": "semicircle", "radius": 10.0})
     assert u.kt.converged and semicircle.kt.converged
     assert abs(u.kt.net - semicircle.kt.net) <= (u.kt.error + semicircle.kt.error) * u.kt.net
+
+
+def test_a_fillet_a_hair_larger_than_the_step_is_refused(tmp_path, capsys):
+    """A fillet 1.3 % larger than its 10 mm step meets the wide edge at under a degree: its band's end line
+    ran a sliver from the edge and the mesher made degenerate triangles (exit 3). Refused now, naming
+    step.radius and the step; a radius 5 % larger meshes and converges."""
+    from conftest import assert_refused, toml_text
+
+    assert_refused(tmp_path, capsys, toml_text(shouldered(10.13)), ["step.radius", "of the 10 mm step"])
+    assert check_part(part_from_dict(shouldered(10.5))).kt.converged
