@@ -124,7 +124,7 @@ def report_folder(value: str) -> Path:
     from .errors import OutputError
     from .files import output_folder
 
-    folder = output_folder(value, "--report")
+    folder = output_folder(value, "--report", swapped=True)
     stray = _not_of_a_report(folder) if folder.is_dir() else None
     if stray is not None:
         raise OutputError(f"--report {value}: the folder holds {stray!r}, which is not part of a report; the report "

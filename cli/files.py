@@ -168,16 +168,18 @@ def output_file(value: str | None, option: str, inputs: Iterable[str | Path] = (
     return path
 
 
-def output_folder(value: str, option: str, files: Iterable[str] = ()) -> Path:
+def output_folder(value: str, option: str, files: Iterable[str] = (), swapped: bool = False) -> Path:
     """The folder an output option names, checked before any work: a path is given, it is a folder or a
     new path, each of `files` (names the command writes in it) is a regular file or new, and it can be
-    written in (or, when new, its nearest existing parent). Raises OutputError naming the option."""
+    written in (or, when new, its nearest existing parent). A folder `swapped` in whole (`atomic_folder`)
+    is written beside it, so its parent is what must be writable, and the probe goes there: a run killed
+    during the check leaves nothing inside the folder. Raises OutputError naming the option."""
     where = _named(value, option)
     path = Path(os.path.realpath(value))
     _check_kind(path, where, want_folder=True)
     for name in files:
         _check_kind(path / name, f"{where}: {name}", want_folder=False)
-    _check_writable(path, where)
+    _check_writable(path.parent if swapped else path, where)
     return path
 
 

@@ -212,7 +212,7 @@ def print_key_numbers(result: CheckResult, console: Console) -> None:
 
 def print_levels(result: CheckResult, console: Console) -> None:
     """The mesh levels of the study and how the estimate was made."""
-    levels = Table(title=f"Mesh levels ({result.peak.feature}'s own peak on each)", title_justify="left", box=None,
+    levels = Table(title=f"Mesh levels ({raiser_label(result.peak.feature)}'s own peak on each)", title_justify="left", box=None,
                    pad_edge=False)
     units = result.spec.units
     for column in ("level", "nodes", "elements", f"peak {label('stress', units)}", "time s"):

@@ -201,7 +201,8 @@ def assess(levels: list[Level] | tuple[Level, ...], tolerance: float, formal: fl
     # the first of equal candidates (mirror images on a mirrored mesh agree to round-off): a stable choice
     governing = next(n for n, e in estimates.items() if sign * e.value >= top - TIE * abs(top))
     reaching = [n for n, e in estimates.items() if sign * e.value * (1.0 + e.error) >= top or n in required]
-    converged = len(levels) >= MIN_LEVELS and all(estimates[n].error <= tolerance for n in reaching)
+    converged = len(levels) >= MIN_LEVELS and refined(levels) and all(estimates[n].error <= tolerance
+                                                                       for n in reaching)
     return Assessment(governing, estimates, compressive, converged)
 
 
@@ -347,6 +348,13 @@ def contact_passes(solution: Solution) -> int | None:
     if solution.contact is not None:
         return solution.contact.passes
     return None
+
+
+def refined(levels: list[Level] | tuple[Level, ...]) -> bool:
+    """Whether each of the last MIN_LEVELS levels has more elements than the one before: levels that repeat
+    a mesh repeat its peak, and an estimate from them would call any peak converged."""
+    last = levels[-MIN_LEVELS:]
+    return all(b.elements > a.elements for a, b in zip(last, last[1:]))
 
 
 def finish(levels: list[Level], spec: PartSpec, stop: str, required: Collection[RaiserName] = ()) -> Study:

@@ -29,7 +29,7 @@ from .quadratic import QUADRATIC_SIZE, elevate_and_extract, sub_edges, sub_trian
 from .mesh_guard import check_finite, check_mesh, checked_expression
 from .outline import feature_edges, plate_polygon
 from .raisers import Raiser, distance_expression, part_raisers
-from .registry import kind_of, named, outline_of, outline_size
+from .registry import kind_of, named, outline_of, outline_size, raiser_ids
 from .shapes import EllipseShape, Line, Loop, full_circle, segment_points, split_arc
 from .spec import PartSpec
 from .sharp_corners import sharp_corners
@@ -333,9 +333,12 @@ def far_size(spec: PartSpec, scale: float, sizing: Sizing = Sizing()) -> float:
     nothing. Under bending or shear (or a pin pulling across the part, or loads and supports on the
     boundary, which spread through the part as they will) the far-field stress varies across the width,
     which constant-strain triangles only approximate, so the cap is finer and shrinks with `scale`. With
-    several load cases the mesh (one for all) is the finest any case needs."""
+    several load cases the mesh (one for all) is the finest any case needs. A part with no raiser at all
+    has nothing else to refine (its peak is where a support or a load puts it), so there the cap always
+    follows `scale`."""
     width = outline_size(spec)[1]
-    if spec.support.holds or not all(_uniform_far_field(case.load) for case in spec.load_cases):
+    if spec.support.holds or not raiser_ids(spec) \
+            or not all(_uniform_far_field(case.load) for case in spec.load_cases):
         return min(sizing.far_fraction, sizing.bending_far_fraction * scale) * width
     return sizing.far_fraction * width
 

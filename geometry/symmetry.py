@@ -39,11 +39,14 @@ def mirror_names(spec: PartSpec, plane: str) -> dict[RaiserId, RaiserId] | None:
         return (max(abs(u - v) for u, v in zip(a.bounds, b.bounds)) <= tolerance
                 and a.hausdorff_distance(b) <= tolerance)
 
+    items = dict(named(spec))
     out: dict[RaiserId, RaiserId] = {}
     for rid, item in named(spec):
         kind = kind_of(item)
-        image = shapely.union_all([loop_polygon(loop) for loop in kind.loops(spec, kind.mirrored(item, plane))])
-        match = next((other for other in regions if other.kind == rid.kind and coincide(image, regions[other])), None)
+        mirrored = kind.mirrored(item, plane)
+        image = shapely.union_all([loop_polygon(loop) for loop in kind.loops(spec, mirrored)])
+        match = next((other for other in regions if other.kind == rid.kind and coincide(image, regions[other])
+                      and same_axis(mirrored, items[other])), None)
         if match is None:
             return None
         out[rid] = match
@@ -53,6 +56,17 @@ def mirror_names(spec: PartSpec, plane: str) -> dict[RaiserId, RaiserId] | None:
             return None
         out[raiser.id] = image
     return out
+
+
+def same_axis(a, b) -> bool:
+    """Whether two raisers of one kind have the same axis direction (to 1e-6 degrees, modulo a half turn),
+    when their kind has one: a round ellipse or a square window turned a little coincides with its mirror
+    image as a region, but its mesh (the band's quarters start on its axis) does not mirror, and a half
+    model cut along the plane would slice those quarters into slivers."""
+    angle_a, angle_b = getattr(a, "angle", None), getattr(b, "angle", None)
+    if angle_a is None or angle_b is None:
+        return True
+    return abs((angle_a - angle_b + 90.0) % 180.0 - 90.0) <= 1e-6
 
 
 def mirror_symmetric(spec: PartSpec, plane: str) -> bool:

@@ -84,6 +84,9 @@ def feature_gaps(spec: PartSpec) -> dict[RaiserId, dict[str, float]]:
         out[name] = gaps
     for fillet, (line, clear_of) in fillets.items():
         gaps = {label: line.distance(edge) for label, edge, edge_name in edges if edge_name in clear_of}
+        # the fillet opposite: their clear distance is the narrow width, which the fillet's band must fit in
+        gaps.update({str(other): line.distance(other_line) for other, (other_line, _) in fillets.items()
+                     if other != fillet})
         gaps.update({str(name): out[name][str(fillet)] for name in regions})
         out[fillet] = gaps
     return out

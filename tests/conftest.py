@@ -110,3 +110,12 @@ def damaged_copies(text: str, seed: int, count: int, junk: Sequence[str]) -> Ite
         else:
             copy[i] = rng.choice(junk)
         yield "".join(copy)
+
+
+def pytest_terminal_summary(terminalreporter) -> None:
+    """The whole-pipeline fuzz test's case counts (tests/test_fuzz_pipeline.py), so that CI shows them."""
+    import sys
+
+    module = sys.modules.get("pipelineparts")
+    for name, counts in (getattr(module, "COUNTS", None) or {}).items():
+        terminalreporter.write_line(f"fuzz {name}: " + ", ".join(f"{k} {v}" for k, v in counts.items()))

@@ -254,3 +254,26 @@ def test_atomic_folder(tmp_path, monkeypatch, one_step):
             raise KeyboardInterrupt
     assert _listing(target) == {"b.txt": b"second"}
     assert sorted(p.name for p in tmp_path.iterdir()) == ["out"]  # no hidden folder left either
+
+
+def test_the_report_folder_check_leaves_nothing_in_the_folder(tmp_path, monkeypatch):
+    # The report replaces its folder whole from a fresh folder beside it, so the writability probe goes
+    # beside it too: a run killed during the check (test_report_folder_is_replaced_whole once caught one)
+    # left the probe file inside an earlier report.
+    from stressraiser.cli import files
+    from stressraiser.cli.check import report_folder
+
+    folder = tmp_path / "review"
+    folder.mkdir()
+    (folder / "check.json").write_text("{}")
+    probed = []
+    real = files.tempfile.mkstemp
+
+    def spy(*args, **kwargs):
+        probed.append(Path(kwargs["dir"]))
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(files.tempfile, "mkstemp", spy)
+    report_folder(str(folder))
+    assert probed == [tmp_path]
+    assert sorted(p.name for p in folder.iterdir()) == ["check.json"]

@@ -32,6 +32,11 @@ FILLET = "fillet"  # the kind of the fillets' RaiserIds
 TOP, BOTTOM = RaiserId(FILLET, 1), RaiserId(FILLET, 2)
 NARROW_ENDS = ("loaded", "held")
 CLEAR_OF = ("held", "loaded", "lug end")  # outline edges a fillet must keep a ligament to
+# A fillet a little larger than the step meets the wide edge at a small angle, so its band's end line runs a
+# sliver from the edge and the mesher made degenerate triangles there (seen at 1.3 % larger); as for a U
+# notch near its radius (kinds/notch.py NEAR_SEMICIRCLE). A fillet a little smaller leaves a shoulder face,
+# held to the ligament limit instead.
+NEAR_STEP = 0.03
 
 
 @dataclass(frozen=True)
@@ -168,6 +173,16 @@ def check(spec: PartSpec, limit: float, x_left: float, x_right: float) -> None:
         raise PartError(f"step.radius: a {length(step.radius)} fillet from x = {length(step.x)} reaches x = "
                         f"{length(shape.x_narrow)}, which leaves {length(max(room, 0.0), 3)} of narrow part before "
                         f"the {step.narrow} end; at least {length(limit, 3)} is needed (a smaller radius or step.x)")
+    face = shape.wide - shape.narrow - step.radius  # the shoulder face left beside a fillet below the step
+    if 1e-12 * shape.wide < face < limit:  # as top_chain: a face shorter than that is none
+        raise PartError(f"step.radius: a {length(step.radius)} fillet under a {length(shape.wide - shape.narrow)} "
+                        f"step leaves a shoulder face of {length(face, 3)}; at least {length(limit, 3)} is needed, or "
+                        f"a radius equal to the step (no face) or larger")
+    over = (step.radius - (shape.wide - shape.narrow)) / step.radius  # a fillet larger than the step
+    if 1e-12 < over < NEAR_STEP:
+        raise PartError(f"step.radius: a {length(step.radius)} fillet is within {over:.2%} of the "
+                        f"{length(shape.wide - shape.narrow)} step; give the step as the radius (a quarter circle) "
+                        f"or a radius that differs from it by at least {NEAR_STEP:.0%}")
     wide = (step.x - wide_end) * shape.sense
     if wide < limit:
         raise PartError(f"step.x: {length(step.x)} leaves {length(max(wide, 0.0), 3)} of wide part; at least "
