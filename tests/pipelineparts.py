@@ -3,7 +3,8 @@
 Where tests/fuzzparts.py feeds the reader hostile text, these strategies build parts a careful user could
 have written: every raiser kind (hole, ellipse, slot, notch, window, shoulder step, lug end) and every load
 (axial, bending, shear, their combinations, a pin with the cosine pressure or a rigid pin with clearance,
-a remote stress state, holds and edge loads, several load cases), pushed to the corners of what the reader
+a remote stress state, holds and edge loads, several load cases, fastener groups that hold and pull),
+an outline drawn by points with a concave recess, pushed to the corners of what the reader
 accepts: extreme aspect ratios (a plate 200 widths long, an ellipse 50 times longer than wide), raisers
 close to an edge or to each other, parts from a twentieth of a millimetre to tens of metres wide,
 near-incompressible materials in plane strain, and every unit system. Many are still refused by the
@@ -28,9 +29,9 @@ from fuzzparts import toml_text
 # --- quantities of the part-file keys, and the unit systems -------------------------------------------
 
 LENGTH_KEYS = {"length", "width", "thickness", "diameter", "depth", "radius", "x", "y", "center", "at", "from",
-               "to", "clearance", "through"}
+               "to", "clearance", "through", "points", "about"}
 FORCE_KEYS = {"axial", "shear", "force"}
-MOMENT_KEYS = {"bending"}
+MOMENT_KEYS = {"bending", "moment"}
 STRESS_KEYS = {"E", "yield", "ultimate", "sx", "sy", "txy", "pressure"}
 NOT_QUANTITIES = {"mesh"}  # tables whose numbers are counts and fractions
 
@@ -151,8 +152,8 @@ def centred(part: Part) -> bool:
 
 # --- the generator -----------------------------------------------------------------------------------
 
-RAISER_KINDS = ("none", "hole", "holes", "ellipse", "slot", "notch", "window", "step", "lug")
-LOAD_KINDS = ("axial", "bending", "shear", "combined", "pin", "rigid pin", "remote", "edge", "cases")
+RAISER_KINDS = ("none", "hole", "holes", "ellipse", "slot", "notch", "window", "step", "lug", "drawn")
+LOAD_KINDS = ("axial", "bending", "shear", "combined", "pin", "rigid pin", "remote", "edge", "cases", "fasteners")
 ASPECTS = (1.2, 2.0, 3.0, 4.0, 6.0, 10.0, 30.0, 200.0)  # length / width
 
 
@@ -180,14 +181,18 @@ def parts(draw, raisers=RAISER_KINDS, loads=LOAD_KINDS, budget: int = 12_000, un
         data["plate"]["condition"] = "plane-strain"
     raiser = draw(st.sampled_from(raisers))
     load = draw(st.sampled_from(loads))
+    if raiser == "drawn" and load not in ("edge", "fasteners"):  # a drawn outline has no loaded end
+        load = draw(st.sampled_from(["edge", "fasteners"]))
     _raisers(draw, data, raiser, length, width)
     holes = data.get("hole", [])
     data["material"] = _material(draw, near_incompressible)
     data.update(_loads(draw, load, holes, length, width, thickness, stress))
-    if load in ("edge",) and "support" in data:
+    if load in ("edge", "fasteners") and "support" in data:
         data.pop("support")
     if draw(st.integers(0, 5)) == 0:
         data["section"] = [{"x": draw(st.floats(-0.45, 0.45)) * length}]
+    if load == "fasteners" or raiser == "drawn":  # four graded bolt holes, or a graded recess: more elements
+        budget = max(budget, 40_000)
     mesh = {"tolerance": 0.05, "max_levels": 3, "max_elements": budget}
     if near_incompressible and draw(st.booleans()) or draw(st.integers(0, 11)) == 0:
         mesh["order"] = 2
@@ -256,6 +261,15 @@ def _raisers(draw, data: dict[str, Any], kind: str, length: float, width: float)
         data["step"] = {"x": x, "width": width * draw(fraction(0.2, 0.97)),
                         "radius": width * draw(log_uniform(0.005, 1.5)),
                         "narrow": draw(st.sampled_from(["loaded", "held"]))}
+    elif kind == "drawn":  # the plate drawn by points, a recess in its top edge (a concave arc: corner 1)
+        half_l, half_w = 0.5 * length, 0.5 * width
+        r = width * draw(fraction(0.05, 0.3))
+        bulge = -draw(st.sampled_from([1.0, math.tan(math.radians(22.5)), 0.2]))  # a half, quarter, shallow arc
+        data["plate"] = {k: v for k, v in data["plate"].items() if k not in ("length", "width")}
+        data["outline"] = {"points": [[-half_l, -half_w], [half_l, -half_w], [half_l, half_w], [x + r, half_w],
+                                      {"to": [x - r, half_w], "bulge": bulge}, [-half_l, half_w]]}
+        if draw(st.booleans()):
+            data["hole"] = [{"center": [x, -0.2 * width], "diameter": width * draw(fraction(0.05, 0.3))}]
     elif kind == "lug":
         d = width * draw(fraction(0.15, 0.8))
         data["hole"] = [{"center": [0.5 * length - 0.5 * width, 0.0], "diameter": d}]
@@ -303,6 +317,20 @@ def _loads(draw, kind: str, holes: list, length: float, width: float, thickness:
             a = draw(st.floats(0.0, 0.4)) * length
             out["load"] = {"edge": [{"from": [a, 0.5 * width], "to": [a - 0.3 * width, 0.5 * width],
                                      "pressure": 0.2 * stress}]}
+    elif kind == "fasteners":  # two bolts near each end: the left pair holds, the right pair pulls
+        e, d = 0.5 * length - 0.3 * width, 0.12 * width
+        first = len(holes) + 1
+        added = [{"center": [sx * e, sy * 0.2 * width], "diameter": d} for sx in (-1, 1) for sy in (-1, 1)]
+        clearance = d * draw(st.sampled_from([0.0, 0.005, 0.05]))
+        out.pop("support", None)
+        out["hole"] = holes + added
+        out["fasteners"] = [{"name": "held", "holes": [first, first + 1], "clearance": clearance, "holds": True},
+                            {"name": "pulled", "holes": [first + 2, first + 3], "clearance": clearance}]
+        pull: dict[str, Any] = {"group": "pulled", "force": abs(axial),
+                                "direction": draw(st.sampled_from([0.0, 30.0, 90.0, -45.0, 180.0]))}
+        if draw(st.booleans()):
+            pull["moment"] = draw(st.floats(-0.2, 0.2)) * moment
+        out["load"] = {"fasteners": [pull]}
     elif kind == "cases":
         out["load"] = [{"name": "pull", "axial": axial}, {"name": "bend", "bending": moment},
                        {"name": "both", "axial": -0.5 * axial, "shear": 0.1 * stress * width * thickness}]
