@@ -116,3 +116,17 @@ def test_a_hole_number_past_a_cut_files_circles_is_refused_counting_the_circles(
         text = text.replace(wrong, "holes = [3, 5]\ndiameter = 12.8\n")
     text += "[[load]]\nname = \"pull\"\n[[load.fasteners]]\ngroup = \"pulled\"\nforce = 1000.0\ndirection = 0.0\n"
     assert_refused(tmp_path, capsys, text, [key, "4 holes", "4 from the cut file's circles", "0 [[hole]] entries"])
+
+
+def test_the_quiet_verdict_line_says_when_the_design_check_fails(tmp_path, capsys):
+    # --quiet prints only the verdict line; it once ended at the Kt, so a bolted part whose bearing fails
+    # (margin < 0 by hand from the FE forces: the test above) printed no word of it.
+    from stressraiser.cli.main import main
+
+    text = splice(f"[[load]]\nname = \"pull\"\n[[load.fasteners]]\ngroup = \"pulled\"\nforce = {BEARING_FORCE}\n"
+                  "direction = 0.0\n[design]\nyield_factor = 1.5\n")
+    part = tmp_path / "part.toml"
+    part.write_text(text.replace("E = 205000.0\nnu = 0.3\nyield = 355.0\nfamily = \"steel\"\n", "grade = \"s355\"\n"))
+    assert main(["check", str(part), "--quiet"]) == 0
+    (line,) = capsys.readouterr().out.strip().splitlines()
+    assert line.startswith("Kt(net)") and line.endswith("; design check FAILS")
