@@ -39,7 +39,7 @@ def run(args: argparse.Namespace) -> int:
     from .main import EXIT_INPUT
     from .progress import LevelProgress
     from .record import check_record
-    from .summary import print_summary, verdict
+    from .summary import print_summary, signoff_verdicts, verdict
     from .terminal import err_console, out_console, shown_path
 
     spec = with_max_elements(with_sections(load_part(args.part), args.section), args.max_elements)
@@ -69,7 +69,7 @@ def run(args: argparse.Namespace) -> int:
             failed.append(exc)
     # the results are shown even when an output could not be written, so that the run is not lost
     if args.quiet:
-        out.print(verdict(result), markup=False)
+        out.print(verdict(result) + signoff_verdicts(result), markup=False)
     else:
         print_summary(result, out)
         if written is not None:

@@ -74,11 +74,23 @@ def check_caption(units: str) -> str:
             "FoS y and FoS u: factor of safety achieved on yield (bearing: on the bearing strength) and on ultimate.")
 
 
+def also_failing(c) -> str:
+    """The words the design headline adds when a check that must pass as well as the governing one (a
+    pin's or fastener's bearing, the fastener shear) fails while the governing check passes: the worst
+    of them by name and margin, so that a FAILS verdict never stands beside a positive margin alone."""
+    governing = c.hand if c.governing_check == c.hand.key else c.peak
+    failing = [ln for ln in (c.bearing, c.fastener_shear) if ln is not None and not ln.passes]
+    if not failing or not governing.passes:
+        return ""
+    worst = min(failing, key=lambda ln: ln.margin)
+    return f"; {CHECK_NAMES.get(worst.key, worst.key)} FAILS, margin {worst.margin:+.3f}"
+
+
 def _print_design(design: DesignSignOff, units: str, console: Console) -> None:
     c = design.check
     governing = c.hand if c.governing_check == c.hand.key else c.peak
     console.print(f"Design check: {_verdict(c.passes)} — {c.load_kind} load, {c.governing_check} check governs, "
-                  f"margin {governing.margin:+.3f}", soft_wrap=False)
+                  f"margin {governing.margin:+.3f}{also_failing(c)}", soft_wrap=False)
     table = Table(box=None, pad_edge=False, padding=(0, 1), show_edge=False)
     for n, name in enumerate(CHECK_HEADER):
         table.add_column(name, justify="left" if n in (0, len(CHECK_HEADER) - 1) else "right", no_wrap=True)

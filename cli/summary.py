@@ -20,6 +20,17 @@ from .joint_summary import print_joints
 from .signoff_summary import print_signoff
 
 
+def signoff_verdicts(result: CheckResult) -> str:
+    """The sign-off's verdicts in words to follow the verdict line where only that line is printed
+    (--quiet): a failing design check or fatigue screen is never hidden behind the Kt line alone."""
+    words = []
+    if result.design is not None:
+        words.append(f"design check {'passes' if result.design.check.passes else 'FAILS'}")
+    if result.fatigue is not None:
+        words.append(f"fatigue screen {'passes' if result.fatigue.screen.passes else 'FAILS'}")
+    return "".join(f"; {w}" for w in words)
+
+
 def verdict(result: CheckResult) -> str:
     """One line: Kt with its band and whether the peak converged (the peak in the part file's units, with
     what it is: which principal stress, extrapolated or the finest level's)."""

@@ -134,7 +134,7 @@ def joint_result(spec: PartSpec, study: Study, solution: Solution) -> JointResul
         centres = np.array([spec.holes[h - 1].center for h in g.holes], float)
         ref = np.asarray(model.point)
         if g.holds:
-            load = (float(fe.force[0]), float(fe.force[1]), float(fe.moment))
+            load = _reaction(fe, mine)
         else:
             load = model.load
         arms = centres - ref
@@ -244,6 +244,17 @@ def net_path(spec: PartSpec, g, rows: list[FastenerRow], along: np.ndarray, exte
     path = critical_net_path(width, centres, d_holes, tuple(along))
     peaks = [(r.peak, r.hole) for r in rows if r.peak is not None]
     return NetPathRow(tuple(g.holes[i] for i in path.holes), path.width, width, max(peaks)[1] if peaks else None)
+
+
+def _reaction(fe, mine) -> tuple[float, float, float]:
+    """A holding group's reaction (force x, force y, moment about its point); a force that is statics'
+    round-off of the forces its fasteners carry (below ROUND_OFF of their sum: a group that takes a pure
+    moment) is none, so that it neither sets a load direction nor divides the simple connection's averages."""
+    carried = float(sum(np.linalg.norm(f.force) for f in mine))
+    fx, fy = float(fe.force[0]), float(fe.force[1])
+    if math.hypot(fx, fy) <= ROUND_OFF * carried:
+        fx, fy = 0.0, 0.0
+    return (fx, fy, float(fe.moment))
 
 
 def _averages(g, rows: list[FastenerRow], force: float, t: float, path: NetPathRow) -> tuple[Understatement, ...]:

@@ -34,7 +34,7 @@ from typing import Any
 
 from .errors import PartError
 from .readers import array_of_tables, case_entries, integer, known, number, point, positive, shown
-from .spec import FastenerSpec, GroupLoad, HuthInputs, PartSpec
+from .spec import FastenerSpec, GroupLoad, HuthInputs, PartSpec, hole_count_words
 
 GROUP_KEYS = {"name", "holes", "diameter", "clearance", "shear_planes", "stiffness", "holds", "huth"}
 HUTH_KEYS = {"other_thickness", "other_modulus", "fastener_modulus", "joint"}
@@ -159,7 +159,7 @@ def fitted(spec: PartSpec) -> tuple[FastenerSpec, ...]:
     for g in spec.fasteners:
         for h in g.holes:
             if h > len(spec.holes):
-                raise PartError(f"{g.key}.holes: {h} names no hole; the part has {len(spec.holes)} [[hole]] entries")
+                raise PartError(f"{g.key}.holes: {h} names no hole; " + hole_count_words(spec))
             if h in claimed:
                 raise PartError(f"{g.key}.holes: hole {h} is in {claimed[h]} too; a hole takes one fastener")
             claimed[h] = g.key

@@ -16,7 +16,7 @@ from .kinds import bar
 from .kinds.hole import named as named_hole
 from .outline import part_polygon
 from .registry import kind_of, named, outline_size
-from .spec import BoundaryPick, Load, LoadCase, PartSpec
+from .spec import BoundaryPick, Load, LoadCase, PartSpec, hole_count_words
 from .symmetry import mirror_names, mirror_symmetric, symmetry_tolerance
 
 MAX_CLEARANCE = 0.1  # of the pin hole's diameter: the contact gap is measured along the hole's radii, which
@@ -68,8 +68,7 @@ def _check_load(spec: PartSpec, load: Load, where: str) -> None:
     """One load case against the part: its pin, remote state and edge loads."""
     support = spec.support
     if load.pin is not None and load.pin.hole > len(spec.holes):
-        raise PartError(f"{where}.pin.hole: {load.pin.hole} names no hole; the part has {len(spec.holes)} "
-                        "[[hole]] entries")
+        raise PartError(f"{where}.pin.hole: {load.pin.hole} names no hole; " + hole_count_words(spec))
     if load.pin is not None and load.pin.clearance >= MAX_CLEARANCE * spec.holes[load.pin.hole - 1].diameter:
         from .units import format_quantity
 
@@ -122,8 +121,7 @@ def _check_holds(spec: PartSpec) -> None:
             _check_on_part(spec, hold.where, _pin_holes(spec))
             continue
         if hold.pin > len(spec.holes):
-            raise PartError(f"{hold.key}.pin: {hold.pin} names no hole; the part has {len(spec.holes)} [[hole]] "
-                            "entries")
+            raise PartError(f"{hold.key}.pin: {hold.pin} names no hole; " + hole_count_words(spec))
         if hold.pin in seen:
             raise PartError(f"{hold.key}.pin: {named_hole(hold.pin)} is held by a pin already")
         seen.add(hold.pin)

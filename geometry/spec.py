@@ -433,3 +433,14 @@ class PartSpec:
 
         return replace(self, load=case.load, cases=(case,) if self.cases else ())
 
+
+
+def hole_count_words(spec: PartSpec) -> str:
+    """How many holes `spec` has and where they come from, for a message that names a hole it lacks: a
+    cut file's circles are holes too (numbered first), so "[[hole]] entries" alone would miscount them."""
+    total = len(spec.holes)
+    drawn = spec.drawing.holes if spec.drawing is not None else 0
+    if drawn == 0:
+        return f"the part has {total} [[hole]] entries"
+    return (f"the part has {total} holes: {drawn} from the cut file's circles (numbered left to right, then "
+            f"bottom to top) and {total - drawn} [[hole]] {'entry' if total - drawn == 1 else 'entries'}")
