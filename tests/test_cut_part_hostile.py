@@ -8,9 +8,8 @@ import pytest
 
 from stressraiser.compare.check import check_part
 from stressraiser.geometry.partfile import parse_part
+from test_cut_part_joints import CENTRES, D, L, T, W, splice_dxf  # the drawn splice plate and its cut file
 
-L, W, T, D = 300.0, 80.0, 8.0, 13.0  # a drawn splice plate (mm): length, width, thickness, hole diameter
-CENTRES = [(-110.0, 0.0), (-70.0, 0.0), (70.0, 0.0), (110.0, 0.0)]  # holes 1..4, left to right
 MOMENT = 1.0e6  # N mm: a pure couple on the loaded group
 
 
@@ -80,22 +79,6 @@ def test_a_design_headline_that_fails_on_bearing_names_the_bearing_and_its_margi
     words = also_failing(c)
     assert words.startswith("; pin bearing FAILS, margin ")
     assert float(words.rsplit(" ", 1)[1]) == pytest.approx(margin, abs=1.5e-3)
-
-
-
-def splice_dxf(path) -> None:
-    """The splice plate as a cut file: outline LINEs and the four holes as CIRCLEs (mm)."""
-    import ezdxf
-
-    doc = ezdxf.new("R2010")
-    doc.units = ezdxf.units.MM
-    msp = doc.modelspace()
-    corners = [(-L / 2, -W / 2), (L / 2, -W / 2), (L / 2, W / 2), (-L / 2, W / 2)]
-    for a, b in zip(corners, corners[1:] + corners[:1]):
-        msp.add_line(a, b)
-    for centre in CENTRES:
-        msp.add_circle(centre, D / 2)
-    doc.saveas(path)
 
 
 @pytest.mark.parametrize("wrong, key", [
