@@ -8,13 +8,14 @@ from rich.console import Console
 from rich.markup import escape
 from rich.table import Table
 
-from ..compare.check import FASTENER_BEARING, CheckResult
+from ..compare.check import CheckResult
+from ..compare.edge_cut import EDGE_NORMAL
+from ..compare.nominal import FASTENER_BEARING
 from ..fem.convergence import FORMAL_ORDER
 from ..geometry.errors import clipped
 from ..geometry.registry import raiser_label
 from .citation import short_source
 from .display_units import label, point_text, quantity_text, shown, warning_text
-from ..compare.edge_cut import EDGE_NORMAL
 from .loads_summary import bearing_rows, boundary_rows, nominal_rows, pin_rows, print_cases, print_sections, stress_rows
 from .joint_summary import print_joints
 from .signoff_summary import print_signoff

@@ -27,7 +27,7 @@ from .guards import result_warnings
 from .handbook import Match, handbook_matches
 from .method_of_sections import SectionResult, section_result, section_results
 from .notices import Amount, Notice, notice
-from .nominal import GrossSection, Nominal, NominalSet, critical_cut, edge_nominals, gross_section, nominal_stresses
+from .nominal import FASTENER_BEARING, GrossSection, Nominal, NominalSet, critical_cut, edge_nominals, gross_section, nominal_stresses
 from .sections import Cut
 from .stress_peaks import StressPeaks, stress_peaks
 from .case_cycle import part_fatigue
@@ -303,9 +303,6 @@ def _raiser_result(spec: PartSpec, solution: Solution, feature: RaiserId | None,
     result = RaiserPeak(feature, estimate.value, estimate.error, fe_stress, location, section,
                         _kt(estimate.value, nominal.net.stress), _kt(estimate.value, nominal.gross.stress))
     return result, nominal, gross
-
-
-FASTENER_BEARING = "fastener-bearing"  # the key of the nominal bearing_led puts first
 
 
 def bearing_led(solution: Solution, feature: RaiserId | None, peak: float, nominal: NominalSet) -> NominalSet:

@@ -203,6 +203,7 @@ def edge_nominals(spec: PartSpec, peak: float, section: SectionResult, gross: tu
 
 
 ROUND_OFF = 1e-9  # a nominal term below this fraction of the peak is round-off of a zero
+FASTENER_BEARING = "fastener-bearing"  # the key of a fastener's own bearing nominal (compare.check.bearing_led)
 
 
 def _centroid(spans: tuple[tuple[float, float], ...]) -> float:

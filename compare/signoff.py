@@ -38,6 +38,7 @@ from ..geometry.spec import BEARING_FACTOR, SINGLE_CASE, DesignSpec, FatigueSpec
 from .design import HandStress, DesignCheck, design_check
 from .fatigue import FatigueScreen, NotchCycle, fatigue_screen, scaled_cycle
 from .local_strain import CyclicCurve
+from .nominal import FASTENER_BEARING
 
 if TYPE_CHECKING:
     from .check import CheckResult
@@ -78,15 +79,18 @@ HAND_BASIS = {
     "remote": "Hand check: the remote (far-field) stress state as given, by the material's criterion (von Mises of "
               "sx, sy, txy for a ductile metal, the largest principal stress in magnitude for a brittle one): the "
               "plate away from its raisers.",
+    "boundary": "Hand check: N / A + M s / I at the peak on the cut normal to the edge there, N and M from the "
+                "statics of the free body the cut separates under the loads on the part's boundary (beam theory "
+                "across the cut).",
+    "fasteners": "Hand check: N / A + M s / I at the peak on the cut normal to the edge there (the load reaching "
+                 "that cut through the fastener groups, taken as beam theory spreads it); each fastener's bearing "
+                 "F / (d t) and, with design.fastener_shear_strength, its average shear F / (n pi d^2 / 4) are "
+                 "checked on their own (the fastener rows). The fasteners' forces are the FE's sharing, not equal "
+                 "shares.",
 }
-HAND_BASIS["fasteners"] = (
-    "Hand check: N / A + M s / I at the peak on the cut normal to the edge there (the load reaching that cut "
-    "through the fastener groups, taken as beam theory spreads it); each fastener's bearing F / (d t) and, "
-    "with design.fastener_shear_strength, its average shear F / (n pi d^2 / 4) are checked on their own "
-    "(the fastener rows). The fasteners' forces are the FE's sharing, not equal shares.")
 HAND_LABELS = {"axial": "net-section average", "bending": "net-section bending stress",
                "combined": "net-section extreme-fibre stress", "pin": "net-section average beside the pin",
-               "fasteners": "cut at the peak, N / A + M s / I"}
+               "boundary": "cut at the peak, N / A + M s / I", "fasteners": "cut at the peak, N / A + M s / I"}
 
 
 @dataclass(frozen=True)
@@ -217,7 +221,7 @@ def hand_stress(result: CheckResult) -> HandStress:
         return HandStress("remote-stress", "remote stress", "von Mises of the remote sx, sy, txy", value, False)
     # the cut's own nominal, also where Kt is taken on a fastener's bearing (compare.check.bearing_led): the
     # bearing has its own line against the bearing strength
-    nominal = next(n for n in result.nominal.all if n.key != "fastener-bearing")
+    nominal = next(n for n in result.nominal.all if n.key != FASTENER_BEARING)
     return HandStress("net-section", HAND_LABELS[kind], nominal.formula, abs(nominal.stress))
 
 

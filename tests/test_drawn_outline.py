@@ -481,3 +481,17 @@ def test_a_sweep_finds_a_cut_file_named_relative_to_its_part_file(tmp_path, caps
     rows = json.loads((out / "sweep.json").read_text())["rows"]
     assert [r["status"] for r in rows] == ["ok", "ok"]
     assert rows[0]["kt_net"] == pytest.approx(rows[1]["kt_net"], rel=1e-6)
+
+
+def test_a_drawn_part_loaded_on_its_edges_signs_off_on_the_cut_at_the_peak():
+    # [design] on a part held and loaded on its own boundary (load kind "boundary") once stopped with an
+    # internal error. The hand check is N / A on the cut normal to the edge at the hole's peak, here the net
+    # section: F / ((W - d) t) by statics, to round-off.
+    part = drawn_strap({"points": STRAP_POINTS}, tolerance=0.03)
+    part["design"] = {"yield_factor": 1.5}
+    part["material"] = {**STEEL, "yield": 355.0, "family": "steel"}
+    result = check_part(part_from_dict(part))
+    check = result.design.check
+    assert check.load_kind == "boundary"
+    assert check.hand.actual_mpa == pytest.approx(FORCE / ((W - D) * T), rel=1e-6)
+    assert check.governing_check == "net-section" and check.allowable_mpa == pytest.approx(355.0 / 1.5)
