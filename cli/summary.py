@@ -40,13 +40,14 @@ def verdict(result: CheckResult) -> str:
     state = "converged" if kt.converged else "NOT converged"
     nominal = result.nominal
     basis = f" on the {nominal.net.label.split(',')[0]} nominal" if nominal and result.spec.load.kind != "axial" else ""
-    if nominal is not None and nominal.net.key == FASTENER_BEARING:
+    bearing = on_fastener_bearing(result)
+    if bearing:
         basis = f" on the {nominal.net.label}"
     elif on_edge_cut(result):
         basis = " on the cut normal to the edge at the peak"
     cases = result.every_case
     case = f" in load case {result.case!r} (governs {len(cases)} cases)" if len(cases) > 1 else ""
-    pair = (f"Kt {kt.net:.3f} ± {kt.error:.2%}" if nominal is not None and nominal.net.key == FASTENER_BEARING
+    pair = (f"Kt {kt.net:.3f} ± {kt.error:.2%}" if bearing
             else f"Kt(net) {kt.net:.3f} ± {kt.error:.2%}, Kt(gross) {kt.gross:.3f}")
     return (f"{pair}{basis} — peak {peak} "
             f"({peak_words(result)}) at {raiser_label(result.peak.feature)}{case}, {state} in {len(result.study.levels)} mesh levels")
@@ -61,6 +62,11 @@ def peak_state(result: CheckResult) -> str:
     """How the headline peak was obtained and whether it converged: "extrapolated, converged"."""
     how = "extrapolated" if result.study.estimate.extrapolated else "finest level"
     return f"{how}, {'converged' if result.kt.converged else 'NOT converged'}"
+
+
+def on_fastener_bearing(result: CheckResult) -> bool:
+    """Whether the result's Kt is on a fastener's own bearing F / (d t) (compare.check.bearing_led)."""
+    return result.nominal is not None and result.nominal.net.key == FASTENER_BEARING
 
 
 def on_edge_cut(result: CheckResult) -> bool:
@@ -122,7 +128,7 @@ def kt_rows(result: CheckResult) -> list[Row]:
     "Kt on net section  2.437 ± 0.60%  nominal N / A_net = 10667 psi". No rich markup: the report reuses them."""
     kt, nominal, units = result.kt, result.nominal, result.spec.units
     net = f"{kt.net:.3f} ± {kt.error:.2%}"
-    if nominal is not None and nominal.net.key == FASTENER_BEARING:  # compare.check.bearing_led
+    if on_fastener_bearing(result):
         return [("Kt on fastener bearing", net, nominal_note(nominal.net.formula, nominal.net.stress, units))]
     if nominal is not None and on_edge_cut(result):
         return [("Kt on the cut (net)", net, nominal_note(nominal.net.formula, nominal.net.stress, units)),
